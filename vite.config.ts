@@ -1,0 +1,32 @@
+import { fileURLToPath, URL } from 'node:url';
+import { defineConfig } from 'vite';
+import tailwindcss from '@tailwindcss/vite';
+
+const here = (p: string) => fileURLToPath(new URL(p, import.meta.url));
+
+// The client is built into dist/ and served by the Express app on one port.
+export default defineConfig({
+  plugins: [tailwindcss()],
+  resolve: {
+    alias: {
+      '@shared': here('./shared'),
+      '@': here('./src'),
+    },
+  },
+  // Model weights and wasm binaries are served from the app's own origin (never a CDN).
+  publicDir: false,
+  build: {
+    outDir: 'dist',
+    sourcemap: true,
+    chunkSizeWarningLimit: 4000,
+  },
+  worker: { format: 'es' },
+  server: {
+    port: 5173,
+    proxy: {
+      '/api': 'http://127.0.0.1:4810',
+      '/models': 'http://127.0.0.1:4810',
+      '/wasm': 'http://127.0.0.1:4810',
+    },
+  },
+});
