@@ -1,0 +1,51 @@
+import { z } from 'zod';
+
+export const ROLES = ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'] as const;
+export type Role = (typeof ROLES)[number];
+
+export const loginSchema = z.object({
+  email: z.string().trim().toLowerCase().email('Enter a valid email address'),
+  password: z.string().min(1, 'Enter your password'),
+});
+export type LoginInput = z.infer<typeof loginSchema>;
+
+export const acceptInvitationSchema = z.object({
+  token: z.string().min(10),
+  name: z.string().trim().min(1, 'Enter your name').max(120),
+  password: z.string().min(10, 'Use at least 10 characters').max(200),
+});
+export type AcceptInvitationInput = z.infer<typeof acceptInvitationSchema>;
+
+export const createInvitationSchema = z.object({
+  email: z.string().trim().toLowerCase().email('Enter a valid email address'),
+  role: z.enum(ROLES),
+  /** For athlete invitations: the athlete record to link. For guardians: the child. */
+  athleteId: z.string().uuid().optional(),
+  /** For coach invitations: the age groups they will coach. */
+  ageGroupIds: z.array(z.string().uuid()).optional(),
+});
+export type CreateInvitationInput = z.infer<typeof createInvitationSchema>;
+
+export interface UserDto {
+  id: string;
+  email: string;
+  name: string;
+  role: Role;
+  clubId: string;
+  /** Set for the athlete role: the athlete record this user is. */
+  athleteId: string | null;
+  /** Set for the guardian role: the athletes this user is guardian of. */
+  childAthleteIds: string[];
+  /** Set for the coach role: the age groups they coach. */
+  coachedAgeGroupIds: string[];
+}
+
+export interface LoginResponse {
+  accessToken: string;
+  user: UserDto;
+}
+
+export interface MeResponse {
+  user: UserDto;
+  club: { id: string; name: string };
+}
