@@ -1,0 +1,4 @@
+export * from './types';
+export * from './vector';
+export * from './angles';
+export * from './reference-frame';

@@ -1,0 +1,61 @@
+import type { Keypoint, KeypointName, ReferenceLine, View } from '../keypoints';
+import { distance, dot, midpoint, mean, norm, referenceFrame, sub, type Vec2 } from '../geometry';
+import { PosePoints } from './pose-points';
+
+export type Facing = 'left' | 'right';
+
+/**
+ * Shoulder and hip width over torso length above which a frame looks like a front view. A
+ * front-on skier's shoulders are roughly 0.8 torso lengths wide and hips 0.6; in a true side view
+ * both project to nearly nothing (common practice, not a published figure).
+ */
+export const FRONT_WIDTH_THRESHOLD = 0.35;
+
+/** Suggests front or side view from body widths; confidence 0 means "could not tell". */
+export function suggestView(keypoints: Keypoint[]): { view: View; confidence: number } {
+  const p = new PosePoints(keypoints);
+  const pt = (n: KeypointName): Vec2 => p.record(n).point;
+  const pairs: [KeypointName, KeypointName][] = [
+    ['left_shoulder', 'right_shoulder'],
+    ['left_hip', 'right_hip'],
+  ];
+  if (!pairs.every(([l, r]) => p.has(l) && p.has(r))) return { view: 'front', confidence: 0 };
+  const shoulderMid = midpoint(pt('left_shoulder'), pt('right_shoulder'));
+  const hipMid = midpoint(pt('left_hip'), pt('right_hip'));
+  const torso = distance(shoulderMid, hipMid);
+  if (torso === 0) return { view: 'front', confidence: 0 };
+  const width = mean(pairs.map(([l, r]) => ({ x: distance(pt(l), pt(r)), y: 0 })))!.x;
+  const ratio = width / torso;
+  const confidence = Math.min(1, Math.abs(ratio - FRONT_WIDTH_THRESHOLD) / FRONT_WIDTH_THRESHOLD);
+  return { view: ratio >= FRONT_WIDTH_THRESHOLD ? 'front' : 'side', confidence };
+}
+
+/**
+ * Which way the skier faces in a side view, as an image direction along the snow line: the nose
+ * ahead of the ears and, with BlazePose, foot tips ahead of heels. Confidence is the mean cosine
+ * of those cues with the line (1 = all point straight along it); null when there is no cue.
+ */
+export function detectFacing(
+  keypoints: Keypoint[],
+  referenceLine?: ReferenceLine | null,
+): { facing: Facing; confidence: number } | null {
+  const p = new PosePoints(keypoints);
+  const frame = referenceFrame(referenceLine);
+  const cues: number[] = [];
+  const cue = (from: Vec2, to: Vec2) => {
+    const d = sub(to, from);
+    const n = norm(d);
+    if (n > 0) cues.push(dot(d, frame.along) / n);
+  };
+  const ears = (['left_ear', 'right_ear'] as const).filter((n) => p.has(n)).map((n) => p.record(n).point);
+  if (p.has('nose') && ears.length > 0) cue(mean(ears)!, p.record('nose').point);
+  for (const side of ['left', 'right'] as const) {
+    const heel = `${side}_heel` as const;
+    const toe = `${side}_foot_index` as const;
+    if (p.has(heel) && p.has(toe)) cue(p.record(heel).point, p.record(toe).point);
+  }
+  if (cues.length === 0) return null;
+  const combined = cues.reduce((a, b) => a + b, 0) / cues.length;
+  if (combined === 0) return null;
+  return { facing: combined > 0 ? 'right' : 'left', confidence: Math.abs(combined) };
+}

@@ -1,0 +1,295 @@
+import { median } from 'mathjs/number';
+import type { Keypoint, KeypointName, ReferenceLine, View } from '../keypoints';
+import { DEFAULT_CONFIDENCE_FLOOR } from '../keypoints';
+import {
+  computeFrameMetrics,
+  detectFacing,
+  METRIC_KEYS,
+  type Facing,
+  type MetricKey,
+  type SegmentTableName,
+} from '../metrics';
+import { fillGaps, runsOf } from './gap-fill';
+import { makeSmoother, type FilterOptions, type FilterRecord } from './filters';
+import { segmentTurns } from './turns';
+
+export class SeriesInputError extends Error {
+  override name = 'SeriesInputError';
+}
+
+export interface SeriesFrameInput {
+  frameIndex: number;
+  timeMs: number;
+  keypoints: Keypoint[];
+}
+
+export interface SeriesOptions {
+  view: View;
+  referenceLine?: ReferenceLine | null;
+  fps: number;
+  /** Longest dropout, in samples, that is interpolated (default 3). */
+  maxGapFrames?: number;
+  /** Default: zero-lag Butterworth at 6 Hz. */
+  filter?: FilterOptions;
+  confidenceFloor?: number;
+  /** Side view facing for the whole clip; by default the confidence-weighted vote of its frames. */
+  facing?: Facing | null;
+  segmentTable?: SegmentTableName;
+  /** |inclination| (deg) a turn must reach to count, so jitter around zero is not a turn (default 3). */
+  minTurnPeakDeg?: number;
+}
+
+export interface SeriesFrame {
+  frameIndex: number;
+  timeMs: number;
+  /** Gap-filled and smoothed; points that could not be filled keep their raw values and scores. */
+  keypoints: Keypoint[];
+  interpolated: boolean;
+  interpolatedKeypoints: KeypointName[];
+  metrics: Record<MetricKey, number | null>;
+  reasons: Partial<Record<MetricKey, string>>;
+}
+
+export interface Turn {
+  index: number;
+  direction: 'left' | 'right';
+  startFrame: number;
+  apexFrame: number;
+  endFrame: number;
+  startMs: number;
+  apexMs: number;
+  endMs: number;
+  durationMs: number;
+  /** False when the clip cuts the turn: it starts or ends at the clip edge, not at a transition. */
+  complete: boolean;
+  insideSide: 'left' | 'right';
+  apexValues: Record<MetricKey, number | null>;
+  /** legExtension at the transition ending this turn minus its value at this turn's apex. */
+  transitionRise: number | null;
+  /** shoulderTilt at the apex, positive when the inside shoulder is lower. */
+  insideShoulderDrop: number | null;
+  /** foreAftOffset at the apex, positive when the inside foot is ahead (side view only, so usually null). */
+  insideFootLead: number | null;
+}
+
+export interface MetricSummary {
+  median: number | null;
+  min: number | null;
+  max: number | null;
+  count: number;
+}
+
+export type SeriesSummary = Record<MetricKey, MetricSummary> & {
+  byDirection?: Record<'left' | 'right', Record<MetricKey, MetricSummary>>;
+};
+
+export interface SeriesResult {
+  frames: SeriesFrame[];
+  turns: Turn[];
+  transitions: { frameIndex: number; timeMs: number }[];
+  summary: SeriesSummary;
+  filter: FilterRecord;
+  facing: Facing | null;
+  gapFill: { maxGapFrames: number };
+}
+
+export const DEFAULT_MAX_GAP_FRAMES = 3;
+export const DEFAULT_MIN_TURN_PEAK_DEG = 3;
+
+function summarize(values: readonly (number | null)[]): MetricSummary {
+  const present = values.filter((v): v is number => v !== null);
+  if (present.length === 0) return { median: null, min: null, max: null, count: 0 };
+  return {
+    median: median(present) as number,
+    min: Math.min(...present),
+    max: Math.max(...present),
+    count: present.length,
+  };
+}
+
+function summarizeFrames(frames: readonly SeriesFrame[]): Record<MetricKey, MetricSummary> {
+  const out = {} as Record<MetricKey, MetricSummary>;
+  for (const key of METRIC_KEYS) out[key] = summarize(frames.map((f) => f.metrics[key]));
+  return out;
+}
+
+function validate(frames: readonly SeriesFrameInput[], options: SeriesOptions) {
+  if (!(options.fps > 0) || !Number.isFinite(options.fps)) {
+    throw new SeriesInputError(`fps must be a positive number, got ${options.fps}`);
+  }
+  const maxGap = options.maxGapFrames ?? DEFAULT_MAX_GAP_FRAMES;
+  if (!Number.isInteger(maxGap) || maxGap < 0) {
+    throw new SeriesInputError(`maxGapFrames must be a whole number ≥ 0, got ${maxGap}`);
+  }
+  for (const f of frames) {
+    if (!Number.isFinite(f.frameIndex) || !Number.isFinite(f.timeMs)) {
+      throw new SeriesInputError(`frame ${f.frameIndex}: frameIndex and timeMs must be finite numbers`);
+    }
+  }
+}
+
+/** Gap filling, smoothing, per-frame metrics, turns and a summary for one clip. */
+export function analyzeSeries(input: SeriesFrameInput[], options: SeriesOptions): SeriesResult {
+  validate(input, options);
+  const maxGap = options.maxGapFrames ?? DEFAULT_MAX_GAP_FRAMES;
+  const floor = options.confidenceFloor ?? DEFAULT_CONFIDENCE_FLOOR;
+  const frames = [...input].sort((a, b) => a.frameIndex - b.frameIndex);
+  const n = frames.length;
+  const times = frames.map((f) => f.timeMs);
+  const smoother = makeSmoother(options.filter, options.fps);
+
+  const names = new Set<KeypointName>();
+  for (const f of frames) for (const k of f.keypoints) names.add(k.name);
+  const byFrame = frames.map((f) => new Map(f.keypoints.map((k) => [k.name, k] as const)));
+
+  const smoothed: Map<KeypointName, Keypoint>[] = frames.map(() => new Map());
+  const interpolated: KeypointName[][] = frames.map(() => []);
+  for (const name of names) {
+    const raw = byFrame.map((m) => m.get(name));
+    const valid = raw.map(
+      (k) =>
+        !!k && k.score >= floor && Number.isFinite(k.x) && Number.isFinite(k.y) && Number.isFinite(k.score),
+    );
+    const xs = fillGaps(
+      raw.map((k) => k?.x ?? 0),
+      valid,
+      maxGap,
+    );
+    const ys = fillGaps(
+      raw.map((k) => k?.y ?? 0),
+      valid,
+      maxGap,
+    );
+    const scores = raw.map((k) => k?.score ?? 0);
+    for (const [start, end] of runsOf(xs.valid)) {
+      const t = times.slice(start, end);
+      const sx = smoother.run(xs.values.slice(start, end), t);
+      const sy = smoother.run(ys.values.slice(start, end), t);
+      for (let i = start; i < end; i++) {
+        let score = scores[i];
+        if (xs.filled[i]) {
+          // A filled point is as trustworthy as the weaker of the two points it was drawn between.
+          let before = i - 1;
+          while (xs.filled[before]) before--;
+          let after = i + 1;
+          while (xs.filled[after]) after++;
+          score = Math.min(scores[before], scores[after]);
+          interpolated[i].push(name);
+        }
+        smoothed[i].set(name, { name, x: sx[i - start], y: sy[i - start], score });
+      }
+    }
+    for (let i = 0; i < n; i++) {
+      const k = raw[i];
+      if (!smoothed[i].has(name) && k) smoothed[i].set(name, k);
+    }
+  }
+
+  let facing: Facing | null = null;
+  if (options.view === 'side') {
+    if (options.facing) facing = options.facing;
+    else {
+      let vote = 0;
+      for (const m of smoothed) {
+        const f = detectFacing([...m.values()], options.referenceLine);
+        if (f) vote += f.facing === 'right' ? f.confidence : -f.confidence;
+      }
+      facing = vote > 0 ? 'right' : vote < 0 ? 'left' : null;
+    }
+  }
+
+  const out: SeriesFrame[] = frames.map((f, i) => {
+    const keypoints = [...smoothed[i].values()];
+    const m = computeFrameMetrics(
+      { keypoints, view: options.view, referenceLine: options.referenceLine, confidenceFloor: floor },
+      { facing, segmentTable: options.segmentTable },
+    );
+    return {
+      frameIndex: f.frameIndex,
+      timeMs: f.timeMs,
+      keypoints,
+      interpolated: interpolated[i].length > 0,
+      interpolatedKeypoints: interpolated[i],
+      metrics: m.metrics,
+      reasons: m.reasons,
+    };
+  });
+
+  const turns: Turn[] = [];
+  let transitions: { frameIndex: number; timeMs: number }[] = [];
+  if (options.view === 'front') {
+    const seg = segmentTurns(
+      out.map((f) => f.metrics.inclination),
+      times,
+      options.minTurnPeakDeg ?? DEFAULT_MIN_TURN_PEAK_DEG,
+    );
+    transitions = seg.transitions.map((t) => ({ frameIndex: out[t.index].frameIndex, timeMs: t.timeMs }));
+    for (const span of seg.turns) {
+      const apex = out[span.apex];
+      const side = span.direction > 0 ? 'left' : 'right';
+      const rise =
+        span.endsAtTransition &&
+        out[span.end].metrics.legExtension !== null &&
+        apex.metrics.legExtension !== null
+          ? out[span.end].metrics.legExtension! - apex.metrics.legExtension!
+          : null;
+      const tilt = apex.metrics.shoulderTilt;
+      const foreAft = apex.metrics.foreAftOffset;
+      turns.push({
+        index: turns.length,
+        direction: side,
+        startFrame: out[span.start].frameIndex,
+        apexFrame: apex.frameIndex,
+        endFrame: out[span.end].frameIndex,
+        startMs: span.startMs,
+        apexMs: apex.timeMs,
+        endMs: span.endMs,
+        durationMs: span.endMs - span.startMs,
+        complete: span.startsAtTransition && span.endsAtTransition,
+        insideSide: side,
+        apexValues: { ...apex.metrics },
+        transitionRise: rise,
+        // shoulderTilt is positive with the left shoulder higher, so a left turn's drop is its negative.
+        insideShoulderDrop: tilt === null ? null : side === 'left' ? -tilt : tilt,
+        insideFootLead: foreAft === null ? null : side === 'left' ? foreAft : -foreAft,
+      });
+    }
+  }
+
+  const summary: SeriesSummary = summarizeFrames(out);
+  if (turns.length > 0) {
+    const inTurns = (direction: 'left' | 'right') =>
+      out.filter((f, i) =>
+        frameInTurn(turns, direction, f.frameIndex, i === out.length - 1 ? Infinity : out[i + 1].frameIndex),
+      );
+    summary.byDirection = {
+      left: summarizeFrames(inTurns('left')),
+      right: summarizeFrames(inTurns('right')),
+    };
+  }
+
+  return {
+    frames: out,
+    turns,
+    transitions,
+    summary,
+    filter: smoother.record,
+    facing,
+    gapFill: { maxGapFrames: maxGap },
+  };
+}
+
+/** A frame belongs to a turn from its start up to (not including) its end, except at the clip's end. */
+function frameInTurn(
+  turns: readonly Turn[],
+  direction: 'left' | 'right',
+  frame: number,
+  next: number,
+): boolean {
+  return turns.some(
+    (t) =>
+      t.direction === direction &&
+      frame >= t.startFrame &&
+      (frame < t.endFrame || (next === Infinity && frame === t.endFrame)),
+  );
+}
