@@ -1,0 +1,134 @@
+// npm run -s analyze -- [--model lightning|thunder|blazepose] [--view front|side] [--every N] [--json] FILE...
+import { readFile } from 'node:fs/promises';
+import { extname } from 'node:path';
+import { parseArgs } from 'node:util';
+import { POSE_MODELS, VIEWS, type PoseModelName, type View } from '@shared/keypoints';
+import { GeometryInputError } from '@shared/geometry';
+import { KeypointFileError, parseKeypointFile } from './keypoint-file';
+import { loadMediaModule, PosePipelineMissingError } from './media-input';
+import { reportFrame, toJsonLine, toTable, type FrameReport } from './frame-report';
+
+const USAGE = `usage: npm run -s analyze -- [--model lightning|thunder|blazepose] [--view front|side] [--every N] [--json] FILE...
+  .json files hold keypoints ({"keypoints": [{"name","x","y","score"}], ...} or a list of such frames);
+  images and videos go through the pose pipeline.`;
+
+class UsageError extends Error {}
+
+interface Options {
+  model: PoseModelName;
+  view: View | null;
+  every: number;
+  json: boolean;
+  files: string[];
+}
+
+function parseOptions(argv: string[]): Options | 'help' {
+  let parsed;
+  try {
+    parsed = parseArgs({
+      args: argv,
+      allowPositionals: true,
+      strict: true,
+      options: {
+        model: { type: 'string' },
+        view: { type: 'string' },
+        every: { type: 'string' },
+        json: { type: 'boolean', default: false },
+        help: { type: 'boolean', short: 'h', default: false },
+      },
+    });
+  } catch (error) {
+    throw new UsageError((error as Error).message);
+  }
+  const { values, positionals } = parsed;
+  if (values.help) return 'help';
+  const model = (values.model ?? 'lightning') as PoseModelName;
+  if (!POSE_MODELS.includes(model)) throw new UsageError(`--model must be one of ${POSE_MODELS.join(', ')}`);
+  const view = (values.view ?? null) as View | null;
+  if (view !== null && !VIEWS.includes(view))
+    throw new UsageError(`--view must be one of ${VIEWS.join(', ')}`);
+  const every = values.every === undefined ? 1 : Number(values.every);
+  if (!Number.isInteger(every) || every < 1)
+    throw new UsageError('--every must be a whole number of at least 1');
+  if (positionals.length === 0) throw new UsageError('no input files');
+  return { model, view, every, json: values.json ?? false, files: positionals };
+}
+
+async function* framesOf(file: string, options: Options): AsyncGenerator<FrameReport> {
+  if (extname(file).toLowerCase() === '.json') {
+    let text: string;
+    try {
+      text = await readFile(file, 'utf8');
+    } catch (error) {
+      throw new KeypointFileError(
+        `cannot read file (${(error as NodeJS.ErrnoException).code ?? (error as Error).message})`,
+      );
+    }
+    for (const f of parseKeypointFile(text)) {
+      yield reportFrame({ file, ...f, view: options.view ?? f.view });
+    }
+    return;
+  }
+  const media = await loadMediaModule();
+  const progress = process.stderr.isTTY
+    ? (done: number, total: number | null) =>
+        process.stderr.write(`\r${file}: ${done}${total ? `/${total}` : ''} frames`)
+    : undefined;
+  try {
+    for await (const f of media.analyzeMediaFile(file, {
+      model: options.model,
+      every: options.every,
+      onProgress: progress,
+    })) {
+      yield reportFrame({ file, ...f, view: options.view, referenceLine: null });
+    }
+  } catch (error) {
+    if (error instanceof media.MediaInputError) throw new KeypointFileError((error as Error).message);
+    throw error;
+  } finally {
+    if (progress) process.stderr.write('\n');
+  }
+}
+
+async function main(argv: string[]): Promise<number> {
+  let options: Options | 'help';
+  try {
+    options = parseOptions(argv);
+  } catch (error) {
+    process.stderr.write(`analyze: ${(error as Error).message}\n${USAGE}\n`);
+    return 2;
+  }
+  if (options === 'help') {
+    process.stdout.write(`${USAGE}\n`);
+    return 0;
+  }
+  let failures = 0;
+  for (const file of options.files) {
+    try {
+      for await (const report of framesOf(file, options)) {
+        process.stdout.write(options.json ? `${toJsonLine(report)}\n` : `${toTable(report)}\n\n`);
+      }
+    } catch (error) {
+      failures++;
+      const known =
+        error instanceof KeypointFileError ||
+        error instanceof PosePipelineMissingError ||
+        error instanceof GeometryInputError;
+      const message = known
+        ? (error as Error).message
+        : `unexpected error: ${(error as Error)?.message ?? String(error)}`;
+      process.stderr.write(`analyze: ${file}: ${message}\n`);
+    }
+  }
+  return failures > 0 ? 1 : 0;
+}
+
+main(process.argv.slice(2)).then(
+  (code) => {
+    process.exitCode = code;
+  },
+  (error: unknown) => {
+    process.stderr.write(`analyze: unexpected error: ${(error as Error)?.message ?? String(error)}\n`);
+    process.exitCode = 1;
+  },
+);
