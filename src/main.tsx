@@ -1,8 +1,13 @@
+import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
+import { App } from './app/app';
 import './styles.css';
 
-function Placeholder() {
-  return <p className="p-4 font-sans text-glacier-700">Stanceline is starting.</p>;
-}
+const root = document.getElementById('root');
+if (!root) throw new Error('index.html has no #root element');
 
-createRoot(document.getElementById('root')!).render(<Placeholder />);
+createRoot(root).render(
+  <StrictMode>
+    <App />
+  </StrictMode>,
+);

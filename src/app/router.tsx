@@ -1,0 +1,70 @@
+import { createBrowserRouter, type RouteObject } from 'react-router-dom';
+import { paths } from '@/config/paths';
+import type { Capability } from '@/lib/permissions';
+import { RequireAuth, RequireCapability } from './guards';
+import { AppShell } from './layout/app-shell';
+import { RouteError } from './routes/route-error';
+
+// Each page is its own chunk, loaded on first visit.
+function guarded(path: string, capability: Capability, lazy: RouteObject['lazy']): RouteObject {
+  return { path, element: <RequireCapability capability={capability} />, children: [{ index: true, lazy }] };
+}
+
+export const routes: RouteObject[] = [
+  {
+    errorElement: <RouteError />,
+    children: [
+      {
+        path: paths.login.path,
+        lazy: async () => ({ Component: (await import('@/features/auth/routes/login-route')).LoginRoute }),
+      },
+      {
+        path: paths.invite.path,
+        lazy: async () => ({ Component: (await import('@/features/auth/routes/invite-route')).InviteRoute }),
+      },
+      {
+        element: <RequireAuth />,
+        children: [
+          {
+            element: <AppShell />,
+            children: [
+              { index: true, lazy: async () => ({ Component: (await import('./routes/home')).HomePage }) },
+              guarded(paths.athletes.path, 'athletes.view', async () => ({
+                Component: (await import('@/features/athletes/routes/athletes-route')).AthletesRoute,
+              })),
+              guarded(paths.athlete.path, 'athletes.view', async () => ({
+                Component: (await import('./routes/athlete')).AthletePage,
+              })),
+              guarded(paths.sessions.path, 'sessions.view', async () => ({
+                Component: (await import('@/features/sessions/routes/sessions-route')).SessionsRoute,
+              })),
+              guarded(paths.session.path, 'sessions.view', async () => ({
+                Component: (await import('./routes/session')).SessionPage,
+              })),
+              guarded(paths.upload.path, 'clips.upload', async () => ({
+                Component: (await import('./routes/upload')).UploadPage,
+              })),
+              guarded(paths.club.path, 'club.manage', async () => ({
+                Component: (await import('./routes/club')).ClubPage,
+              })),
+              {
+                path: paths.clip.path,
+                lazy: async () => ({
+                  Component: (await import('@/features/clips/routes/clip-route')).ClipRoute,
+                }),
+              },
+              {
+                path: '*',
+                lazy: async () => ({ Component: (await import('./routes/not-found')).NotFoundPage }),
+              },
+            ],
+          },
+        ],
+      },
+    ],
+  },
+];
+
+export function createAppRouter() {
+  return createBrowserRouter(routes);
+}

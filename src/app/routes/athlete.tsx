@@ -1,0 +1,77 @@
+import { Link, useParams } from 'react-router-dom';
+import { Upload } from 'lucide-react';
+import { ButtonLink } from '@/components/ui/button';
+import { PageHeader } from '@/components/ui/page-header';
+import { QueryError } from '@/components/ui/query-error';
+import { PageSpinner } from '@/components/ui/spinner';
+import { paths } from '@/config/paths';
+import { useAthlete } from '@/features/athletes/api/get-athlete';
+import { AthleteProfile } from '@/features/athletes/components/athlete-profile';
+import { ConsentPanel } from '@/features/athletes/components/consent-panel';
+import { GuardianList } from '@/features/athletes/components/guardian-list';
+import { useClips } from '@/features/clips/api/get-clips';
+import { ClipList } from '@/features/clips/components/clip-list';
+import { useUser } from '@/lib/auth';
+import { can } from '@/lib/permissions';
+
+export function AthletePage() {
+  const { athleteId = '' } = useParams();
+  const user = useUser();
+  const athlete = useAthlete(athleteId);
+  const clips = useClips({ athleteId });
+
+  if (athlete.isPending) return <PageSpinner label="Loading the athlete" />;
+  if (athlete.isError) {
+    return <QueryError error={athlete.error} what="this athlete" retry={() => void athlete.refetch()} />;
+  }
+
+  const record = athlete.data.athlete;
+  const canUpload = can(user.role, 'clips.upload') && record.consent.status !== 'missing';
+  return (
+    <>
+      <PageHeader
+        back={
+          <Link to={paths.athletes.href()} className="text-glacier-700 hover:underline">
+            ← Athletes
+          </Link>
+        }
+        title={`${record.firstName} ${record.lastName}`}
+        subtitle={`${record.ageGroup.name} · born ${record.birthYear}`}
+        actions={
+          canUpload ? (
+            <ButtonLink to={paths.upload.href()} icon={<Upload aria-hidden="true" className="h-4 w-4" />}>
+              Upload clips
+            </ButtonLink>
+          ) : null
+        }
+      />
+      <div className="space-y-6">
+        <ConsentPanel athlete={record} canRecord={can(user.role, 'consent.record')} />
+        <div className="grid gap-6 md:grid-cols-2">
+          <AthleteProfile athlete={record} />
+          <GuardianList guardians={record.guardians} />
+        </div>
+        <section aria-labelledby="athlete-clips">
+          <h2 id="athlete-clips" className="mb-3 text-base font-semibold text-granite-900">
+            Clips
+          </h2>
+          {clips.isPending ? <PageSpinner label="Loading clips" /> : null}
+          {clips.isError ? (
+            <QueryError error={clips.error} what="clips" retry={() => void clips.refetch()} />
+          ) : null}
+          {clips.data ? (
+            <ClipList
+              clips={clips.data}
+              emptyTitle={`No clips of ${record.firstName} yet`}
+              emptyText={
+                record.consent.status === 'missing'
+                  ? 'Clips can be uploaded once a guardian’s consent is recorded.'
+                  : 'Upload clips from a training session and tag this athlete.'
+              }
+            />
+          ) : null}
+        </section>
+      </div>
+    </>
+  );
+}

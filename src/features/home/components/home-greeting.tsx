@@ -1,0 +1,15 @@
+import type { UserDto } from '@shared/schemas/auth.schema';
+import { PageHeader } from '@/components/ui/page-header';
+
+const SUBTITLES: Record<UserDto['role'], string> = {
+  head_coach: 'Your club at a glance: athletes waiting for consent, recent training days and clips.',
+  coach: 'Your athletes and training days.',
+  analyst: 'The club’s athletes and sessions, read-only.',
+  athlete: 'Your clips from training. Open one to watch it again.',
+  guardian: 'Clips of your child from training, read-only.',
+};
+
+export function HomeGreeting({ user, title }: { user: UserDto; title: string }) {
+  const first = user.name.split(' ')[0];
+  return <PageHeader title={title} subtitle={`Hello ${first}. ${SUBTITLES[user.role]}`} />;
+}
