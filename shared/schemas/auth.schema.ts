@@ -49,3 +49,28 @@ export interface MeResponse {
   user: UserDto;
   club: { id: string; name: string };
 }
+
+export interface InvitationDto {
+  id: string;
+  email: string;
+  role: Role;
+  athleteId: string | null;
+  ageGroupIds: string[];
+  expiresAt: string;
+  createdAt: string;
+}
+
+export interface InvitationResponse {
+  invitation: InvitationDto;
+}
+
+/** What the public invitation page shows before the new member sets a password. */
+export interface InvitationPreviewResponse {
+  invitation: {
+    email: string;
+    role: Role;
+    club: { id: string; name: string };
+    athleteName: string | null;
+    expiresAt: string;
+  };
+}

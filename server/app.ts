@@ -1,0 +1,106 @@
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import cookieParser from 'cookie-parser';
+import express, { type Express } from 'express';
+import type { Logger } from 'pino';
+import type { DataSource } from 'typeorm';
+import type { Config } from './config';
+import type { Mailbox } from './mail/embedded-smtp';
+import type { Mailer } from './mail/mailer';
+import { createAuthMiddleware } from './middleware/auth.middleware';
+import { apiNotFound, createErrorHandler } from './middleware/error.middleware';
+import { createRequestLogger } from './middleware/request-logger.middleware';
+import { athleteRoutes } from './routes/athletes.routes';
+import { authRoutes } from './routes/auth.routes';
+import { clipRoutes } from './routes/clips.routes';
+import { clubRoutes } from './routes/club.routes';
+import type { RouteContext } from './routes/context';
+import { devMailboxRoutes } from './routes/dev-mailbox.routes';
+import { healthRoutes } from './routes/health.routes';
+import { invitationRoutes } from './routes/invitations.routes';
+import { sessionRoutes } from './routes/sessions.routes';
+import { staticRoutes } from './routes/static.routes';
+import { AccessService } from './services/access.service';
+import { AthleteService } from './services/athlete.service';
+import { AuditService } from './services/audit.service';
+import { AuthService } from './services/auth.service';
+import { ClipService } from './services/clip.service';
+import { ClubService } from './services/club.service';
+import { InvitationService } from './services/invitation.service';
+import { systemClock, type Clock } from './services/principal';
+import { SessionService } from './services/session.service';
+import { TokenService } from './services/token.service';
+import type { ObjectStorage } from './storage/object-storage';
+
+export interface AppDeps {
+  config: Config;
+  dataSource: DataSource;
+  storage: ObjectStorage;
+  mailer: Mailer;
+  /** Set when the embedded SMTP fake is in use: mounts the /dev/mailbox inbox page. */
+  mailbox?: Mailbox;
+  jwtSecret: string;
+  /** Base URL for links in e-mails; a function when it is only known after listen (port 0). */
+  publicUrl: string | (() => string);
+  logger: Logger;
+  clock?: Clock;
+  /** Folder holding dist/, models/ and node_modules/ (defaults to the checkout). */
+  projectRoot?: string;
+}
+
+const DEFAULT_ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
+
+/** Builds the Express app (no listen): routes -> services -> repositories, one error handler last. */
+export function createApp(deps: AppDeps): Express {
+  const { config, dataSource } = deps;
+  const clock = deps.clock ?? systemClock;
+  const publicUrl = deps.publicUrl;
+  const publicUrlNow = typeof publicUrl === 'function' ? publicUrl : () => publicUrl;
+  const access = new AccessService(dataSource);
+  const audit = new AuditService(clock);
+  const tokens = new TokenService(deps.jwtSecret, config.accessTokenTtlMs, config.mediaTokenTtlMs, clock);
+  const auth = new AuthService(dataSource, tokens, audit, clock, config.refreshTtlMs, config.bcryptRounds);
+  const sessions = new SessionService(dataSource, access, audit, clock);
+  const ctx: RouteContext = {
+    config,
+    dataSource,
+    storage: deps.storage,
+    guard: createAuthMiddleware({ secret: deps.jwtSecret, auth, access, tokens }),
+    auth,
+    athletes: new AthleteService(dataSource, access, audit, clock),
+    sessions,
+    clips: new ClipService(dataSource, access, sessions, deps.storage, tokens, audit, clock),
+    invitations: new InvitationService(
+      dataSource,
+      access,
+      auth,
+      audit,
+      deps.mailer,
+      clock,
+      publicUrlNow,
+      config.invitationTtlMs,
+    ),
+    club: new ClubService(dataSource, clock),
+  };
+
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+  app.use(createRequestLogger(deps.logger));
+  app.use(express.json({ limit: '1mb' }));
+  app.use(cookieParser());
+
+  app.use(healthRoutes(ctx));
+  app.use(authRoutes(ctx));
+  app.use(athleteRoutes(ctx));
+  app.use(sessionRoutes(ctx));
+  app.use(clipRoutes(ctx));
+  app.use(invitationRoutes(ctx));
+  app.use(clubRoutes(ctx));
+  app.use('/api', apiNotFound);
+  if (deps.mailbox) app.use(devMailboxRoutes(deps.mailbox));
+  app.use(staticRoutes(deps.projectRoot ?? DEFAULT_ROOT));
+
+  app.use(createErrorHandler({ maxUploadBytes: config.maxUploadBytes }));
+  return app;
+}

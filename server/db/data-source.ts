@@ -1,0 +1,71 @@
+import { AgeGroupEntity } from '../entities/age-group.entity';
+import { AthleteEntity } from '../entities/athlete.entity';
+import { AuditEventEntity } from '../entities/audit-event.entity';
+import { ClipAthleteEntity } from '../entities/clip-athlete.entity';
+import { ClipEntity } from '../entities/clip.entity';
+import { ClubEntity } from '../entities/club.entity';
+import { CoachAssignmentEntity } from '../entities/coach-assignment.entity';
+import { FlagEntity } from '../entities/flag.entity';
+import { FocusPointEntity } from '../entities/focus-point.entity';
+import { FrameResultEntity } from '../entities/frame-result.entity';
+import { GuardianLinkEntity } from '../entities/guardian-link.entity';
+import { InvitationEntity } from '../entities/invitation.entity';
+import { NoteEntity } from '../entities/note.entity';
+import { ReferenceLineEntity } from '../entities/reference-line.entity';
+import { RefreshTokenEntity } from '../entities/refresh-token.entity';
+import { ReviewEntity } from '../entities/review.entity';
+import { ToleranceBandEntity } from '../entities/tolerance-band.entity';
+import { TrainingSessionEntity } from '../entities/training-session.entity';
+import { UserEntity } from '../entities/user.entity';
+
+import { DataSource } from 'typeorm';
+import { InitialSchema1796163026000 } from '../migrations/1796163026000-initial-schema';
+
+export const ALL_ENTITIES = [
+  ClubEntity,
+  UserEntity,
+  AgeGroupEntity,
+  AthleteEntity,
+  GuardianLinkEntity,
+  CoachAssignmentEntity,
+  TrainingSessionEntity,
+  ClipEntity,
+  ClipAthleteEntity,
+  FrameResultEntity,
+  ReferenceLineEntity,
+  ToleranceBandEntity,
+  FlagEntity,
+  NoteEntity,
+  FocusPointEntity,
+  ReviewEntity,
+  InvitationEntity,
+  RefreshTokenEntity,
+  AuditEventEntity,
+];
+
+// Listed explicitly (no globs): bundlers and tsx cannot resolve migration globs reliably.
+export const ALL_MIGRATIONS = [InitialSchema1796163026000];
+
+/** SQLite through better-sqlite3: WAL journal, foreign keys on (the driver always enables them), no synchronize. */
+export function createDataSource(databasePath: string): DataSource {
+  return new DataSource({
+    type: 'better-sqlite3',
+    database: databasePath,
+    enableWAL: true,
+    synchronize: false,
+    migrationsRun: false,
+    entities: ALL_ENTITIES,
+    migrations: ALL_MIGRATIONS,
+    prepareDatabase: (db: { pragma(sql: string): unknown }) => {
+      // Wait for a competing writer (CLI, second process) instead of failing with SQLITE_BUSY.
+      db.pragma('busy_timeout = 5000');
+    },
+  });
+}
+
+export async function openDatabase(databasePath: string): Promise<DataSource> {
+  const dataSource = createDataSource(databasePath);
+  await dataSource.initialize();
+  await dataSource.runMigrations({ transaction: 'each' });
+  return dataSource;
+}

@@ -1,0 +1,66 @@
+import { EntitySchema } from 'typeorm';
+import type { ClipStatus, CLIP_VIEWS } from '@shared/schemas/clip.schema';
+import { foreignKey, idColumn, nullableUuidColumn, timestampColumn, uuidColumn } from './columns';
+
+export interface Clip {
+  id: string;
+  clubId: string;
+  sessionId: string;
+  uploadedById: string | null;
+  view: (typeof CLIP_VIEWS)[number];
+  status: ClipStatus;
+  failureReason: string | null;
+  originalName: string;
+  mimeType: string;
+  sizeBytes: number;
+  /** Hex SHA-256 of the original, computed while it streamed in. */
+  sha256: string;
+  /** Object keys in the clip bucket. */
+  storageKey: string;
+  proxyKey: string | null;
+  posterKey: string | null;
+  codec: string | null;
+  width: number | null;
+  height: number | null;
+  fps: number | null;
+  frameCount: number | null;
+  durationMs: number | null;
+  createdAt: Date;
+}
+
+export const ClipEntity = new EntitySchema<Clip>({
+  name: 'Clip',
+  tableName: 'clip',
+  columns: {
+    id: idColumn,
+    clubId: uuidColumn,
+    sessionId: uuidColumn,
+    uploadedById: nullableUuidColumn,
+    view: { type: 'varchar', length: 10 },
+    status: { type: 'varchar', length: 20 },
+    failureReason: { type: 'text', nullable: true },
+    originalName: { type: 'varchar', length: 255 },
+    mimeType: { type: 'varchar', length: 100 },
+    sizeBytes: { type: 'integer' },
+    sha256: { type: 'varchar', length: 64 },
+    storageKey: { type: 'varchar', length: 255 },
+    proxyKey: { type: 'varchar', length: 255, nullable: true },
+    posterKey: { type: 'varchar', length: 255, nullable: true },
+    codec: { type: 'varchar', length: 40, nullable: true },
+    width: { type: 'integer', nullable: true },
+    height: { type: 'integer', nullable: true },
+    fps: { type: 'real', nullable: true },
+    frameCount: { type: 'integer', nullable: true },
+    durationMs: { type: 'integer', nullable: true },
+    createdAt: timestampColumn,
+  },
+  foreignKeys: [
+    foreignKey('Club', 'clubId', 'CASCADE'),
+    foreignKey('TrainingSession', 'sessionId', 'RESTRICT'),
+    foreignKey('User', 'uploadedById', 'SET NULL'),
+  ],
+  indices: [
+    { name: 'IDX_clip_session', columns: ['sessionId'] },
+    { name: 'IDX_clip_sha256', columns: ['sha256'] },
+  ],
+});

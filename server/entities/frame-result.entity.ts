@@ -1,0 +1,38 @@
+import { EntitySchema } from 'typeorm';
+import type { Keypoint, PoseModelName } from '@shared/keypoints';
+import { foreignKey, idColumn, timestampColumn, uuidColumn } from './columns';
+
+/** Pose keypoints and the metrics computed from them for one frame of a clip. */
+export interface FrameResult {
+  id: string;
+  clipId: string;
+  frameIndex: number;
+  timeMs: number;
+  model: PoseModelName;
+  keypoints: Keypoint[];
+  /** Metric name -> value (units per METRICS.md); recomputed on the server from keypoints. */
+  metrics: Record<string, number | null>;
+  /** True when a coach moved keypoints by hand. */
+  corrected: boolean;
+  createdAt: Date;
+  updatedAt: Date;
+}
+
+export const FrameResultEntity = new EntitySchema<FrameResult>({
+  name: 'FrameResult',
+  tableName: 'frame_result',
+  columns: {
+    id: idColumn,
+    clipId: uuidColumn,
+    frameIndex: { type: 'integer' },
+    timeMs: { type: 'real' },
+    model: { type: 'varchar', length: 20 },
+    keypoints: { type: 'simple-json' },
+    metrics: { type: 'simple-json' },
+    corrected: { type: 'boolean', default: false },
+    createdAt: timestampColumn,
+    updatedAt: timestampColumn,
+  },
+  foreignKeys: [foreignKey('Clip', 'clipId', 'CASCADE')],
+  uniques: [{ name: 'UQ_frame_result_clip_model_frame', columns: ['clipId', 'model', 'frameIndex'] }],
+});

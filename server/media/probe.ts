@@ -1,0 +1,84 @@
+import { execFile } from 'node:child_process';
+import { promisify } from 'node:util';
+import ffprobe from '@ffprobe-installer/ffprobe';
+
+const run = promisify(execFile);
+
+export interface VideoProbe {
+  codec: string;
+  width: number;
+  height: number;
+  fps: number | null;
+  frameCount: number | null;
+  durationMs: number | null;
+}
+
+interface FfprobeStream {
+  codec_type?: string;
+  codec_name?: string;
+  width?: number;
+  height?: number;
+  avg_frame_rate?: string;
+  r_frame_rate?: string;
+  nb_frames?: string;
+  nb_read_packets?: string;
+  duration?: string;
+}
+
+interface FfprobeOutput {
+  streams?: FfprobeStream[];
+  format?: { duration?: string };
+}
+
+function rate(text: string | undefined): number | null {
+  if (!text) return null;
+  const [num, den] = text.split('/').map(Number);
+  if (!Number.isFinite(num) || !Number.isFinite(den) || den === 0 || num === 0) return null;
+  return num / den;
+}
+
+function positive(text: string | undefined): number | null {
+  const value = Number(text);
+  return Number.isFinite(value) && value > 0 ? value : null;
+}
+
+async function ffprobeJson(filePath: string, extra: string[]): Promise<FfprobeOutput> {
+  const { stdout } = await run(
+    ffprobe.path,
+    [
+      '-v',
+      'error',
+      '-select_streams',
+      'v:0',
+      ...extra,
+      '-show_streams',
+      '-show_format',
+      '-of',
+      'json',
+      filePath,
+    ],
+    { maxBuffer: 4 * 1024 * 1024, timeout: 120_000 },
+  );
+  return JSON.parse(stdout) as FfprobeOutput;
+}
+
+/** Reads the first video stream's codec, size, rate and length; null when the file has none. */
+export async function probeVideo(filePath: string): Promise<VideoProbe | null> {
+  let output = await ffprobeJson(filePath, []);
+  let stream = output.streams?.find((s) => s.codec_type === 'video');
+  if (!stream || !stream.codec_name || !stream.width || !stream.height) return null;
+  // Matroska/WebM headers carry no frame count; counting packets reads the file once, without decoding.
+  if (!positive(stream.nb_frames)) {
+    output = await ffprobeJson(filePath, ['-count_packets']);
+    stream = output.streams?.find((s) => s.codec_type === 'video') ?? stream;
+  }
+  const duration = positive(stream.duration) ?? positive(output.format?.duration);
+  return {
+    codec: stream.codec_name!,
+    width: stream.width!,
+    height: stream.height!,
+    fps: rate(stream.avg_frame_rate) ?? rate(stream.r_frame_rate),
+    frameCount: positive(stream.nb_frames) ?? positive(stream.nb_read_packets),
+    durationMs: duration === null ? null : Math.round(duration * 1000),
+  };
+}

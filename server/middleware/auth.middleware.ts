@@ -1,0 +1,111 @@
+import type { NextFunction, Request, RequestHandler, Response } from 'express';
+import jwt from 'jsonwebtoken';
+import { Passport } from 'passport';
+import { ExtractJwt, Strategy as JwtStrategy } from 'passport-jwt';
+import { HttpError, unauthorized } from '../errors';
+import { type Permission, type AccessService } from '../services/access.service';
+import type { AuthService } from '../services/auth.service';
+import type { Principal } from '../services/principal';
+import { ACCESS_AUDIENCE, TOKEN_ISSUER, type TokenService } from '../services/token.service';
+
+function tokenFailure(info: unknown): HttpError {
+  if (info instanceof jwt.TokenExpiredError) {
+    return unauthorized('token_expired', 'Your access token expired; refresh it and try again');
+  }
+  if (info instanceof jwt.JsonWebTokenError)
+    return unauthorized('invalid_token', 'The access token is not valid');
+  if (info instanceof Error && info.message === 'No auth token') {
+    return unauthorized('unauthenticated', 'Sign in first: send a bearer token in Authorization');
+  }
+  return unauthorized('invalid_token', 'The access token is no longer valid; sign in again');
+}
+
+export interface AuthMiddleware {
+  /** Requires a valid bearer access token and attaches the principal. */
+  authenticate: RequestHandler;
+  /** Media routes: a signed `?token=` for this clip (what a <video> element can send) or a bearer token. */
+  authenticateMedia: RequestHandler;
+  /** The role check of the access table; must follow authenticate. */
+  authorize(permission: Permission): RequestHandler;
+}
+
+export function createAuthMiddleware(deps: {
+  secret: string;
+  auth: AuthService;
+  access: AccessService;
+  tokens: TokenService;
+}): AuthMiddleware {
+  const passport = new Passport();
+  passport.use(
+    new JwtStrategy(
+      {
+        jwtFromRequest: ExtractJwt.fromAuthHeaderAsBearerToken(),
+        secretOrKey: deps.secret,
+        algorithms: ['HS256'],
+        audience: ACCESS_AUDIENCE,
+        issuer: TOKEN_ISSUER,
+      },
+      (payload: { sub?: unknown; ver?: unknown }, done: (err: unknown, user?: Principal | false) => void) => {
+        if (typeof payload.sub !== 'string') return done(null, false);
+        deps.auth
+          .loadPrincipal(payload.sub, Number(payload.ver))
+          .then((principal) => done(null, principal ?? false))
+          .catch(done);
+      },
+    ),
+  );
+
+  const authenticate: RequestHandler = (req, res, next) => {
+    passport.authenticate(
+      'jwt',
+      { session: false },
+      (err: unknown, principal: Principal | false, info: unknown) => {
+        if (err) return next(err);
+        if (!principal) return next(tokenFailure(info));
+        req.principal = principal;
+        next();
+      },
+    )(req, res, next);
+  };
+
+  const authenticateMedia: RequestHandler = (req: Request, res: Response, next: NextFunction) => {
+    const token = typeof req.query.token === 'string' ? req.query.token : undefined;
+    if (!token) return authenticate(req, res, next);
+    let claims;
+    try {
+      claims = deps.tokens.verifyMedia(token);
+    } catch (error) {
+      if (error instanceof jwt.TokenExpiredError) {
+        return next(unauthorized('media_token_expired', 'The media link expired; reload the clip'));
+      }
+      return next(unauthorized('invalid_media_token', 'The media link is not valid'));
+    }
+    if (claims.clip !== req.params.id) {
+      return next(unauthorized('invalid_media_token', 'The media link is for another clip'));
+    }
+    deps.auth
+      .loadPrincipal(claims.sub, claims.ver)
+      .then((principal) => {
+        if (!principal) return next(unauthorized('invalid_media_token', 'The media link is no longer valid'));
+        req.principal = principal;
+        next();
+      })
+      .catch(next);
+  };
+
+  const authorize =
+    (permission: Permission): RequestHandler =>
+    (req, _res, next) => {
+      if (!req.principal) return next(unauthorized('unauthenticated', 'Sign in first'));
+      deps.access.require(req.principal, permission);
+      next();
+    };
+
+  return { authenticate, authenticateMedia, authorize };
+}
+
+/** The principal of an authenticated request (routes run after authenticate). */
+export function principalOf(req: Request): Principal {
+  if (!req.principal) throw unauthorized('unauthenticated', 'Sign in first');
+  return req.principal;
+}

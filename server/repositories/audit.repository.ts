@@ -1,0 +1,14 @@
+import type { EntityManager } from 'typeorm';
+import { AuditEventEntity, type AuditEvent } from '../entities/audit-event.entity';
+
+export class AuditRepository {
+  constructor(private readonly manager: EntityManager) {}
+
+  async insert(event: AuditEvent): Promise<void> {
+    await this.manager.insert(AuditEventEntity, event);
+  }
+
+  listByAction(action: string): Promise<AuditEvent[]> {
+    return this.manager.find(AuditEventEntity, { where: { action }, order: { createdAt: 'ASC' } });
+  }
+}

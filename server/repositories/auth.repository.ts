@@ -1,0 +1,41 @@
+import type { EntityManager } from 'typeorm';
+import { IsNull } from 'typeorm';
+import { InvitationEntity, type Invitation } from '../entities/invitation.entity';
+import { RefreshTokenEntity, type RefreshToken } from '../entities/refresh-token.entity';
+
+/** Refresh tokens and invitations: both are looked up by the hash of a secret the user holds. */
+export class AuthRepository {
+  constructor(private readonly manager: EntityManager) {}
+
+  findRefreshToken(tokenHash: string): Promise<RefreshToken | null> {
+    return this.manager.findOneBy(RefreshTokenEntity, { tokenHash });
+  }
+
+  async insertRefreshToken(token: RefreshToken): Promise<void> {
+    await this.manager.insert(RefreshTokenEntity, token);
+  }
+
+  async revokeRefreshToken(id: string, at: Date): Promise<void> {
+    await this.manager.update(RefreshTokenEntity, { id, revokedAt: IsNull() }, { revokedAt: at });
+  }
+
+  async revokeAllRefreshTokens(userId: string, at: Date): Promise<void> {
+    await this.manager.update(RefreshTokenEntity, { userId, revokedAt: IsNull() }, { revokedAt: at });
+  }
+
+  findInvitation(tokenHash: string): Promise<Invitation | null> {
+    return this.manager.findOneBy(InvitationEntity, { tokenHash });
+  }
+
+  async insertInvitation(invitation: Invitation): Promise<void> {
+    await this.manager.insert(InvitationEntity, invitation);
+  }
+
+  async deleteInvitation(id: string): Promise<void> {
+    await this.manager.delete(InvitationEntity, { id });
+  }
+
+  async markInvitationAccepted(id: string, at: Date): Promise<void> {
+    await this.manager.update(InvitationEntity, { id }, { acceptedAt: at });
+  }
+}

@@ -1,0 +1,68 @@
+import { In, type EntityManager } from 'typeorm';
+import { ClipAthleteEntity } from '../entities/clip-athlete.entity';
+import { ClipEntity, type Clip } from '../entities/clip.entity';
+
+export interface ClipFilter {
+  clubId: string;
+  /** Null: every clip of the club; otherwise clips showing at least one of these athletes. */
+  visibleAthleteIds: string[] | null;
+  athleteId?: string;
+  sessionId?: string;
+}
+
+export class ClipRepository {
+  constructor(private readonly manager: EntityManager) {}
+
+  findById(id: string): Promise<Clip | null> {
+    return this.manager.findOneBy(ClipEntity, { id });
+  }
+
+  async list(filter: ClipFilter): Promise<Clip[]> {
+    if (filter.visibleAthleteIds && filter.visibleAthleteIds.length === 0) return [];
+    const qb = this.manager
+      .createQueryBuilder(ClipEntity, 'c')
+      .where('c.clubId = :clubId', { clubId: filter.clubId })
+      .orderBy('c.createdAt', 'DESC');
+    if (filter.sessionId) qb.andWhere('c.sessionId = :sessionId', { sessionId: filter.sessionId });
+    if (filter.visibleAthleteIds) {
+      qb.andWhere(
+        'EXISTS (SELECT 1 FROM clip_athlete v WHERE v.clipId = c.id AND v.athleteId IN (:...visible))',
+        { visible: filter.visibleAthleteIds },
+      );
+    }
+    if (filter.athleteId) {
+      qb.andWhere(
+        'EXISTS (SELECT 1 FROM clip_athlete t WHERE t.clipId = c.id AND t.athleteId = :athleteId)',
+        {
+          athleteId: filter.athleteId,
+        },
+      );
+    }
+    return qb.getMany();
+  }
+
+  /** Tagged athlete ids per clip. */
+  async athleteIdsByClip(clipIds: string[]): Promise<Map<string, string[]>> {
+    const result = new Map<string, string[]>();
+    if (clipIds.length === 0) return result;
+    const rows = await this.manager.findBy(ClipAthleteEntity, { clipId: In(clipIds) });
+    for (const row of rows) {
+      const list = result.get(row.clipId) ?? [];
+      list.push(row.athleteId);
+      result.set(row.clipId, list);
+    }
+    return result;
+  }
+
+  async insert(clip: Clip, athleteIds: string[]): Promise<void> {
+    await this.manager.insert(ClipEntity, clip);
+    await this.manager.insert(
+      ClipAthleteEntity,
+      athleteIds.map((athleteId) => ({ clipId: clip.id, athleteId })),
+    );
+  }
+
+  count(): Promise<number> {
+    return this.manager.count(ClipEntity);
+  }
+}

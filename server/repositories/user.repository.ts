@@ -1,0 +1,60 @@
+import type { EntityManager } from 'typeorm';
+import { AthleteEntity } from '../entities/athlete.entity';
+import { CoachAssignmentEntity } from '../entities/coach-assignment.entity';
+import { GuardianLinkEntity } from '../entities/guardian-link.entity';
+import { UserEntity, type User } from '../entities/user.entity';
+
+export interface UserLinks {
+  athleteId: string | null;
+  childAthleteIds: string[];
+  coachedAgeGroupIds: string[];
+}
+
+export class UserRepository {
+  constructor(private readonly manager: EntityManager) {}
+
+  findById(id: string): Promise<User | null> {
+    return this.manager.findOneBy(UserEntity, { id });
+  }
+
+  findByEmail(email: string): Promise<User | null> {
+    return this.manager.findOneBy(UserEntity, { email: email.toLowerCase() });
+  }
+
+  async insert(user: User): Promise<void> {
+    await this.manager.insert(UserEntity, user);
+  }
+
+  async update(id: string, patch: Partial<User>): Promise<void> {
+    await this.manager.update(UserEntity, { id }, patch);
+  }
+
+  async links(user: User): Promise<UserLinks> {
+    const [athlete, guardianLinks, assignments] = await Promise.all([
+      this.manager.findOneBy(AthleteEntity, { userId: user.id }),
+      this.manager.find(GuardianLinkEntity, {
+        where: { guardianUserId: user.id },
+        order: { createdAt: 'ASC' },
+      }),
+      this.manager.find(CoachAssignmentEntity, { where: { coachUserId: user.id } }),
+    ]);
+    return {
+      athleteId: athlete?.id ?? null,
+      childAthleteIds: guardianLinks.map((l) => l.athleteId),
+      coachedAgeGroupIds: assignments.map((a) => a.ageGroupId),
+    };
+  }
+
+  async addGuardianLink(
+    id: string,
+    guardianUserId: string,
+    athleteId: string,
+    createdAt: Date,
+  ): Promise<void> {
+    await this.manager.insert(GuardianLinkEntity, { id, guardianUserId, athleteId, createdAt });
+  }
+
+  async addCoachAssignment(id: string, coachUserId: string, ageGroupId: string): Promise<void> {
+    await this.manager.insert(CoachAssignmentEntity, { id, coachUserId, ageGroupId });
+  }
+}

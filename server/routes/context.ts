@@ -1,0 +1,24 @@
+import type { Config } from '../config';
+import type { AuthMiddleware } from '../middleware/auth.middleware';
+import type { AthleteService } from '../services/athlete.service';
+import type { AuthService } from '../services/auth.service';
+import type { ClipService } from '../services/clip.service';
+import type { ClubService } from '../services/club.service';
+import type { InvitationService } from '../services/invitation.service';
+import type { SessionService } from '../services/session.service';
+import type { ObjectStorage } from '../storage/object-storage';
+import type { DataSource } from 'typeorm';
+
+/** What route modules get from createApp: services and the auth middleware, nothing else. */
+export interface RouteContext {
+  config: Config;
+  dataSource: DataSource;
+  storage: ObjectStorage;
+  guard: AuthMiddleware;
+  auth: AuthService;
+  athletes: AthleteService;
+  sessions: SessionService;
+  clips: ClipService;
+  invitations: InvitationService;
+  club: ClubService;
+}

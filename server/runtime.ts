@@ -1,0 +1,72 @@
+import { randomBytes } from 'node:crypto';
+import fs from 'node:fs/promises';
+import path from 'node:path';
+import type { DataSource } from 'typeorm';
+import type { Config } from './config';
+import { openDatabase } from './db/data-source';
+import { startEmbeddedSmtp, type EmbeddedSmtp, type Mailbox } from './mail/embedded-smtp';
+import { createMailer, type Mailer } from './mail/mailer';
+import { startEmbeddedS3, type EmbeddedS3 } from './storage/embedded-s3';
+import { ObjectStorage } from './storage/object-storage';
+
+/** Everything the app talks to, started from one Config; `close()` stops what it started. */
+export interface Runtime {
+  dataSource: DataSource;
+  storage: ObjectStorage;
+  mailer: Mailer;
+  mailbox: Mailbox | undefined;
+  jwtSecret: string;
+  s3Endpoint: string;
+  close(): Promise<void>;
+}
+
+async function readOrCreateSecret(config: Config): Promise<string> {
+  if (config.jwtSecret) return config.jwtSecret;
+  const file = path.join(config.dataDir, 'jwt-secret');
+  try {
+    const existing = (await fs.readFile(file, 'utf8')).trim();
+    if (existing.length >= 32) return existing;
+  } catch (error) {
+    if ((error as NodeJS.ErrnoException).code !== 'ENOENT') throw error;
+  }
+  const secret = randomBytes(48).toString('base64url');
+  await fs.writeFile(file, `${secret}\n`, { mode: 0o600 });
+  return secret;
+}
+
+export async function startRuntime(config: Config): Promise<Runtime> {
+  await fs.mkdir(config.dataDir, { recursive: true });
+  await fs.mkdir(config.uploadTempDir, { recursive: true });
+  const closers: (() => Promise<void> | void)[] = [];
+  const closeAll = async () => {
+    for (const close of closers.reverse()) await close();
+  };
+  try {
+    let embeddedS3: EmbeddedS3 | undefined;
+    if (!config.s3.endpoint) {
+      embeddedS3 = await startEmbeddedS3({ directory: config.s3.embeddedDir, bucket: config.s3.bucket });
+      closers.push(() => embeddedS3!.close());
+    }
+    const s3Endpoint = config.s3.endpoint ?? embeddedS3!.endpoint;
+    const storage = new ObjectStorage({ ...config.s3, endpoint: s3Endpoint });
+    closers.push(() => storage.close());
+    await storage.ensureBucket();
+
+    let smtp: EmbeddedSmtp | undefined;
+    if (!config.smtpUrl) {
+      smtp = await startEmbeddedSmtp({ directory: config.mailDir });
+      closers.push(() => smtp!.close());
+    }
+    const mailer = createMailer(config.smtpUrl ?? smtp!.url, config.mailFrom);
+    closers.push(() => mailer.close());
+
+    const dataSource = await openDatabase(config.databasePath);
+    closers.push(() => dataSource.destroy());
+
+    const jwtSecret = await readOrCreateSecret(config);
+    return { dataSource, storage, mailer, mailbox: smtp, jwtSecret, s3Endpoint, close: closeAll };
+  } catch (error) {
+    await closeAll();
+    throw error;
+  }
+}

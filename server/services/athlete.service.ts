@@ -1,0 +1,153 @@
+import { randomUUID } from 'node:crypto';
+import type { DataSource } from 'typeorm';
+import type {
+  AgeGroupListResponse,
+  AthleteListResponse,
+  AthleteResponse,
+  CreateAthleteInput,
+  RecordConsentInput,
+} from '@shared/schemas/athlete.schema';
+import type { Athlete } from '../entities/athlete.entity';
+import { badRequest, forbidden, notFound } from '../errors';
+import { toAgeGroupDto, toAthleteDetailDto, toAthleteDto } from '../mappers/athlete.mapper';
+import { AthleteRepository } from '../repositories/athlete.repository';
+import { ClubRepository } from '../repositories/club.repository';
+import type { AccessService } from './access.service';
+import type { AuditService } from './audit.service';
+import type { Clock, Principal } from './principal';
+
+export class AthleteService {
+  constructor(
+    private readonly dataSource: DataSource,
+    private readonly access: AccessService,
+    private readonly audit: AuditService,
+    private readonly clock: Clock,
+  ) {}
+
+  async listAgeGroups(principal: Principal): Promise<AgeGroupListResponse> {
+    const groups = await new ClubRepository(this.dataSource.manager).listAgeGroups(principal.clubId);
+    return { ageGroups: groups.map(toAgeGroupDto) };
+  }
+
+  async list(
+    principal: Principal,
+    query: { search?: string; ageGroupId?: string },
+  ): Promise<AthleteListResponse> {
+    const manager = this.dataSource.manager;
+    const athletes = await new AthleteRepository(manager).list({
+      clubId: principal.clubId,
+      athleteIds: await this.access.visibleAthleteIds(principal),
+      ageGroupId: query.ageGroupId,
+      search: query.search,
+    });
+    const [groups, counts] = await Promise.all([
+      new ClubRepository(manager).listAgeGroups(principal.clubId),
+      new AthleteRepository(manager).clipCounts(athletes.map((a) => a.id)),
+    ]);
+    const groupById = new Map(groups.map((g) => [g.id, g]));
+    const now = this.clock.now();
+    return {
+      athletes: athletes.map((a) =>
+        toAthleteDto(a, groupById.get(a.ageGroupId)!, counts.get(a.id) ?? 0, now),
+      ),
+    };
+  }
+
+  /** The athlete if the caller may read it; 404 otherwise, so ids outside one's reach reveal nothing. */
+  async findVisible(principal: Principal, athleteId: string): Promise<Athlete> {
+    const athlete = await new AthleteRepository(this.dataSource.manager).findById(athleteId);
+    if (!athlete || !this.access.canSeeAthlete(principal, athlete)) throw notFound('Athlete');
+    return athlete;
+  }
+
+  async get(principal: Principal, athleteId: string): Promise<AthleteResponse> {
+    return this.detail(principal, await this.findVisible(principal, athleteId));
+  }
+
+  private async detail(principal: Principal, athlete: Athlete): Promise<AthleteResponse> {
+    const manager = this.dataSource.manager;
+    const repo = new AthleteRepository(manager);
+    const [group, counts, guardians] = await Promise.all([
+      new ClubRepository(manager).findAgeGroup(athlete.ageGroupId),
+      repo.clipCounts([athlete.id]),
+      repo.guardiansOf(athlete.id),
+    ]);
+    return {
+      athlete: toAthleteDetailDto(
+        athlete,
+        group!,
+        counts.get(athlete.id) ?? 0,
+        guardians,
+        this.access.canSeeContactDetails(principal),
+        this.clock.now(),
+      ),
+    };
+  }
+
+  async create(principal: Principal, input: CreateAthleteInput): Promise<AthleteResponse> {
+    const group = await new ClubRepository(this.dataSource.manager).findAgeGroup(input.ageGroupId);
+    if (!group || group.clubId !== principal.clubId) {
+      throw badRequest('unknown_age_group', 'Choose one of the club’s age groups');
+    }
+    if (!this.access.canManageAgeGroup(principal, group.id)) {
+      throw forbidden(
+        `You can only add athletes to the age groups you coach; ${group.name} is not one of them`,
+      );
+    }
+    const athlete: Athlete = {
+      id: randomUUID(),
+      clubId: principal.clubId,
+      ageGroupId: group.id,
+      userId: null,
+      firstName: input.firstName,
+      lastName: input.lastName,
+      birthYear: input.birthYear,
+      consentRecordedAt: null,
+      consentGuardianName: null,
+      consentMethod: null,
+      consentRecordedById: null,
+      createdAt: this.clock.now(),
+    };
+    await this.dataSource.transaction(async (manager) => {
+      await new AthleteRepository(manager).insert(athlete);
+      await this.audit.record(manager, {
+        clubId: principal.clubId,
+        actorUserId: principal.user.id,
+        action: 'athlete.create',
+        targetType: 'athlete',
+        targetId: athlete.id,
+      });
+    });
+    return this.detail(principal, athlete);
+  }
+
+  async recordConsent(
+    principal: Principal,
+    athleteId: string,
+    input: RecordConsentInput,
+  ): Promise<AthleteResponse> {
+    const athlete = await this.findVisible(principal, athleteId);
+    if (!this.access.canManageAthlete(principal, athlete)) {
+      throw forbidden('Only the head coach or a coach of this athlete’s age group can record consent');
+    }
+    const now = this.clock.now();
+    const patch: Partial<Athlete> = {
+      consentRecordedAt: now,
+      consentGuardianName: input.guardianName,
+      consentMethod: input.method,
+      consentRecordedById: principal.user.id,
+    };
+    await this.dataSource.transaction(async (manager) => {
+      await new AthleteRepository(manager).update(athlete.id, patch);
+      await this.audit.record(manager, {
+        clubId: principal.clubId,
+        actorUserId: principal.user.id,
+        action: 'athlete.consent',
+        targetType: 'athlete',
+        targetId: athlete.id,
+        details: { guardianName: input.guardianName, method: input.method },
+      });
+    });
+    return this.detail(principal, { ...athlete, ...patch });
+  }
+}

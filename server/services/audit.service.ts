@@ -1,0 +1,31 @@
+import { randomUUID } from 'node:crypto';
+import type { EntityManager } from 'typeorm';
+import { AuditRepository } from '../repositories/audit.repository';
+import type { Clock } from './principal';
+
+export interface AuditEntry {
+  clubId: string | null;
+  actorUserId: string | null;
+  action: string;
+  targetType?: string;
+  targetId?: string;
+  details?: Record<string, unknown>;
+}
+
+export class AuditService {
+  constructor(private readonly clock: Clock) {}
+
+  /** Pass the transaction's manager so the event commits or rolls back with the change it records. */
+  async record(manager: EntityManager, entry: AuditEntry): Promise<void> {
+    await new AuditRepository(manager).insert({
+      id: randomUUID(),
+      clubId: entry.clubId,
+      actorUserId: entry.actorUserId,
+      action: entry.action,
+      targetType: entry.targetType ?? null,
+      targetId: entry.targetId ?? null,
+      details: entry.details ?? null,
+      createdAt: this.clock.now(),
+    });
+  }
+}

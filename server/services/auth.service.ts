@@ -1,0 +1,146 @@
+import { randomUUID } from 'node:crypto';
+import bcrypt from 'bcryptjs';
+import type { DataSource, EntityManager } from 'typeorm';
+import type { LoginInput, LoginResponse, MeResponse } from '@shared/schemas/auth.schema';
+import type { User } from '../entities/user.entity';
+import { HttpError, notFound, unauthorized } from '../errors';
+import { toUserDto } from '../mappers/user.mapper';
+import { AuthRepository } from '../repositories/auth.repository';
+import { ClubRepository } from '../repositories/club.repository';
+import { UserRepository } from '../repositories/user.repository';
+import type { AuditService } from './audit.service';
+import type { Clock, Principal } from './principal';
+import { hashSecretToken, newSecretToken } from './secret-token';
+import type { TokenService } from './token.service';
+
+const REUSE_GRACE_MS = 30_000;
+
+export interface SignedIn extends LoginResponse {
+  /** Goes into the httpOnly cookie, never into a response body. */
+  refreshToken: string;
+  refreshExpiresAt: Date;
+}
+
+export class AuthService {
+  /** Compared against when the e-mail is unknown, so both failures take the same time. */
+  private readonly dummyHash: string;
+
+  constructor(
+    private readonly dataSource: DataSource,
+    private readonly tokens: TokenService,
+    private readonly audit: AuditService,
+    private readonly clock: Clock,
+    private readonly refreshTtlMs: number,
+    private readonly bcryptRounds: number,
+  ) {
+    this.dummyHash = bcrypt.hashSync('not-a-real-password', bcryptRounds);
+  }
+
+  hashPassword(password: string): Promise<string> {
+    return bcrypt.hash(password, this.bcryptRounds);
+  }
+
+  async loadPrincipal(userId: string, tokenVersion?: number): Promise<Principal | null> {
+    const users = new UserRepository(this.dataSource.manager);
+    const user = await users.findById(userId);
+    if (!user) return null;
+    if (tokenVersion !== undefined && tokenVersion !== user.tokenVersion) return null;
+    const links = await users.links(user);
+    return { user, role: user.role, clubId: user.clubId, ...links };
+  }
+
+  async login(input: LoginInput): Promise<SignedIn> {
+    const user = await new UserRepository(this.dataSource.manager).findByEmail(input.email);
+    const ok = await bcrypt.compare(input.password, user?.passwordHash ?? this.dummyHash);
+    if (!user || !user.passwordHash || !ok) {
+      if (user) {
+        await this.audit.record(this.dataSource.manager, {
+          clubId: user.clubId,
+          actorUserId: user.id,
+          action: 'auth.sign_in_failed',
+          targetType: 'user',
+          targetId: user.id,
+        });
+      }
+      throw unauthorized('invalid_credentials', 'Wrong e-mail address or password');
+    }
+    return this.dataSource.transaction(async (manager) => {
+      await new UserRepository(manager).update(user.id, { lastSignInAt: this.clock.now() });
+      await this.audit.record(manager, {
+        clubId: user.clubId,
+        actorUserId: user.id,
+        action: 'auth.sign_in',
+        targetType: 'user',
+        targetId: user.id,
+      });
+      return this.issue(manager, user);
+    });
+  }
+
+  /** New access token plus a new refresh row, inside the caller's transaction. */
+  async issue(manager: EntityManager, user: User): Promise<SignedIn> {
+    const principal = await this.principalFor(manager, user);
+    const refreshToken = newSecretToken();
+    const now = this.clock.now();
+    const refreshExpiresAt = new Date(now.getTime() + this.refreshTtlMs);
+    await new AuthRepository(manager).insertRefreshToken({
+      id: randomUUID(),
+      userId: user.id,
+      tokenHash: hashSecretToken(refreshToken),
+      expiresAt: refreshExpiresAt,
+      revokedAt: null,
+      createdAt: now,
+    });
+    return {
+      accessToken: this.tokens.signAccess({ sub: user.id, ver: user.tokenVersion }),
+      user: toUserDto(principal),
+      refreshToken,
+      refreshExpiresAt,
+    };
+  }
+
+  private async principalFor(manager: EntityManager, user: User): Promise<Principal> {
+    const links = await new UserRepository(manager).links(user);
+    return { user, role: user.role, clubId: user.clubId, ...links };
+  }
+
+  /** Rotates the refresh token: the presented one is revoked, a new one is issued. */
+  async refresh(refreshToken: string | undefined): Promise<SignedIn> {
+    if (!refreshToken) throw unauthorized('no_refresh_token', 'Sign in again: no session cookie was sent');
+    return this.dataSource.transaction(async (manager) => {
+      const repo = new AuthRepository(manager);
+      const row = await repo.findRefreshToken(hashSecretToken(refreshToken));
+      const now = this.clock.now();
+      if (!row) throw unauthorized('invalid_refresh_token', 'Sign in again: the session is not known');
+      if (row.revokedAt) {
+        // Two tabs refreshing at once present the same token within moments; that is not a replay.
+        // Later reuse means the token leaked: end every session of the user.
+        if (now.getTime() - row.revokedAt.getTime() > REUSE_GRACE_MS) {
+          await repo.revokeAllRefreshTokens(row.userId, now);
+        }
+        throw new HttpError(401, 'invalid_refresh_token', 'Sign in again: the session has ended');
+      }
+      if (row.expiresAt.getTime() <= now.getTime()) {
+        await repo.revokeRefreshToken(row.id, now);
+        throw unauthorized('refresh_expired', 'Sign in again: the session expired');
+      }
+      const user = await new UserRepository(manager).findById(row.userId);
+      if (!user) throw unauthorized('invalid_refresh_token', 'Sign in again: the account no longer exists');
+      await repo.revokeRefreshToken(row.id, now);
+      return this.issue(manager, user);
+    });
+  }
+
+  async logout(refreshToken: string | undefined): Promise<void> {
+    if (!refreshToken) return;
+    const repo = new AuthRepository(this.dataSource.manager);
+    const row = await repo.findRefreshToken(hashSecretToken(refreshToken));
+    if (row) await repo.revokeRefreshToken(row.id, this.clock.now());
+  }
+
+  async me(principal: Principal): Promise<MeResponse> {
+    const club = await new ClubRepository(this.dataSource.manager).findById(principal.clubId);
+    if (!club) throw notFound('Club');
+    return { user: toUserDto(principal), club: { id: club.id, name: club.name } };
+  }
+}

@@ -1,0 +1,236 @@
+import { randomUUID } from 'node:crypto';
+import fs from 'node:fs/promises';
+import type { DataSource } from 'typeorm';
+import {
+  uploadClipFieldsSchema,
+  type ClipDto,
+  type ClipListResponse,
+  type ClipResponse,
+} from '@shared/schemas/clip.schema';
+import type { Athlete } from '../entities/athlete.entity';
+import type { Clip } from '../entities/clip.entity';
+import { HttpError, badRequest, conflict, notFound } from '../errors';
+import { toClipDto } from '../mappers/clip.mapper';
+import { probeVideo } from '../media/probe';
+import { ACCEPTED_CONTAINER_LABEL, sniffVideoContainer } from '../media/sniff';
+import { AthleteRepository } from '../repositories/athlete.repository';
+import { ClipRepository } from '../repositories/clip.repository';
+import type { ObjectStorage } from '../storage/object-storage';
+import type { AccessService } from './access.service';
+import type { AuditService } from './audit.service';
+import { mayStoreClipsOf } from './consent.rules';
+import type { Clock, Principal } from './principal';
+import type { SessionService } from './session.service';
+import type { TokenService } from './token.service';
+
+/** A file multer has streamed to the temp folder, hashed on the way. */
+export interface StagedUpload {
+  path: string;
+  size: number;
+  sha256: string;
+  originalName: string;
+}
+
+export interface MediaTarget {
+  clip: Clip;
+  key: string;
+  contentType: string;
+  sizeBytes: number;
+}
+
+export class ClipService {
+  constructor(
+    private readonly dataSource: DataSource,
+    private readonly access: AccessService,
+    private readonly sessions: SessionService,
+    private readonly storage: ObjectStorage,
+    private readonly tokens: TokenService,
+    private readonly audit: AuditService,
+    private readonly clock: Clock,
+  ) {}
+
+  async list(
+    principal: Principal,
+    query: { athleteId?: string; sessionId?: string },
+  ): Promise<ClipListResponse> {
+    const visible = await this.access.visibleAthleteIds(principal);
+    const clips = await new ClipRepository(this.dataSource.manager).list({
+      clubId: principal.clubId,
+      visibleAthleteIds: visible,
+      athleteId: query.athleteId,
+      sessionId: query.sessionId,
+    });
+    return { clips: await this.toDtos(principal, clips, visible) };
+  }
+
+  async findVisible(principal: Principal, clipId: string): Promise<Clip> {
+    const repo = new ClipRepository(this.dataSource.manager);
+    const clip = await repo.findById(clipId);
+    if (!clip || clip.clubId !== principal.clubId) throw notFound('Clip');
+    const visible = await this.access.visibleAthleteIds(principal);
+    if (visible) {
+      const tagged = (await repo.athleteIdsByClip([clip.id])).get(clip.id) ?? [];
+      if (!tagged.some((id) => visible.includes(id))) throw notFound('Clip');
+    }
+    return clip;
+  }
+
+  async get(principal: Principal, clipId: string): Promise<ClipResponse> {
+    const clip = await this.findVisible(principal, clipId);
+    const [dto] = await this.toDtos(principal, [clip], await this.access.visibleAthleteIds(principal));
+    return { clip: dto };
+  }
+
+  async mediaTarget(principal: Principal, clipId: string): Promise<MediaTarget> {
+    const clip = await this.findVisible(principal, clipId);
+    return { clip, key: clip.storageKey, contentType: clip.mimeType, sizeBytes: clip.sizeBytes };
+  }
+
+  private async toDtos(principal: Principal, clips: Clip[], visible: string[] | null): Promise<ClipDto[]> {
+    const manager = this.dataSource.manager;
+    const tags = await new ClipRepository(manager).athleteIdsByClip(clips.map((c) => c.id));
+    // Teammates tagged in the same clip stay hidden from athletes and guardians.
+    const shown = (ids: string[]) => (visible ? ids.filter((id) => visible.includes(id)) : ids);
+    const allIds = [...new Set([...tags.values()].flatMap(shown))];
+    const athletes = new Map((await new AthleteRepository(manager).findByIds(allIds)).map((a) => [a.id, a]));
+    return clips.map((clip) => {
+      const tagged = shown(tags.get(clip.id) ?? [])
+        .map((id) => athletes.get(id))
+        .filter((a): a is Athlete => Boolean(a));
+      const token = this.tokens.signMedia({
+        sub: principal.user.id,
+        ver: principal.user.tokenVersion,
+        clip: clip.id,
+      });
+      return toClipDto(clip, tagged, `/api/clips/${clip.id}/media?token=${encodeURIComponent(token)}`);
+    });
+  }
+
+  /**
+   * Checks, stores and records one uploaded clip. Whatever fails, the temp file is removed and
+   * neither an object nor a row is left behind.
+   */
+  async upload(
+    principal: Principal,
+    rawFields: unknown,
+    file: StagedUpload | undefined,
+  ): Promise<ClipResponse> {
+    let storedKey: string | null = null;
+    try {
+      if (!file) throw badRequest('file_missing', 'Attach a video file in the field "file"');
+      const { fields, session, athleteIds } = await this.precheck(principal, rawFields);
+
+      if (file.size === 0)
+        throw badRequest('empty_file', `The file “${file.originalName}” is empty (0 bytes)`);
+      const sniff = await sniffVideoContainer(file.path);
+      if (!sniff.ok) {
+        const seen = sniff.detected
+          ? `it looks like ${sniff.detected}`
+          : 'its content is not a known video format';
+        throw new HttpError(
+          415,
+          'unsupported_type',
+          `“${file.originalName}” is not a video: ${seen}. Upload ${ACCEPTED_CONTAINER_LABEL} files.`,
+        );
+      }
+      const probe = await probeVideo(file.path).catch(() => null);
+      if (!probe) {
+        throw new HttpError(
+          422,
+          'unreadable_video',
+          `“${file.originalName}” could not be read as video; the file may be damaged or incomplete`,
+        );
+      }
+
+      const id = randomUUID();
+      const key = `clubs/${principal.clubId}/clips/${id}/original.${sniff.ext}`;
+      storedKey = key;
+      await this.storage.putFile(key, file.path, sniff.mime);
+
+      const clip: Clip = {
+        id,
+        clubId: principal.clubId,
+        sessionId: session.id,
+        uploadedById: principal.user.id,
+        view: fields.view,
+        // Probed and playable as stored; proxies for codecs browsers cannot play come with the media pipeline.
+        status: 'ready',
+        failureReason: null,
+        originalName: file.originalName.slice(0, 255),
+        mimeType: sniff.mime,
+        sizeBytes: file.size,
+        sha256: file.sha256,
+        storageKey: key,
+        proxyKey: null,
+        posterKey: null,
+        codec: probe.codec,
+        width: probe.width,
+        height: probe.height,
+        fps: probe.fps,
+        frameCount: probe.frameCount,
+        durationMs: probe.durationMs,
+        createdAt: this.clock.now(),
+      };
+      await this.dataSource.transaction(async (manager) => {
+        await new ClipRepository(manager).insert(clip, athleteIds);
+        await this.audit.record(manager, {
+          clubId: principal.clubId,
+          actorUserId: principal.user.id,
+          action: 'clip.upload',
+          targetType: 'clip',
+          targetId: clip.id,
+          details: { sessionId: session.id, athleteIds, sizeBytes: file.size, sha256: file.sha256 },
+        });
+      });
+      storedKey = null;
+      const [dto] = await this.toDtos(principal, [clip], await this.access.visibleAthleteIds(principal));
+      return { clip: dto };
+    } catch (error) {
+      if (storedKey) await this.storage.delete(storedKey).catch(() => undefined);
+      throw error;
+    } finally {
+      if (file) await fs.rm(file.path, { force: true });
+    }
+  }
+
+  /**
+   * The checks that need only the form fields: the session, the tagged athletes and their consent.
+   * Run again when the file has arrived, and early (before the file streams) when fields come first.
+   */
+  async precheck(principal: Principal, rawFields: unknown) {
+    const fields = uploadClipFieldsSchema.parse(rawFields);
+    const session = await this.sessions.findVisible(principal, fields.sessionId);
+    const athleteIds = [...new Set(fields.athleteIds)];
+    await this.taggableAthletes(principal, athleteIds);
+    return { fields, session, athleteIds };
+  }
+
+  private async taggableAthletes(principal: Principal, athleteIds: string[]): Promise<Athlete[]> {
+    const found = await new AthleteRepository(this.dataSource.manager).findByIds(athleteIds);
+    const byId = new Map(found.map((a) => [a.id, a]));
+    const now = this.clock.now();
+    const athletes: Athlete[] = [];
+    for (const id of athleteIds) {
+      const athlete = byId.get(id);
+      if (!athlete || !this.access.canSeeAthlete(principal, athlete)) throw notFound('Athlete');
+      if (!this.access.canManageAthlete(principal, athlete)) {
+        throw new HttpError(
+          403,
+          'forbidden',
+          'You can only upload clips of athletes in the age groups you coach',
+        );
+      }
+      athletes.push(athlete);
+    }
+    const withoutConsent = athletes.filter((a) => !mayStoreClipsOf(a, now));
+    if (withoutConsent.length > 0) {
+      const names = withoutConsent.map((a) => `${a.firstName} ${a.lastName}`).join(', ');
+      throw conflict(
+        'consent_required',
+        `Record a guardian’s consent for ${names} first: clips of athletes under 18 are stored only with recorded consent`,
+        { athleteIds: withoutConsent.map((a) => a.id) },
+      );
+    }
+    return athletes;
+  }
+}

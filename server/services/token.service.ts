@@ -1,0 +1,58 @@
+import jwt from 'jsonwebtoken';
+import type { Clock } from './principal';
+
+export const ACCESS_AUDIENCE = 'stanceline-api';
+export const MEDIA_AUDIENCE = 'stanceline-media';
+export const TOKEN_ISSUER = 'stanceline';
+
+export interface AccessClaims {
+  sub: string;
+  /** The user's token version when issued; a bump (logout everywhere) invalidates it. */
+  ver: number;
+}
+
+export interface MediaClaims {
+  sub: string;
+  ver: number;
+  clip: string;
+}
+
+/** Signs access and media JWTs (HS256). Verification of access tokens is passport-jwt's job. */
+export class TokenService {
+  constructor(
+    private readonly secret: string,
+    private readonly accessTtlMs: number,
+    private readonly mediaTtlMs: number,
+    private readonly clock: Clock,
+  ) {}
+
+  private sign(payload: object, audience: string, ttlMs: number): string {
+    const iat = Math.floor(this.clock.now().getTime() / 1000);
+    return jwt.sign({ ...payload, iat, exp: iat + Math.max(1, Math.round(ttlMs / 1000)) }, this.secret, {
+      algorithm: 'HS256',
+      audience,
+      issuer: TOKEN_ISSUER,
+    });
+  }
+
+  signAccess(claims: AccessClaims): string {
+    return this.sign(claims, ACCESS_AUDIENCE, this.accessTtlMs);
+  }
+
+  signMedia(claims: MediaClaims): string {
+    return this.sign(claims, MEDIA_AUDIENCE, this.mediaTtlMs);
+  }
+
+  /** Returns the claims, or throws jsonwebtoken's TokenExpiredError / JsonWebTokenError. */
+  verifyMedia(token: string): MediaClaims {
+    const payload = jwt.verify(token, this.secret, {
+      algorithms: ['HS256'],
+      audience: MEDIA_AUDIENCE,
+      issuer: TOKEN_ISSUER,
+    });
+    if (typeof payload === 'string' || typeof payload.sub !== 'string' || typeof payload.clip !== 'string') {
+      throw new jwt.JsonWebTokenError('malformed media token');
+    }
+    return { sub: payload.sub, ver: Number(payload.ver), clip: payload.clip };
+  }
+}
