@@ -1,0 +1,241 @@
+import { spawn, execFile } from 'node:child_process';
+import { promisify } from 'node:util';
+import { FFMPEG_PATH, FFPROBE_PATH } from './media-tools';
+
+const execFileAsync = promisify(execFile);
+
+export interface VideoInfo {
+  codec: string;
+  /** Coded size; decoded frames may be rotated (see displayWidth/Height). */
+  width: number;
+  height: number;
+  displayWidth: number;
+  displayHeight: number;
+  fps: number | null;
+  durationMs: number | null;
+  /** Container's frame count, or an estimate from duration × frame rate; null when unknown. */
+  frameCount: number | null;
+}
+
+export class VideoProbeError extends Error {}
+
+function rate(text: string | undefined): number | null {
+  if (!text) return null;
+  const [n, d] = text.split('/').map(Number);
+  const r = d ? n / d : n;
+  return Number.isFinite(r) && r > 0 ? r : null;
+}
+
+/** Reads the first video stream's facts with ffprobe. */
+export async function probeVideo(path: string): Promise<VideoInfo> {
+  let stdout: string;
+  try {
+    ({ stdout } = await execFileAsync(FFPROBE_PATH, [
+      '-v',
+      'error',
+      '-select_streams',
+      'v:0',
+      '-show_entries',
+      'stream=codec_name,width,height,nb_frames,avg_frame_rate,r_frame_rate,duration:stream_tags=rotate:format=duration',
+      '-of',
+      'json',
+      path,
+    ]));
+  } catch (error) {
+    const stderr = String((error as { stderr?: string }).stderr ?? '').trim();
+    throw new VideoProbeError(stderr.split('\n').pop() || 'ffprobe could not read the file');
+  }
+  const json = JSON.parse(stdout) as {
+    streams?: {
+      codec_name?: string;
+      width?: number;
+      height?: number;
+      nb_frames?: string;
+      avg_frame_rate?: string;
+      r_frame_rate?: string;
+      duration?: string;
+      tags?: { rotate?: string };
+    }[];
+    format?: { duration?: string };
+  };
+  const s = json.streams?.[0];
+  if (!s || !s.width || !s.height) throw new VideoProbeError('no video stream');
+  const fps = rate(s.avg_frame_rate) ?? rate(s.r_frame_rate);
+  const duration = Number(s.duration ?? json.format?.duration);
+  const durationMs = Number.isFinite(duration) ? duration * 1000 : null;
+  const counted = Number(s.nb_frames);
+  const frameCount =
+    Number.isInteger(counted) && counted > 0
+      ? counted
+      : fps && durationMs
+        ? Math.round((durationMs / 1000) * fps)
+        : null;
+  const quarter = Math.abs(Number(s.tags?.rotate ?? 0)) % 180 === 90;
+  return {
+    codec: s.codec_name ?? 'unknown',
+    width: s.width,
+    height: s.height,
+    displayWidth: quarter ? s.height : s.width,
+    displayHeight: quarter ? s.width : s.height,
+    fps,
+    durationMs,
+    frameCount,
+  };
+}
+
+export interface DecodedFrame {
+  /** Index in the source video (0-based, counting every decoded frame). */
+  index: number;
+  timeMs: number;
+  /** Packed RGB of the (possibly downscaled) frame. */
+  rgb: Uint8Array;
+  width: number;
+  height: number;
+  /** Size of the frame as decoded (after the container's rotation), before downscaling. */
+  sourceWidth: number;
+  sourceHeight: number;
+}
+
+export interface DecodeOptions {
+  /** Keep frames 0, N, 2N, ... */
+  every: number;
+  /** Downscale so the long side is at most this many pixels (the detector crops to 192–256 anyway). */
+  maxSide?: number;
+}
+
+interface ShowInfo {
+  n: number;
+  ptsTime: number;
+  width: number;
+  height: number;
+}
+
+const SHOWINFO =
+  /\[Parsed_showinfo_(\d+)[^\]]*\]\s+n:\s*(\d+).*?pts_time:\s*(-?[\d.e+-]+|NOPTS).*?\bs:(\d+)x(\d+)/;
+
+/** Decodes a video with ffmpeg into raw RGB frames piped through stdout, one at a time. */
+export async function* decodeVideoFrames(path: string, options: DecodeOptions): AsyncGenerator<DecodedFrame> {
+  const every = Math.max(1, Math.floor(options.every));
+  const maxSide = options.maxSide ?? 1280;
+  // showinfo before and after the scaler: source size and timing, then the size of the piped bytes.
+  const filter = [
+    `select='not(mod(n\\,${every}))'`,
+    'showinfo',
+    `scale='if(gt(iw,ih),min(${maxSide},iw),-2)':'if(gt(iw,ih),-2,min(${maxSide},ih))'`,
+    'showinfo',
+  ].join(',');
+  const child = spawn(
+    FFMPEG_PATH,
+    [
+      '-hide_banner',
+      '-nostdin',
+      '-nostats',
+      '-v',
+      'info',
+      '-i',
+      path,
+      '-an',
+      '-sn',
+      '-dn',
+      '-vf',
+      filter,
+      '-vsync',
+      '0',
+      '-f',
+      'rawvideo',
+      '-pix_fmt',
+      'rgb24',
+      'pipe:1',
+    ],
+    { stdio: ['ignore', 'pipe', 'pipe'] },
+  );
+  const before: ShowInfo[] = [];
+  const after: ShowInfo[] = [];
+  const errorLines: string[] = [];
+  let wake: (() => void) | null = null;
+  let stderrDone = false;
+  let rest = '';
+  child.stderr.setEncoding('utf8');
+  child.stderr.on('data', (text: string) => {
+    const lines = (rest + text).split('\n');
+    rest = lines.pop() ?? '';
+    for (const line of lines) {
+      const m = SHOWINFO.exec(line);
+      if (m) {
+        const info = {
+          n: Number(m[2]),
+          ptsTime: m[3] === 'NOPTS' ? NaN : Number(m[3]),
+          width: Number(m[4]),
+          height: Number(m[5]),
+        };
+        (Number(m[1]) < 2 ? before : after).push(info);
+      } else if (line.trim() && !line.startsWith(' ') && !/^(Input|Output|Stream mapping|Press)/.test(line)) {
+        errorLines.push(line.trim());
+        if (errorLines.length > 20) errorLines.shift();
+      }
+    }
+    wake?.();
+  });
+  child.stderr.on('end', () => {
+    stderrDone = true;
+    wake?.();
+  });
+  const exited = new Promise<number>((resolve) => child.on('close', (code) => resolve(code ?? 1)));
+  const spawnFailed = new Promise<never>((_, reject) => child.on('error', reject));
+  spawnFailed.catch(() => undefined);
+
+  const infoFor = async (k: number): Promise<{ src: ShowInfo; out: ShowInfo } | null> => {
+    while (!(before[k] && after[k]) && !stderrDone) {
+      await new Promise<void>((resolve) => (wake = resolve));
+      wake = null;
+    }
+    return before[k] && after[k] ? { src: before[k], out: after[k] } : null;
+  };
+
+  let k = 0;
+  let buffered: Buffer[] = [];
+  let bufferedBytes = 0;
+  try {
+    for await (const chunk of child.stdout as AsyncIterable<Buffer>) {
+      buffered.push(chunk);
+      bufferedBytes += chunk.length;
+      for (;;) {
+        const info = await infoFor(k);
+        if (!info) throw new Error('ffmpeg sent frame data without frame information');
+        const size = info.out.width * info.out.height * 3;
+        if (bufferedBytes < size) break;
+        const all = buffered.length === 1 ? buffered[0] : Buffer.concat(buffered, bufferedBytes);
+        const rgb = new Uint8Array(all.buffer.slice(all.byteOffset, all.byteOffset + size));
+        const remaining = all.subarray(size);
+        buffered = remaining.length > 0 ? [remaining] : [];
+        bufferedBytes = remaining.length;
+        yield {
+          index: k * every,
+          timeMs: Number.isFinite(info.src.ptsTime) ? info.src.ptsTime * 1000 : NaN,
+          rgb,
+          width: info.out.width,
+          height: info.out.height,
+          sourceWidth: info.src.width,
+          sourceHeight: info.src.height,
+        };
+        k++;
+      }
+    }
+    const code = await Promise.race([exited, spawnFailed]);
+    if (code !== 0) {
+      throw new VideoDecodeError(errorLines.slice(-3).join(' / ') || `ffmpeg exited with code ${code}`, k);
+    }
+    if (bufferedBytes > 0 && k === 0) throw new VideoDecodeError('ffmpeg produced a partial frame', k);
+  } finally {
+    if (child.exitCode === null) child.kill('SIGKILL');
+  }
+}
+
+export class VideoDecodeError extends Error {
+  constructor(
+    message: string,
+    readonly framesDecoded: number,
+  ) {
+    super(message);
+  }
+}

@@ -1,0 +1,43 @@
+import { BLAZEPOSE33_NAMES, COCO17_NAMES, type Keypoint, type KeypointName } from '../keypoints';
+
+/** What pose-detection returns for one point (image pixels of the tensor it was given). */
+export interface RawKeypoint {
+  x: number;
+  y: number;
+  score?: number;
+  name?: string;
+}
+
+/**
+ * Maps a model's points to the project's names (shared/keypoints.ts) by output index, so a renamed
+ * label upstream cannot silently shift a joint. MoveNet emits the 17 COCO points, BlazePose the 33
+ * GHUM points; both orders are fixed by the models (REFERENCES.md section 5).
+ * `scaleX`/`scaleY` take points from the detector's input back to the original frame's pixels.
+ */
+export function mapKeypoints(raw: readonly RawKeypoint[], scaleX = 1, scaleY = 1): Keypoint[] {
+  const names: readonly KeypointName[] =
+    raw.length === COCO17_NAMES.length
+      ? COCO17_NAMES
+      : raw.length === BLAZEPOSE33_NAMES.length
+        ? BLAZEPOSE33_NAMES
+        : [];
+  if (names.length === 0) throw new Error(`unexpected keypoint count ${raw.length} (expected 17 or 33)`);
+  const out: Keypoint[] = [];
+  raw.forEach((point, i) => {
+    const name = names[i];
+    if (point.name !== undefined && point.name !== name) {
+      throw new Error(`keypoint ${i} is "${point.name}", expected "${name}"`);
+    }
+    const x = point.x * scaleX;
+    const y = point.y * scaleY;
+    if (!Number.isFinite(x) || !Number.isFinite(y)) return;
+    const score = Number.isFinite(point.score) ? Math.min(1, Math.max(0, point.score as number)) : 0;
+    out.push({ name, x, y, score });
+  });
+  return out;
+}
+
+/** Scales points detected on a downsized copy back to the source frame. */
+export function scaleKeypoints(keypoints: readonly Keypoint[], scaleX: number, scaleY: number): Keypoint[] {
+  return keypoints.map((k) => ({ ...k, x: k.x * scaleX, y: k.y * scaleY }));
+}
