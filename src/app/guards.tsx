@@ -31,9 +31,9 @@ export function RequireAuth() {
     );
   }
   if (state.status === 'signed-out') {
-    return (
-      <Navigate to={paths.login.href()} replace state={{ from: `${location.pathname}${location.search}` }} />
-    );
+    // After a deliberate sign-out the next person starts at their own landing page, not at this one.
+    const from = state.reason === 'signed-out' ? undefined : `${location.pathname}${location.search}`;
+    return <Navigate to={paths.login.href()} replace state={from ? { from } : null} />;
   }
   return <Outlet />;
 }

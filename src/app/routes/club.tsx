@@ -30,7 +30,7 @@ export function ClubPage() {
   return (
     <>
       <PageHeader title="Club" subtitle={me.data ? me.data.club.name : undefined} />
-      <div className="grid gap-6 lg:grid-cols-[minmax(0,1fr)_24rem]">
+      <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_24rem]">
         <Card title="Members">
           {members.isPending ? <PageSpinner label="Loading members" /> : null}
           {members.isError ? (

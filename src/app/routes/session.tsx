@@ -1,14 +1,13 @@
 import { Link, useParams } from 'react-router-dom';
 import { Upload } from 'lucide-react';
 import { ButtonLink } from '@/components/ui/button';
-import { Notice } from '@/components/ui/notice';
 import { PageHeader } from '@/components/ui/page-header';
 import { QueryError } from '@/components/ui/query-error';
 import { PageSpinner } from '@/components/ui/spinner';
 import { paths } from '@/config/paths';
 import { useClips } from '@/features/clips/api/get-clips';
 import { ClipList } from '@/features/clips/components/clip-list';
-import { useSession } from '@/features/sessions/api/get-sessions';
+import { useSession } from '@/features/sessions/api/get-session';
 import { disciplineLabel } from '@/features/sessions/components/session-labels';
 import { SessionSummary } from '@/features/sessions/components/session-summary';
 import { useUser } from '@/lib/auth';
@@ -30,15 +29,6 @@ export function SessionPage() {
   if (session.isError) {
     return <QueryError error={session.error} what="this session" retry={() => void session.refetch()} />;
   }
-  if (!session.data) {
-    return (
-      <>
-        <PageHeader back={back} title="Session not found" />
-        <Notice tone="info">This session does not exist or is outside what your role can see.</Notice>
-      </>
-    );
-  }
-
   const data = session.data;
   return (
     <>
@@ -57,7 +47,7 @@ export function SessionPage() {
           ) : null
         }
       />
-      <div className="grid gap-6 lg:grid-cols-[20rem_minmax(0,1fr)]">
+      <div className="grid items-start gap-6 lg:grid-cols-[20rem_minmax(0,1fr)]">
         <SessionSummary session={data} />
         <section aria-labelledby="session-clips">
           <h2 id="session-clips" className="mb-3 text-base font-semibold text-granite-900">

@@ -1,16 +1,10 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { Role } from '@shared/schemas/auth.schema';
+import type { InvitationPreviewResponse } from '@shared/schemas/auth.schema';
 import { api } from '@/lib/api-client';
 import { authKeys } from './auth-keys';
 
-export interface InvitationPreview {
-  email: string;
-  role: Role;
-  clubName: string;
-}
-
-export function getInvitation(token: string): Promise<InvitationPreview> {
-  return api.get<InvitationPreview>(`/api/invitations/${encodeURIComponent(token)}`);
+export function getInvitation(token: string): Promise<InvitationPreviewResponse> {
+  return api.get<InvitationPreviewResponse>(`/api/invitations/${encodeURIComponent(token)}`);
 }
 
 export const invitationQueryOptions = (token: string) =>
@@ -18,6 +12,7 @@ export const invitationQueryOptions = (token: string) =>
     queryKey: authKeys.invitation(token),
     queryFn: () => getInvitation(token),
     staleTime: Infinity,
+    select: (data) => data.invitation,
   });
 
 export function useInvitation(token: string) {

@@ -33,7 +33,7 @@ export function InviteRoute() {
       {invitation.data ? (
         <>
           <p className="mb-4 text-sm text-granite-700">
-            You are invited to <strong>{invitation.data.clubName}</strong> as{' '}
+            You are invited to <strong>{invitation.data.club.name}</strong> as{' '}
             <strong>{ROLE_LABELS[invitation.data.role].toLowerCase()}</strong>. Set your name and password to
             join.
           </p>

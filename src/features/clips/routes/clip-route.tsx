@@ -27,7 +27,7 @@ export function ClipRoute() {
           data.view === 'front' ? 'front view' : 'side view'
         }`}
       />
-      <div className="grid gap-6 lg:grid-cols-[minmax(0,1fr)_20rem]">
+      <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_20rem]">
         <div className="space-y-4">
           <ClipPlayer clip={data} onRenewUrl={() => clip.refetch()} />
           <AnalysisCaution />

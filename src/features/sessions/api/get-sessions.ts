@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { SessionDto, SessionListResponse } from '@shared/schemas/session.schema';
+import type { SessionListResponse } from '@shared/schemas/session.schema';
 import { api } from '@/lib/api-client';
 import { sessionKeys } from './session-keys';
 
@@ -16,12 +16,4 @@ export const sessionsQueryOptions = () =>
 
 export function useSessions(options: { enabled?: boolean } = {}) {
   return useQuery({ ...sessionsQueryOptions(), enabled: options.enabled ?? true });
-}
-
-/** One session, read from the club's list (a club has tens of sessions a season, not thousands). */
-export function useSession(id: string) {
-  return useQuery({
-    ...sessionsQueryOptions(),
-    select: (data): SessionDto | null => data.sessions.find((session) => session.id === id) ?? null,
-  });
 }

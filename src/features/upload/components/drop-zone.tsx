@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { UploadCloud } from 'lucide-react';
 import { cn } from '@/lib/format';
-import { ACCEPT_ATTRIBUTE } from '../utils/check-clip-file';
+import { ACCEPT_ATTRIBUTE, ACCEPTED_FORMATS_TEXT } from '../utils/check-clip-file';
 
 export function DropZone({ onFiles }: { onFiles: (files: File[]) => void }) {
   const [over, setOver] = useState(false);
@@ -24,7 +24,7 @@ export function DropZone({ onFiles }: { onFiles: (files: File[]) => void }) {
     >
       <UploadCloud aria-hidden="true" className="h-8 w-8 text-glacier-500" />
       <span className="mt-2 text-sm font-medium text-granite-900">Drop clips here or choose files</span>
-      <span className="mt-1 text-xs text-granite-600">Several at once; MP4, MOV, M4V, WebM, AVI or MKV.</span>
+      <span className="mt-1 text-xs text-granite-600">Several at once; {ACCEPTED_FORMATS_TEXT}.</span>
       <input
         type="file"
         multiple

@@ -35,7 +35,7 @@ export function UploadWorkspace({
     <div className="space-y-5">
       <SelectField
         label="Training session"
-        className="max-w-md"
+        className="max-w-xl"
         value={sessionId}
         disabled={queue.busy}
         hint={queue.busy ? 'Change the session once the running uploads finish.' : undefined}

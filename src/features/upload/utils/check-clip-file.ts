@@ -3,7 +3,17 @@ import { formatBytes } from '@/lib/format';
 
 export const ACCEPT_ATTRIBUTE = ['video/*', ...ACCEPTED_CLIP_EXTENSIONS].join(',');
 
-const extensionList = ACCEPTED_CLIP_EXTENSIONS.map((ext) => ext.slice(1).toUpperCase()).join(', ');
+const FORMAT_NAMES: Record<(typeof ACCEPTED_CLIP_EXTENSIONS)[number], string> = {
+  '.mp4': 'MP4',
+  '.mov': 'MOV',
+  '.m4v': 'M4V',
+  '.webm': 'WebM',
+  '.avi': 'AVI',
+  '.mkv': 'MKV',
+};
+const names = ACCEPTED_CLIP_EXTENSIONS.map((ext) => FORMAT_NAMES[ext]);
+/** "MP4, MOV, M4V, WebM, AVI or MKV" */
+export const ACCEPTED_FORMATS_TEXT = `${names.slice(0, -1).join(', ')} or ${names[names.length - 1]}`;
 
 function extensionOf(name: string): string {
   const dot = name.lastIndexOf('.');
@@ -23,7 +33,7 @@ export function checkClipFile(
   const knownExtension = (ACCEPTED_CLIP_EXTENSIONS as readonly string[]).includes(extension);
   const mediaKind = file.type.split('/')[0];
   if (!knownExtension || (file.type && mediaKind !== 'video' && file.type !== 'application/octet-stream')) {
-    return `${file.name} is not a video clip. Stanceline takes ${extensionList} files.`;
+    return `${file.name} is not a video clip. Stanceline takes ${ACCEPTED_FORMATS_TEXT} files.`;
   }
   if (file.size === 0) return `${file.name} is empty (0 bytes). Copy the clip from the camera again.`;
   if (file.size > maxBytes) {
