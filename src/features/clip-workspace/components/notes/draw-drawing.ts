@@ -1,10 +1,4 @@
-import {
-  angleArc,
-  angleLabelPosition,
-  arrowHead,
-  type Drawing,
-  type VideoPoint,
-} from './drawing-geometry';
+import { angleArc, angleLabelPosition, arrowHead, type Drawing, type VideoPoint } from './drawing-geometry';
 
 /** Colours a coach can draw with: strong enough to read on sunlit snow and on dark trees. */
 export const DRAWING_COLORS = [
@@ -86,7 +80,11 @@ export function drawDrawing(ctx: CanvasRenderingContext2D, drawing: Drawing, opt
       ctx.lineTo(v[0], v[1]);
       ctx.lineTo(b[0], b[1]);
     });
-    const radius = Math.min(28 * unit, Math.hypot(a[0] - v[0], a[1] - v[1]), Math.hypot(b[0] - v[0], b[1] - v[1]));
+    const radius = Math.min(
+      28 * unit,
+      Math.hypot(a[0] - v[0], a[1] - v[1]),
+      Math.hypot(b[0] - v[0], b[1] - v[1]),
+    );
     if (radius > 2) {
       const arc = angleArc(a, v, b);
       outlined(ctx, 2 * unit, ANGLE_TOOL_COLOR, () => ctx.arc(v[0], v[1], radius, arc.start, arc.end));

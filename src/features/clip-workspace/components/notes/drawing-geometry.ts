@@ -62,7 +62,10 @@ export function arrowHead(
   if (len === 0) return null;
   const back = Math.atan2(dy, dx);
   const spread = (spreadDeg * Math.PI) / 180;
-  const barb = (angle: number): VideoPoint => [to[0] + length * Math.cos(angle), to[1] + length * Math.sin(angle)];
+  const barb = (angle: number): VideoPoint => [
+    to[0] + length * Math.cos(angle),
+    to[1] + length * Math.sin(angle),
+  ];
   return [barb(back - spread), barb(back + spread)];
 }
 
@@ -80,7 +83,12 @@ export function angleArc(a: VideoPoint, vertex: VideoPoint, b: VideoPoint): { st
 }
 
 /** Where the degrees label of an angle goes: along the bisector, `offset` pixels out from the vertex. */
-export function angleLabelPosition(a: VideoPoint, vertex: VideoPoint, b: VideoPoint, offset: number): VideoPoint {
+export function angleLabelPosition(
+  a: VideoPoint,
+  vertex: VideoPoint,
+  b: VideoPoint,
+  offset: number,
+): VideoPoint {
   const { start, end } = angleArc(a, vertex, b);
   const mid = (start + end) / 2;
   return [vertex[0] + offset * Math.cos(mid), vertex[1] + offset * Math.sin(mid)];
