@@ -5,8 +5,9 @@ import type { PoseModelName } from '@shared/keypoints';
 export const clipWorkspaceKeys = {
   all: ['clip-workspace'] as const,
   clip: (clipId: string) => [...clipWorkspaceKeys.all, 'clip', clipId] as const,
-  frames: (clipId: string, model: PoseModelName) =>
-    [...clipWorkspaceKeys.clip(clipId), 'frames', model] as const,
+  /** Every stored analysis of a clip, whatever the model (prefix for invalidation). */
+  framesAll: (clipId: string) => [...clipWorkspaceKeys.clip(clipId), 'frames'] as const,
+  frames: (clipId: string, model: PoseModelName) => [...clipWorkspaceKeys.framesAll(clipId), model] as const,
   notes: (clipId: string) => [...clipWorkspaceKeys.clip(clipId), 'notes'] as const,
   bands: (ageGroupId: string | null) => [...clipWorkspaceKeys.all, 'bands', ageGroupId ?? 'none'] as const,
 };
