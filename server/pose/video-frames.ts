@@ -199,7 +199,7 @@ export async function* decodeVideoFrames(path: string, options: DecodeOptions): 
     for await (const chunk of child.stdout as AsyncIterable<Buffer>) {
       buffered.push(chunk);
       bufferedBytes += chunk.length;
-      for (;;) {
+      while (bufferedBytes > 0) {
         const info = await infoFor(k);
         if (!info) throw new Error('ffmpeg sent frame data without frame information');
         const size = info.out.width * info.out.height * 3;
