@@ -23,6 +23,8 @@ export interface RequestOptions {
   query?: Query;
   body?: unknown;
   signal?: AbortSignal;
+  /** 'blob' for downloads (WebVTT, CSV) that must carry the bearer token. */
+  responseType?: 'json' | 'blob';
 }
 
 export interface UploadOptions {
@@ -166,6 +168,7 @@ async function request<T>(
     if (options.signal?.aborted) throw err;
     throw networkError();
   }
+  if (res.ok && options.responseType === 'blob') return (await res.blob()) as T;
   const text = await res.text();
   if (res.ok) return (text ? JSON.parse(text) : undefined) as T;
   const error = errorFromBody(res.status, text);
@@ -231,6 +234,8 @@ export const api = {
   patch: <T>(path: string, body?: unknown, options?: RequestOptions) =>
     request<T>('PATCH', path, { ...options, body }),
   delete: <T>(path: string, options?: RequestOptions) => request<T>('DELETE', path, options),
+  getBlob: (path: string, options?: RequestOptions) =>
+    request<Blob>('GET', path, { ...options, responseType: 'blob' }),
   upload,
 };
 
