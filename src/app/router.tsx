@@ -1,4 +1,5 @@
 import { createBrowserRouter, type RouteObject } from 'react-router-dom';
+import { PageSpinner } from '@/components/ui/spinner';
 import { paths } from '@/config/paths';
 import type { Capability } from '@/lib/permissions';
 import { RequireAuth, RequireCapability } from './guards';
@@ -13,6 +14,8 @@ function guarded(path: string, capability: Capability, lazy: RouteObject['lazy']
 export const routes: RouteObject[] = [
   {
     errorElement: <RouteError />,
+    // Shown while the first page's code loads.
+    hydrateFallbackElement: <PageSpinner label="Opening Stanceline" />,
     children: [
       {
         path: paths.login.path,

@@ -1,7 +1,8 @@
-const sizeUnits = ['byte', 'kilobyte', 'megabyte', 'gigabyte'] as const;
+const sizeUnits = ['byte', 'kilobyte', 'megabyte', 'gigabyte', 'terabyte'] as const;
 
 /** Decimal units (1 kB = 1000 bytes), as phones and file browsers show clip sizes. */
 export function formatBytes(bytes: number): string {
+  if (bytes < 1000) return `${bytes} B`;
   let value = bytes;
   let unit = 0;
   while (value >= 1000 && unit < sizeUnits.length - 1) {
@@ -12,7 +13,7 @@ export function formatBytes(bytes: number): string {
     style: 'unit',
     unit: sizeUnits[unit],
     unitDisplay: 'short',
-    maximumFractionDigits: unit === 0 ? 0 : 1,
+    maximumFractionDigits: 1,
   }).format(value);
 }
 

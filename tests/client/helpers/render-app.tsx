@@ -1,0 +1,29 @@
+import { render } from '@testing-library/react';
+import { createMemoryRouter, RouterProvider } from 'react-router-dom';
+import { setupServer } from 'msw/node';
+import { AppProvider } from '@/app/provider';
+import { routes } from '@/app/router';
+import { authSession, configureApiClient } from '@/lib/api-client';
+
+/** happy-dom's page origin; the API client sends requests here and msw answers them. */
+export const ORIGIN = 'http://localhost:3000';
+
+export function createApiMock() {
+  return setupServer();
+}
+
+/** The whole app (providers, router, guards) at one URL, with a fresh query cache. */
+export function renderApp(path: string) {
+  configureApiClient({ baseUrl: ORIGIN });
+  const router = createMemoryRouter(routes, { initialEntries: [path] });
+  const view = render(
+    <AppProvider>
+      <RouterProvider router={router} />
+    </AppProvider>,
+  );
+  return { ...view, router };
+}
+
+export function resetSession() {
+  authSession.end('signed-out');
+}

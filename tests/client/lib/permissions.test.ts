@@ -1,0 +1,39 @@
+import { describe, expect, it } from 'vitest';
+import { ROLES } from '@shared/schemas/auth.schema';
+import { can, landingPathFor, navFor } from '@/lib/permissions';
+
+// Expected sections per role: the role table in PRODUCT.md as the foundation issue spells it out for the
+// navigation (head coach: all; coach: Athletes, Sessions, Upload; athlete and guardian: Home; analyst:
+// Athletes, Sessions, read-only).
+const NAV: Record<(typeof ROLES)[number], string[]> = {
+  head_coach: ['Home', 'Athletes', 'Sessions', 'Upload', 'Club'],
+  coach: ['Athletes', 'Sessions', 'Upload'],
+  analyst: ['Athletes', 'Sessions'],
+  athlete: ['Home'],
+  guardian: ['Home'],
+};
+
+describe('role navigation', () => {
+  it.each(ROLES)('%s sees exactly its sections', (role) => {
+    expect(navFor(role).map((item) => item.label)).toEqual(NAV[role]);
+  });
+
+  it('lands each role on its first section', () => {
+    expect(landingPathFor('head_coach')).toBe('/');
+    expect(landingPathFor('coach')).toBe('/athletes');
+    expect(landingPathFor('analyst')).toBe('/athletes');
+    expect(landingPathFor('athlete')).toBe('/');
+    expect(landingPathFor('guardian')).toBe('/');
+  });
+
+  it('keeps analysts, athletes and guardians from creating anything', () => {
+    for (const role of ['analyst', 'athlete', 'guardian'] as const) {
+      expect(can(role, 'athletes.create')).toBe(false);
+      expect(can(role, 'sessions.create')).toBe(false);
+      expect(can(role, 'clips.upload')).toBe(false);
+      expect(can(role, 'consent.record')).toBe(false);
+    }
+    expect(can('coach', 'club.manage')).toBe(false);
+    expect(can('head_coach', 'club.manage')).toBe(true);
+  });
+});
