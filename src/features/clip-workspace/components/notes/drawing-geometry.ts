@@ -1,28 +1,9 @@
 import { interiorAngle } from '@shared/geometry';
+import type { NoteDrawing, NotePoint } from '../../api/get-clip-notes';
 
 /** A point in video pixel space (x right, y down), the space every stored drawing uses. */
-export type VideoPoint = [number, number];
-
-export interface DrawingStroke {
-  points: VideoPoint[];
-  color: string;
-}
-export interface DrawingArrow {
-  from: VideoPoint;
-  to: VideoPoint;
-  color: string;
-}
-export interface DrawingAngle {
-  a: VideoPoint;
-  vertex: VideoPoint;
-  b: VideoPoint;
-  degrees: number;
-}
-export interface Drawing {
-  strokes: DrawingStroke[];
-  arrows: DrawingArrow[];
-  angles: DrawingAngle[];
-}
+export type VideoPoint = NotePoint;
+export type Drawing = NoteDrawing;
 
 export type DrawingTool = 'freehand' | 'arrow' | 'angle';
 
