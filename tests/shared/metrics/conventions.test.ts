@@ -107,3 +107,28 @@ describe("segment angles against the vertical (Winter's convention, subject movi
     expect(sideMetrics(mirrored).shinAngleLeft).toBeCloseTo(30, 9);
   });
 });
+
+describe('shin–torso mismatch (coaching rule "back parallel to the shins", common practice; METRICS.md)', () => {
+  it('is 0 with the trunk parallel to the shin and positive when folded at the waist', () => {
+    const pose = leg(30, 60);
+    const hip = pose.left_hip!;
+    pose.left_shoulder = [hip[0] + 30, hip[1] + 30 * S3]; // trunk 30° forward, shin 30° forward
+    expect(sideMetrics(pose).shinTorsoMismatch).toBeCloseTo(0, 9);
+    pose.left_shoulder = [hip[0] + 30 * S3, hip[1] + 30]; // trunk 60° forward
+    expect(sideMetrics(pose).shinTorsoMismatch).toBeCloseTo(30, 9);
+  });
+});
+
+describe('fore-aft foot offset (METRICS.md: + left foot ahead, in shin lengths)', () => {
+  const feet = (leftAhead: number): Pose => ({
+    ...leg(30, 60),
+    right_ankle: [-leftAhead, 0],
+    right_knee: [-leftAhead + 20, 20 * S3],
+  });
+
+  it('is 0 with the feet level and one shin length with the left foot a shin ahead', () => {
+    expect(sideMetrics(feet(0)).foreAftOffset).toBeCloseTo(0, 9);
+    expect(sideMetrics(feet(40)).foreAftOffset).toBeCloseTo(1, 9);
+    expect(sideMetrics(feet(-20)).foreAftOffset).toBeCloseTo(-0.5, 9);
+  });
+});
