@@ -147,4 +147,15 @@ describe('analyze on bad input', () => {
       expect(r.stderr).toContain('images and videos need the pose pipeline');
     },
   );
+
+  it.runIf(existsSync(`${root}server/pose/analyze-media.ts`))(
+    "passes the pose pipeline's own input errors on clearly",
+    () => {
+      const r = analyze('--json', 'fixtures/keypoints/no-such-clip.mp4');
+      expect(r.code).toBe(1);
+      expect(r.stdout).toBe('');
+      expect(r.stderr).toMatch(/^analyze: fixtures\/keypoints\/no-such-clip\.mp4: \S/);
+      expect(r.stderr).not.toMatch(/\n\s+at /);
+    },
+  );
 });
