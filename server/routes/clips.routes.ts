@@ -25,14 +25,14 @@ function pickRange(req: Request, size: number): ObjectRange | undefined | 'unsat
 async function sendMedia(ctx: RouteContext, req: Request, res: Response, target: MediaTarget): Promise<void> {
   const size = target.sizeBytes;
   res.setHeader('Accept-Ranges', 'bytes');
-  res.setHeader('Content-Type', target.contentType);
-  res.setHeader('Cache-Control', 'private, max-age=3600');
-  res.setHeader('ETag', `"${target.clip.sha256}"`);
   const range = pickRange(req, size);
   if (range === 'unsatisfiable') {
     res.setHeader('Content-Range', `bytes */${size}`);
     throw new HttpError(416, 'range_not_satisfiable', `The requested range is outside the ${size}-byte file`);
   }
+  res.setHeader('Content-Type', target.contentType);
+  res.setHeader('Cache-Control', 'private, max-age=3600');
+  res.setHeader('ETag', `"${target.clip.sha256}"`);
   if (range) {
     res.status(206);
     res.setHeader('Content-Range', `bytes ${range.start}-${range.end}/${size}`);

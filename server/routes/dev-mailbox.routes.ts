@@ -1,4 +1,5 @@
-import { Router } from 'express';
+import { Router, type RequestHandler } from 'express';
+import { HttpError } from '../errors';
 import type { Mailbox } from '../mail/embedded-smtp';
 
 function escapeHtml(text: string): string {
@@ -6,8 +7,17 @@ function escapeHtml(text: string): string {
 }
 
 /** Only mounted while the embedded SMTP fake is in use: a small inbox page of every message sent. */
+const LOOPBACK = new Set(['127.0.0.1', '::1', '::ffff:127.0.0.1']);
+
+// The inbox holds invitation links, which are sign-ups: only the machine itself may read it.
+const loopbackOnly: RequestHandler = (req, _res, next) => {
+  if (LOOPBACK.has(req.socket.remoteAddress ?? '')) return next();
+  next(new HttpError(404, 'not_found', 'Not found'));
+};
+
 export function devMailboxRoutes(mailbox: Mailbox): Router {
   const router = Router();
+  router.use('/dev', loopbackOnly);
 
   router.get('/dev/mailbox.json', async (_req, res) => {
     res.json({ messages: await mailbox.messages() });

@@ -107,28 +107,31 @@ export class AuthService {
   /** Rotates the refresh token: the presented one is revoked, a new one is issued. */
   async refresh(refreshToken: string | undefined): Promise<SignedIn> {
     if (!refreshToken) throw unauthorized('no_refresh_token', 'Sign in again: no session cookie was sent');
-    return this.dataSource.transaction(async (manager) => {
+    // Revocations must commit even when the answer is a refusal, so refusals are thrown after the transaction.
+    const outcome = await this.dataSource.transaction(async (manager): Promise<SignedIn | HttpError> => {
       const repo = new AuthRepository(manager);
       const row = await repo.findRefreshToken(hashSecretToken(refreshToken));
       const now = this.clock.now();
-      if (!row) throw unauthorized('invalid_refresh_token', 'Sign in again: the session is not known');
+      if (!row) return unauthorized('invalid_refresh_token', 'Sign in again: the session is not known');
       if (row.revokedAt) {
         // Two tabs refreshing at once present the same token within moments; that is not a replay.
         // Later reuse means the token leaked: end every session of the user.
         if (now.getTime() - row.revokedAt.getTime() > REUSE_GRACE_MS) {
           await repo.revokeAllRefreshTokens(row.userId, now);
         }
-        throw new HttpError(401, 'invalid_refresh_token', 'Sign in again: the session has ended');
+        return unauthorized('invalid_refresh_token', 'Sign in again: the session has ended');
       }
       if (row.expiresAt.getTime() <= now.getTime()) {
         await repo.revokeRefreshToken(row.id, now);
-        throw unauthorized('refresh_expired', 'Sign in again: the session expired');
+        return unauthorized('refresh_expired', 'Sign in again: the session expired');
       }
       const user = await new UserRepository(manager).findById(row.userId);
-      if (!user) throw unauthorized('invalid_refresh_token', 'Sign in again: the account no longer exists');
+      if (!user) return unauthorized('invalid_refresh_token', 'Sign in again: the account no longer exists');
       await repo.revokeRefreshToken(row.id, now);
       return this.issue(manager, user);
     });
+    if (outcome instanceof HttpError) throw outcome;
+    return outcome;
   }
 
   async logout(refreshToken: string | undefined): Promise<void> {

@@ -10,8 +10,18 @@ export const DISCIPLINE_LABELS: Record<(typeof DISCIPLINES)[number], string> = {
 };
 export const SNOW_CONDITIONS = ['hard', 'packed', 'soft', 'icy', 'slush', 'powder'] as const;
 
+/** True for a real day: "2026-02-30" matches the pattern but is not one. */
+export function isCalendarDate(text: string): boolean {
+  const [y, m, d] = text.split('-').map(Number);
+  const date = new Date(Date.UTC(y, m - 1, d));
+  return date.getUTCFullYear() === y && date.getUTCMonth() === m - 1 && date.getUTCDate() === d;
+}
+
 export const createSessionSchema = z.object({
-  date: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2026-12-14'),
+  date: z
+    .string()
+    .regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2026-12-14')
+    .refine(isCalendarDate, 'That day does not exist'),
   venue: z.string().trim().min(1, 'Enter the venue').max(120),
   discipline: z.enum(DISCIPLINES),
   snow: z.enum(SNOW_CONDITIONS),

@@ -1,0 +1,392 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createTestServer, type DemoRole, type TestServer } from '../helpers/server-harness';
+import { listRoutes } from '../helpers/route-list';
+import { videoFixture, type VideoFixture } from '../helpers/video-fixture';
+
+// The role table of PRODUCT.md ("People and roles") as expected HTTP statuses, one row per route and
+// target. 404 where the record is outside the caller's reach (403 would confirm it exists), 403 where
+// the caller may see but not change, 401 without a token.
+
+interface Ids {
+  elsie: string; // the demo athlete, U14, consent recorded; child of the demo guardian
+  kit: string; // her U14 teammate
+  signe: string; // U16: not coached by coach@
+  noor: string; // U12, no consent yet
+  u14: string;
+  u16: string;
+  s1: string; // holds clips of Elsie and Signe
+  s2: string; // holds a clip of Kit only
+  clipElsie: string;
+  clipKit: string;
+  clipSigne: string;
+}
+
+type Expect = Record<DemoRole, number>;
+
+interface Row {
+  route: string;
+  target: string;
+  path: (ids: Ids) => string;
+  body?: (ids: Ids, role: DemoRole) => object;
+  upload?: (ids: Ids) => Record<string, string>;
+  range?: boolean;
+  expect: Expect;
+}
+
+const all = (status: number): Expect => ({
+  head: status,
+  coach: status,
+  analyst: status,
+  athlete: status,
+  guardian: status,
+});
+const staffOnly = (ok: number): Expect => ({
+  head: ok,
+  coach: ok,
+  analyst: 403,
+  athlete: 403,
+  guardian: 403,
+});
+
+let seq = 0;
+const ROWS: Row[] = [
+  { route: 'GET /api/me', target: 'self', path: () => '/api/me', expect: all(200) },
+  { route: 'GET /api/age-groups', target: 'club', path: () => '/api/age-groups', expect: all(200) },
+  { route: 'GET /api/athletes', target: 'list (scoped)', path: () => '/api/athletes', expect: all(200) },
+  {
+    route: 'POST /api/athletes',
+    target: 'into U14 (coached)',
+    path: () => '/api/athletes',
+    body: (ids) => ({
+      firstName: 'Pia',
+      lastName: `Newcomer${(seq += 1)}`,
+      birthYear: 2013,
+      ageGroupId: ids.u14,
+    }),
+    expect: staffOnly(201),
+  },
+  {
+    route: 'POST /api/athletes',
+    target: 'into U16 (not coached)',
+    path: () => '/api/athletes',
+    body: (ids) => ({
+      firstName: 'Ola',
+      lastName: `Newcomer${(seq += 1)}`,
+      birthYear: 2011,
+      ageGroupId: ids.u16,
+    }),
+    expect: { ...staffOnly(201), coach: 403 },
+  },
+  {
+    route: 'GET /api/athletes/:id',
+    target: 'own / own child',
+    path: (i) => `/api/athletes/${i.elsie}`,
+    expect: all(200),
+  },
+  {
+    route: 'GET /api/athletes/:id',
+    target: 'teammate',
+    path: (i) => `/api/athletes/${i.kit}`,
+    expect: { head: 200, coach: 200, analyst: 200, athlete: 404, guardian: 404 },
+  },
+  {
+    route: 'GET /api/athletes/:id',
+    target: 'other group',
+    path: (i) => `/api/athletes/${i.signe}`,
+    expect: { head: 200, coach: 404, analyst: 200, athlete: 404, guardian: 404 },
+  },
+  {
+    route: 'GET /api/athletes/:id/clips',
+    target: 'own / own child',
+    path: (i) => `/api/athletes/${i.elsie}/clips`,
+    expect: all(200),
+  },
+  {
+    route: 'GET /api/athletes/:id/clips',
+    target: 'teammate',
+    path: (i) => `/api/athletes/${i.kit}/clips`,
+    expect: { head: 200, coach: 200, analyst: 200, athlete: 404, guardian: 404 },
+  },
+  {
+    route: 'POST /api/athletes/:id/consent',
+    target: 'U12 athlete (coached)',
+    path: (i) => `/api/athletes/${i.noor}/consent`,
+    body: () => ({ guardianName: 'Hal Dunmore', method: 'in_person' }),
+    expect: { head: 200, coach: 200, analyst: 403, athlete: 403, guardian: 403 },
+  },
+  {
+    route: 'POST /api/athletes/:id/consent',
+    target: 'own record',
+    path: (i) => `/api/athletes/${i.elsie}/consent`,
+    body: () => ({ guardianName: 'Ruth Marrow', method: 'email' }),
+    expect: { head: 200, coach: 200, analyst: 403, athlete: 403, guardian: 403 },
+  },
+  {
+    route: 'POST /api/athletes/:id/consent',
+    target: 'other group',
+    path: (i) => `/api/athletes/${i.signe}/consent`,
+    body: () => ({ guardianName: 'Rafe Ivers', method: 'email' }),
+    expect: { head: 200, coach: 404, analyst: 403, athlete: 403, guardian: 403 },
+  },
+  { route: 'GET /api/sessions', target: 'list (scoped)', path: () => '/api/sessions', expect: all(200) },
+  {
+    route: 'POST /api/sessions',
+    target: 'new session',
+    path: () => '/api/sessions',
+    body: () => ({ date: '2026-12-20', venue: 'Pinebrook Slope', discipline: 'slalom', snow: 'hard' }),
+    expect: staffOnly(201),
+  },
+  {
+    route: 'GET /api/sessions/:id',
+    target: 'with own clip',
+    path: (i) => `/api/sessions/${i.s1}`,
+    expect: all(200),
+  },
+  {
+    route: 'GET /api/sessions/:id',
+    target: 'only teammate clips',
+    path: (i) => `/api/sessions/${i.s2}`,
+    expect: { head: 200, coach: 200, analyst: 200, athlete: 404, guardian: 404 },
+  },
+  { route: 'GET /api/clips', target: 'list (scoped)', path: () => '/api/clips', expect: all(200) },
+  {
+    route: 'POST /api/clips',
+    target: 'clip of own athlete',
+    path: () => '/api/clips',
+    upload: (i) => ({ sessionId: i.s1, athleteIds: i.elsie, view: 'side' }),
+    expect: staffOnly(201),
+  },
+  {
+    route: 'POST /api/clips',
+    target: 'clip of other group',
+    path: () => '/api/clips',
+    upload: (i) => ({ sessionId: i.s1, athleteIds: i.signe, view: 'side' }),
+    expect: { ...staffOnly(201), coach: 404 },
+  },
+  {
+    route: 'GET /api/clips/:id',
+    target: 'own clip',
+    path: (i) => `/api/clips/${i.clipElsie}`,
+    expect: all(200),
+  },
+  {
+    route: 'GET /api/clips/:id',
+    target: 'teammate clip',
+    path: (i) => `/api/clips/${i.clipKit}`,
+    expect: { head: 200, coach: 200, analyst: 200, athlete: 404, guardian: 404 },
+  },
+  {
+    route: 'GET /api/clips/:id',
+    target: 'other group clip',
+    path: (i) => `/api/clips/${i.clipSigne}`,
+    expect: { head: 200, coach: 404, analyst: 200, athlete: 404, guardian: 404 },
+  },
+  {
+    route: 'GET /api/clips/:id/media',
+    target: 'own clip',
+    path: (i) => `/api/clips/${i.clipElsie}/media`,
+    range: true,
+    expect: all(206),
+  },
+  {
+    route: 'GET /api/clips/:id/media',
+    target: 'teammate clip',
+    path: (i) => `/api/clips/${i.clipKit}/media`,
+    range: true,
+    expect: { head: 206, coach: 206, analyst: 206, athlete: 404, guardian: 404 },
+  },
+  {
+    route: 'GET /api/clips/:id/media',
+    target: 'other group clip',
+    path: (i) => `/api/clips/${i.clipSigne}/media`,
+    range: true,
+    expect: { head: 206, coach: 404, analyst: 206, athlete: 404, guardian: 404 },
+  },
+  {
+    route: 'POST /api/invitations',
+    target: 'guardian of a coached athlete',
+    path: () => '/api/invitations',
+    body: (i, role) => ({
+      email: `guardian-${role}-${(seq += 1)}@larchwood.example`,
+      role: 'guardian',
+      athleteId: i.kit,
+    }),
+    expect: staffOnly(201),
+  },
+  {
+    route: 'POST /api/invitations',
+    target: 'guardian of an athlete in another group',
+    path: () => '/api/invitations',
+    body: (i, role) => ({
+      email: `other-${role}-${(seq += 1)}@larchwood.example`,
+      role: 'guardian',
+      athleteId: i.signe,
+    }),
+    expect: { ...staffOnly(201), coach: 404 },
+  },
+  {
+    route: 'POST /api/invitations',
+    target: 'a new coach',
+    path: () => '/api/invitations',
+    body: (i, role) => ({
+      email: `coach-${role}-${(seq += 1)}@larchwood.example`,
+      role: 'coach',
+      ageGroupIds: [i.u16],
+    }),
+    expect: { ...staffOnly(201), coach: 403 },
+  },
+  {
+    route: 'GET /api/club/members',
+    target: 'club',
+    path: () => '/api/club/members',
+    expect: { head: 200, coach: 403, analyst: 403, athlete: 403, guardian: 403 },
+  },
+];
+
+/** Routes anyone may call; their behaviour is covered in auth and invitation tests. */
+const PUBLIC_ROUTES = [
+  'GET /api/health',
+  'POST /api/auth/login',
+  'POST /api/auth/refresh',
+  'POST /api/auth/logout',
+  'GET /api/invitations/:token',
+  'POST /api/invitations/accept',
+  'GET /dev/mailbox',
+  'GET /dev/mailbox.json',
+];
+
+const ROLES: DemoRole[] = ['head', 'coach', 'analyst', 'athlete', 'guardian'];
+
+let server: TestServer;
+let video: VideoFixture;
+let ids: Ids;
+
+beforeAll(async () => {
+  [server, video] = await Promise.all([createTestServer(), videoFixture('mp4')]);
+  const [s1, s2] = await server.sessionIds();
+  const base = {
+    elsie: await server.athleteId('Elsie'),
+    kit: await server.athleteId('Kit'),
+    signe: await server.athleteId('Signe'),
+    noor: await server.athleteId('Noor'),
+    u14: await server.ageGroupId('U14'),
+    u16: await server.ageGroupId('U16'),
+    s1,
+    s2,
+  };
+  const seedClip = async (sessionId: string, athleteId: string) => {
+    const res = await server.http
+      .post('/api/clips')
+      .set(await server.bearer('head'))
+      .field('sessionId', sessionId)
+      .field('athleteIds', athleteId)
+      .field('view', 'side')
+      .attach('file', video.path);
+    if (res.status !== 201) throw new Error(`seed clip: ${res.status} ${JSON.stringify(res.body)}`);
+    return res.body.clip.id as string;
+  };
+  ids = {
+    ...base,
+    clipElsie: await seedClip(s1, base.elsie),
+    clipKit: await seedClip(s2, base.kit),
+    clipSigne: await seedClip(s1, base.signe),
+  };
+});
+afterAll(async () => {
+  await server.close();
+});
+
+async function call(row: Row, auth: Record<string, string>, role: DemoRole) {
+  const method = row.route.split(' ')[0];
+  const url = row.path(ids);
+  if (method === 'GET') {
+    const req = server.http.get(url).set(auth);
+    return row.range ? req.set('Range', 'bytes=0-15') : req;
+  }
+  const req = server.http.post(url).set(auth);
+  if (row.upload) {
+    for (const [k, v] of Object.entries(row.upload(ids))) req.field(k, v);
+    return req.attach('file', video.path);
+  }
+  return req.send(row.body ? row.body(ids, role) : {});
+}
+
+describe('role x route matrix', () => {
+  it('covers every route the app registers', () => {
+    const covered = new Set([...ROWS.map((r) => r.route), ...PUBLIC_ROUTES]);
+    expect(listRoutes(server.app).filter((r) => !covered.has(r))).toEqual([]);
+  });
+
+  it('lets the analyst create nothing', () => {
+    const writes = ROWS.filter((r) => r.route.startsWith('POST'));
+    expect(writes.length).toBeGreaterThan(0);
+    for (const row of writes) expect(row.expect.analyst, row.route).toBe(403);
+  });
+
+  for (const row of ROWS) {
+    describe(`${row.route} (${row.target})`, () => {
+      it('401 without a token', async () => {
+        const res = await call(row, {}, 'head');
+        expect(res.status).toBe(401);
+      });
+      for (const role of ROLES) {
+        it(`${role} -> ${row.expect[role]}`, async () => {
+          const res = await call(row, await server.bearer(role), role);
+          expect(res.status, JSON.stringify(res.body)).toBe(row.expect[role]);
+          if (res.status >= 400) expect(typeof res.body.error.message).toBe('string');
+        });
+      }
+    });
+  }
+});
+
+describe('what each role sees in lists', () => {
+  const names = (body: { athletes: { firstName: string }[] }) => body.athletes.map((a) => a.firstName).sort();
+
+  it('athlete: only herself; guardian: her two children; coach: only coached groups', async () => {
+    const athlete = await server.http.get('/api/athletes').set(await server.bearer('athlete'));
+    expect(names(athlete.body)).toEqual(['Elsie']);
+    const guardian = await server.http.get('/api/athletes').set(await server.bearer('guardian'));
+    expect(names(guardian.body)).toEqual(['Elsie', 'Finn']);
+    const coach = await server.http.get('/api/athletes').set(await server.bearer('coach'));
+    const groups = new Set(coach.body.athletes.map((a: { ageGroup: { name: string } }) => a.ageGroup.name));
+    expect([...groups].sort()).toEqual(['U12', 'U14']);
+    const head = await server.http.get('/api/athletes').set(await server.bearer('head'));
+    expect(head.body.athletes.length).toBeGreaterThanOrEqual(14);
+  });
+
+  it('hides guardian e-mails from the analyst only', async () => {
+    const analyst = await server.http.get(`/api/athletes/${ids.elsie}`).set(await server.bearer('analyst'));
+    expect(analyst.body.athlete.guardians).toEqual([
+      { id: expect.any(String), name: 'Ruth Marrow', email: null },
+    ]);
+    const coach = await server.http.get(`/api/athletes/${ids.elsie}`).set(await server.bearer('coach'));
+    expect(coach.body.athlete.guardians[0].email).toBe('guardian@larchwood.example');
+  });
+
+  it('athlete and guardian see only clips and sessions of their own athletes', async () => {
+    for (const role of ['athlete', 'guardian'] as const) {
+      const clips = await server.http.get('/api/clips').set(await server.bearer(role));
+      const clipIds = clips.body.clips.map((c: { id: string }) => c.id);
+      expect(clipIds).toContain(ids.clipElsie);
+      expect(clipIds).not.toContain(ids.clipKit);
+      expect(clipIds).not.toContain(ids.clipSigne);
+      const sessions = await server.http.get('/api/sessions').set(await server.bearer(role));
+      expect(sessions.body.sessions.map((s: { id: string }) => s.id)).toEqual([ids.s1]);
+    }
+  });
+
+  it('coach reads every club session but counts only clips of coached athletes', async () => {
+    const res = await server.http.get('/api/sessions').set(await server.bearer('coach'));
+    const byId = new Map(
+      res.body.sessions.map((s: { id: string; clipCount: number }) => [s.id, s.clipCount]),
+    );
+    expect(byId.has(ids.s1) && byId.has(ids.s2)).toBe(true);
+    const head = await server.http.get('/api/sessions').set(await server.bearer('head'));
+    const headById = new Map(
+      head.body.sessions.map((s: { id: string; clipCount: number }) => [s.id, s.clipCount]),
+    );
+    // s1 holds Signe's clip (U16), which the coach does not count.
+    expect(Number(headById.get(ids.s1)) - Number(byId.get(ids.s1))).toBeGreaterThanOrEqual(1);
+  });
+});
