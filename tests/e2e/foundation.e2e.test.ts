@@ -24,6 +24,7 @@ const DEMO = {
 const TAGGED_ATHLETE = 'Elsie Marrow';
 const SIBLING = 'Finn Marrow';
 const CLIP_NAME = 'pattern-drill.mp4';
+const NEW_COACH = 'new.coach@larchwood.example';
 
 let app: StartedStanceline;
 let browser: Browser;
@@ -158,6 +159,39 @@ describe('foundation in a real browser', () => {
     await video.evaluate((el: HTMLVideoElement) => el.pause());
     await page.screenshot({ path: screenshotPath('foundation-04-clip'), fullPage: true });
     await context.close();
+  });
+
+  it('the head coach invites a coach who joins through the e-mailed link', async () => {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 860 } });
+    const page = await context.newPage();
+    await signIn(page, DEMO.head);
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Club' }).click();
+    const form = page.getByRole('form', { name: 'Invite a member' });
+    await form.getByLabel('Email').fill(NEW_COACH);
+    await form.getByLabel('Role').selectOption('coach');
+    await form.getByLabel('U10').check();
+    await form.getByRole('button', { name: 'Send invitation' }).click();
+    await page.getByText(`Invitation sent to ${NEW_COACH}.`).waitFor();
+    await context.close();
+
+    const mail = (await app.mailbox.messages()).find((m) => m.to.includes(NEW_COACH));
+    const link = /https?:\/\/\S+\/invite\/[\w-]+/.exec(mail?.text ?? '')?.[0];
+    expect(link, 'invitation e-mail with a link').toBeTruthy();
+
+    const invited = await (await browser.newContext({ viewport: { width: 1280, height: 860 } })).newPage();
+    await invited.goto(link!);
+    await invited.getByText('Larchwood Valley Ski Club').waitFor();
+    expect(await invited.getByLabel('Email').inputValue()).toBe(NEW_COACH);
+    await invited.getByLabel('Your name').fill('Nia Brookfield');
+    await invited.getByLabel('Choose a password').fill('short');
+    await invited.getByRole('button', { name: 'Join the club' }).click();
+    await invited.getByText('Use at least 10 characters').waitFor();
+    await invited.getByLabel('Choose a password').fill('slalom-gates-in-fog');
+    await invited.getByRole('button', { name: 'Join the club' }).click();
+    await expect.poll(() => navNames(invited)).toEqual(['Athletes', 'Sessions', 'Upload']);
+    await invited.getByText('Nia Brookfield').waitFor();
+    await invited.screenshot({ path: screenshotPath('foundation-05-invited-coach'), fullPage: true });
+    await invited.context().close();
   });
 
   it('each demo role sees only its own sections', async () => {

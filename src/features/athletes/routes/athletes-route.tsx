@@ -44,8 +44,8 @@ export function AthletesRoute() {
   const ageGroups = useAgeGroups();
   const athletes = useAthletes({ search: search || undefined, ageGroupId: ageGroupId || undefined });
   const canCreate = can(user.role, 'athletes.create');
-  // A coach adds athletes only to the groups they coach; the server checks the same rule.
-  const creatableGroups = (ageGroups.data ?? []).filter(
+  // A coach sees and adds athletes only in the groups they coach; the server applies the same rule.
+  const ownGroups = (ageGroups.data ?? []).filter(
     (group) => user.role !== 'coach' || user.coachedAgeGroupIds.includes(group.id),
   );
   const filtered = Boolean(search || ageGroupId);
@@ -87,7 +87,7 @@ export function AthletesRoute() {
             { replace: true },
           )
         }
-        ageGroups={ageGroups.data ?? []}
+        ageGroups={ownGroups}
       />
       {athletes.isPending ? <PageSpinner label="Loading athletes" /> : null}
       {athletes.isError ? (
@@ -108,13 +108,13 @@ export function AthletesRoute() {
       ) : null}
       {canCreate ? (
         <Dialog open={creating} onClose={() => setCreating(false)} title="Add athlete">
-          {creatableGroups.length === 0 ? (
+          {ownGroups.length === 0 ? (
             <p className="text-sm text-granite-600">
               You do not coach any age group yet. Ask your head coach to assign you one.
             </p>
           ) : (
             <CreateAthleteForm
-              ageGroups={creatableGroups}
+              ageGroups={ownGroups}
               onCancel={() => setCreating(false)}
               onCreated={(athlete) => {
                 setCreating(false);
