@@ -240,6 +240,10 @@ describe('foundation in a real browser', () => {
         await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Club' }).click();
         await page.getByRole('heading', { name: 'Club', level: 1 }).waitFor();
         await page.getByRole('form', { name: 'Invite a member' }).waitFor();
+        // Demo staff from server/seed/demo-club.ts: the coach of U12 and U14.
+        const members = page.getByRole('table', { name: 'Club members' });
+        await members.getByRole('row', { name: /Tomas Reinholt.*Coach.*U12, U14/ }).waitFor();
+        await page.screenshot({ path: screenshotPath('foundation-06-club'), fullPage: true });
       }
 
       await page.getByRole('button', { name: 'Sign out' }).click();

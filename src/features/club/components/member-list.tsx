@@ -1,11 +1,14 @@
+import type { Role } from '@shared/schemas/auth.schema';
 import type { ClubMemberListResponse } from '@shared/schemas/club.schema';
 import { Badge } from '@/components/ui/badge';
 import { formatDateTime } from '@/lib/format';
 import { ROLE_LABELS } from '@/lib/permissions';
 
+const ROLE_ORDER: Role[] = ['head_coach', 'coach', 'analyst', 'athlete', 'guardian'];
+
 export function MemberList({ data }: { data: ClubMemberListResponse }) {
   const members = [...data.members].sort(
-    (a, b) => a.role.localeCompare(b.role) || a.name.localeCompare(b.name),
+    (a, b) => ROLE_ORDER.indexOf(a.role) - ROLE_ORDER.indexOf(b.role) || a.name.localeCompare(b.name),
   );
   return (
     <div className="space-y-6">
