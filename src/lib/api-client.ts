@@ -233,6 +233,8 @@ export const api = {
     request<T>('POST', path, { ...options, body }),
   patch: <T>(path: string, body?: unknown, options?: RequestOptions) =>
     request<T>('PATCH', path, { ...options, body }),
+  put: <T>(path: string, body?: unknown, options?: RequestOptions) =>
+    request<T>('PUT', path, { ...options, body }),
   delete: <T>(path: string, options?: RequestOptions) => request<T>('DELETE', path, options),
   getBlob: (path: string, options?: RequestOptions) =>
     request<Blob>('GET', path, { ...options, responseType: 'blob' }),
