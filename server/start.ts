@@ -61,6 +61,8 @@ export async function startStanceline(opts: StartOptions = {}): Promise<StartedS
       const s = app.listen(config.port, config.host, () => resolve(s));
       s.once('error', reject);
     });
+    // Node's default 5-minute request timeout would cut off long clip uploads on slow rink-side Wi-Fi.
+    server.requestTimeout = 0;
     const port = (server.address() as AddressInfo).port;
     const url = `http://localhost:${port}`;
     publicUrl = config.publicUrl ?? url;

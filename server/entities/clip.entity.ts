@@ -1,4 +1,5 @@
 import { EntitySchema } from 'typeorm';
+import type { PoseModelName } from '@shared/keypoints';
 import type { ClipStatus, CLIP_VIEWS } from '@shared/schemas/clip.schema';
 import { foreignKey, idColumn, nullableUuidColumn, timestampColumn, uuidColumn } from './columns';
 
@@ -19,6 +20,12 @@ export interface Clip {
   storageKey: string;
   proxyKey: string | null;
   posterKey: string | null;
+  thumbnailsKey: string | null;
+  /** Layout of the thumbnail sprite (see ThumbnailStripDto), null until it is made. */
+  thumbnails: ThumbnailLayout | null;
+  /** Rotation of the original in degrees (display matrix); the playable copy has it applied. */
+  rotation: number;
+  defaultModel: PoseModelName;
   codec: string | null;
   width: number | null;
   height: number | null;
@@ -26,6 +33,14 @@ export interface Clip {
   frameCount: number | null;
   durationMs: number | null;
   createdAt: Date;
+}
+
+export interface ThumbnailLayout {
+  count: number;
+  tileWidth: number;
+  tileHeight: number;
+  columns: number;
+  intervalMs: number;
 }
 
 export const ClipEntity = new EntitySchema<Clip>({
@@ -46,6 +61,10 @@ export const ClipEntity = new EntitySchema<Clip>({
     storageKey: { type: 'varchar', length: 255 },
     proxyKey: { type: 'varchar', length: 255, nullable: true },
     posterKey: { type: 'varchar', length: 255, nullable: true },
+    thumbnailsKey: { type: 'varchar', length: 255, nullable: true },
+    thumbnails: { type: 'simple-json', nullable: true },
+    rotation: { type: 'integer', default: 0 },
+    defaultModel: { type: 'varchar', length: 20, default: 'lightning' },
     codec: { type: 'varchar', length: 40, nullable: true },
     width: { type: 'integer', nullable: true },
     height: { type: 'integer', nullable: true },
@@ -62,5 +81,6 @@ export const ClipEntity = new EntitySchema<Clip>({
   indices: [
     { name: 'IDX_clip_session', columns: ['sessionId'] },
     { name: 'IDX_clip_sha256', columns: ['sha256'] },
+    { name: 'IDX_clip_status', columns: ['status'] },
   ],
 });

@@ -12,6 +12,8 @@ export interface FrameResult {
   keypoints: Keypoint[];
   /** Metric name -> value (units per METRICS.md); recomputed on the server from keypoints. */
   metrics: Record<string, number | null>;
+  /** Metric name -> why it is null ("missing: left_knee", "wrong view"). */
+  reasons: Record<string, string>;
   /** True when a coach moved keypoints by hand. */
   corrected: boolean;
   createdAt: Date;
@@ -29,6 +31,7 @@ export const FrameResultEntity = new EntitySchema<FrameResult>({
     model: { type: 'varchar', length: 20 },
     keypoints: { type: 'simple-json' },
     metrics: { type: 'simple-json' },
+    reasons: { type: 'simple-json', default: '{}' },
     corrected: { type: 'boolean', default: false },
     createdAt: timestampColumn,
     updatedAt: timestampColumn,

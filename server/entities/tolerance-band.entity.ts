@@ -8,9 +8,13 @@ export interface ToleranceBand {
   clubId: string;
   ageGroupId: string;
   metric: string;
-  view: View;
+  /** The view the metric is measured in; "both" for metrics of either view. */
+  view: View | 'both';
   min: number | null;
   max: number | null;
+  target: number | null;
+  /** "common practice" for seeded rules of thumb, "club" once a head coach sets it. */
+  source: 'common practice' | 'club';
   updatedById: string | null;
   updatedAt: Date;
 }
@@ -26,6 +30,8 @@ export const ToleranceBandEntity = new EntitySchema<ToleranceBand>({
     view: { type: 'varchar', length: 10 },
     min: { type: 'real', nullable: true },
     max: { type: 'real', nullable: true },
+    target: { type: 'real', nullable: true },
+    source: { type: 'varchar', length: 20, default: 'common practice' },
     updatedById: nullableUuidColumn,
     updatedAt: timestampColumn,
   },

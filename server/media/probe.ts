@@ -23,6 +23,8 @@ interface FfprobeStream {
   nb_frames?: string;
   nb_read_packets?: string;
   duration?: string;
+  tags?: { rotate?: string };
+  side_data_list?: { rotation?: number }[];
 }
 
 interface FfprobeOutput {
@@ -73,10 +75,15 @@ export async function probeVideo(filePath: string): Promise<VideoProbe | null> {
     stream = output.streams?.find((s) => s.codec_type === 'video') ?? stream;
   }
   const duration = positive(stream.duration) ?? positive(output.format?.duration);
+  // Phones store portrait video as landscape frames plus a rotation; report the size as displayed.
+  const rotation = Number(
+    stream.side_data_list?.find((d) => d.rotation !== undefined)?.rotation ?? stream.tags?.rotate ?? 0,
+  );
+  const quarterTurn = Math.abs(rotation) % 180 === 90;
   return {
     codec: stream.codec_name!,
-    width: stream.width!,
-    height: stream.height!,
+    width: quarterTurn ? stream.height! : stream.width!,
+    height: quarterTurn ? stream.width! : stream.height!,
     fps: rate(stream.avg_frame_rate) ?? rate(stream.r_frame_rate),
     frameCount: positive(stream.nb_frames) ?? positive(stream.nb_read_packets),
     durationMs: duration === null ? null : Math.round(duration * 1000),

@@ -55,6 +55,12 @@ export function createErrorHandler(opts: { maxUploadBytes: number }): ErrorReque
         error.type === 'entity.too.large'
           ? new HttpError(413, 'body_too_large', 'The request body is too large')
           : new HttpError(400, 'malformed_body', 'The request body is not valid JSON');
+    } else if (isClientHttpError(error)) {
+      // http-errors from Express itself (static files not found, bad URL encoding, ...).
+      // System errors (ENOENT paths) are not exposed, so they get a plain message.
+      const notFoundError = error.status === 404;
+      const message = error.expose ? error.message : notFoundError ? 'Not found' : 'Bad request';
+      http = new HttpError(error.status, notFoundError ? 'not_found' : 'bad_request', message);
     } else {
       req.log?.error({ err: error }, 'unhandled error');
       http = new HttpError(500, 'internal', 'Something went wrong on the server; the error was logged');
@@ -73,4 +79,10 @@ function isBodyParserError(error: unknown): error is { type: string; status: num
     typeof (error as { type: unknown }).type === 'string' &&
     (error as { type: string }).type.startsWith('entity.')
   );
+}
+
+function isClientHttpError(error: unknown): error is { status: number; message: string; expose?: boolean } {
+  if (typeof error !== 'object' || error === null) return false;
+  const { status } = error as { status?: unknown };
+  return typeof status === 'number' && status >= 400 && status < 500;
 }

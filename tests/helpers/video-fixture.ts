@@ -53,3 +53,29 @@ export function videoFixture(format: 'mp4' | 'webm' = 'mp4'): Promise<VideoFixtu
   }
   return pending;
 }
+
+/** The mp4 fixture remuxed with a 90° display rotation, as phones store portrait video. */
+export async function rotatedVideoFixture(): Promise<VideoFixture> {
+  const source = await videoFixture('mp4');
+  const file = path.join(path.dirname(source.path), 'testsrc-rotated.mp4');
+  await run(ffmpeg.path, [
+    '-hide_banner',
+    '-loglevel',
+    'error',
+    '-i',
+    source.path,
+    '-c',
+    'copy',
+    '-metadata:s:v:0',
+    'rotate=90',
+    '-y',
+    file,
+  ]);
+  return {
+    ...source,
+    path: file,
+    bytes: await fs.readFile(file),
+    width: source.height,
+    height: source.width,
+  };
+}

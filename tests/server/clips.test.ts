@@ -5,7 +5,7 @@ import type { Test } from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { AuditRepository } from '@server/repositories/audit.repository';
 import { createTestServer, type TestServer } from '../helpers/server-harness';
-import { videoFixture, type VideoFixture } from '../helpers/video-fixture';
+import { rotatedVideoFixture, videoFixture, type VideoFixture } from '../helpers/video-fixture';
 
 const LIMIT = 256 * 1024;
 let server: TestServer;
@@ -143,6 +143,13 @@ describe('upload round trip', () => {
     expect(byQuery.body.clips.map((c: { id: string }) => c.id)).toContain(clipId);
     const session = await server.http.get(`/api/sessions/${sessionId}`).set(await server.bearer('head'));
     expect(session.body.session.clipCount).toBeGreaterThanOrEqual(1);
+  });
+
+  it('reports portrait phone video as displayed (rotation applied to width and height)', async () => {
+    const rotated = await rotatedVideoFixture();
+    const res = await upload(rotated.path, { sessionId, athleteIds: elsie, view: 'front' });
+    expect(res.status).toBe(201);
+    expect(res.body.clip).toMatchObject({ width: 120, height: 160 });
   });
 
   it('accepts WebM as well, found by content', async () => {

@@ -80,6 +80,12 @@ describe('startStanceline', () => {
     else expect(text).toContain('npm run build');
   });
 
+  it('answers a missing model file with a 404, not the client app', async () => {
+    const res = await json(`${app.url}/models/no-such-model/model.json`);
+    expect(res.status).toBe(404);
+    expect((res.body.error as { code: string }).code).toBe('not_found');
+  });
+
   it('serves the TF.js wasm binaries from its own origin', async () => {
     const res = await fetch(`${app.url}/wasm/tfjs-backend-wasm.wasm`);
     expect(res.status).toBe(200);
