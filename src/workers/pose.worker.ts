@@ -1,0 +1,163 @@
+/// <reference lib="webworker" />
+// Pose worker: ImageBitmaps in, keypoints + metrics + timings out. Speaks the discriminated-union
+// protocol declared in src/lib/pose-client.ts; only src/lib/pose-client.ts talks to it.
+// Frames are handled one at a time in arrival order; a cancelled queue's waiting frames are dropped.
+
+import * as tf from '@tensorflow/tfjs-core';
+import '@tensorflow/tfjs-backend-cpu';
+import '@tensorflow/tfjs-backend-webgl';
+import { setWasmPaths } from '@tensorflow/tfjs-backend-wasm';
+import type { PoseModelName } from '@shared/keypoints';
+import { computeFrameMetrics, emptyFrameMetrics } from '@shared/metrics';
+import { scaleKeypoints } from '@shared/pose/keypoint-mapping';
+import { createPoseDetector, type PoseDetector } from '@shared/pose/pose-detector';
+import { modelUrl } from '@shared/pose/pose-models';
+import type { PoseFrameResult, WorkerConfig, WorkerRequest, WorkerResponse } from '@/lib/pose-client';
+
+const scope = self as unknown as DedicatedWorkerGlobalScope;
+
+let config: WorkerConfig = {
+  modelBase: '/models',
+  wasmBase: '/wasm/',
+  backends: ['webgl', 'wasm', 'cpu'],
+  maxSide: 1280,
+};
+const detectors = new Map<PoseModelName, Promise<PoseDetector>>();
+const cancelledQueues = new Set<string>();
+let chain: Promise<void> = Promise.resolve();
+let canvas: OffscreenCanvas | null = null;
+
+function post(message: WorkerResponse, transfer: Transferable[] = []): void {
+  scope.postMessage(message, transfer);
+}
+
+function detectorFor(model: PoseModelName): Promise<PoseDetector> {
+  let detector = detectors.get(model);
+  if (!detector) {
+    setWasmPaths(config.wasmBase);
+    detector = createPoseDetector({
+      tf,
+      model,
+      source: (dir) => modelUrl(dir, config.modelBase),
+      backends: config.backends,
+    });
+    detector.catch(() => detectors.delete(model));
+    detectors.set(model, detector);
+  }
+  return detector;
+}
+
+/** Draws the bitmap (downscaled when large) and reads RGBA, the same pixel path as the Node side. */
+function pixelsOf(bitmap: ImageBitmap): { data: Uint8ClampedArray; width: number; height: number } {
+  const scale = Math.min(1, config.maxSide / Math.max(bitmap.width, bitmap.height));
+  const width = Math.max(1, Math.round(bitmap.width * scale));
+  const height = Math.max(1, Math.round(bitmap.height * scale));
+  canvas ??= new OffscreenCanvas(width, height);
+  if (canvas.width !== width || canvas.height !== height) {
+    canvas.width = width;
+    canvas.height = height;
+  }
+  const ctx = canvas.getContext('2d', { willReadFrequently: true });
+  if (!ctx) throw new Error('OffscreenCanvas 2D is not available in this browser');
+  ctx.drawImage(bitmap, 0, 0, width, height);
+  return { data: ctx.getImageData(0, 0, width, height).data, width, height };
+}
+
+async function handleDetect(message: Extract<WorkerRequest, { type: 'detect' }>): Promise<void> {
+  const { id, bitmap, req, queueId } = message;
+  if (queueId && cancelledQueues.has(queueId)) {
+    bitmap.close();
+    post({ type: 'cancelled', id });
+    return;
+  }
+  const start = performance.now();
+  try {
+    const detector = await detectorFor(req.model);
+    const sourceWidth = bitmap.width;
+    const sourceHeight = bitmap.height;
+    const pixels = pixelsOf(bitmap);
+    bitmap.close();
+    const found = await detector.detect(
+      { ...pixels, channels: 4 },
+      { timeMs: req.still ? null : req.timeMs },
+    );
+    const keypoints =
+      pixels.width === sourceWidth
+        ? found.keypoints
+        : scaleKeypoints(found.keypoints, sourceWidth / pixels.width, sourceHeight / pixels.height);
+    const computed =
+      keypoints.length > 0
+        ? computeFrameMetrics({
+            keypoints,
+            view: req.view,
+            referenceLine: req.referenceLine ?? null,
+            width: sourceWidth,
+            height: sourceHeight,
+          })
+        : emptyFrameMetrics('no skier found');
+    const result: PoseFrameResult = {
+      ...req,
+      keypoints,
+      score: found.score,
+      metrics: computed.metrics,
+      reasons: computed.reasons,
+      confidence: computed.confidence,
+      width: sourceWidth,
+      height: sourceHeight,
+      timings: {
+        detectMs: found.timings.detectMs,
+        totalMs: performance.now() - start,
+        passes: found.timings.passes,
+      },
+      backend: detector.backend,
+    };
+    post({ type: 'result', id, result });
+    if (queueId) post({ type: 'progress', queueId, id });
+  } catch (error) {
+    post({ type: 'error', id, message: error instanceof Error ? error.message : String(error) });
+  }
+}
+
+scope.onmessage = (event: MessageEvent<WorkerRequest>) => {
+  const message = event.data;
+  switch (message.type) {
+    case 'configure':
+      config = { ...config, ...message.config };
+      post({ type: 'done', id: message.id });
+      break;
+    case 'load':
+      chain = chain.then(async () => {
+        try {
+          const d = await detectorFor(message.model);
+          post({
+            type: 'loaded',
+            id: message.id,
+            model: d.model,
+            backend: d.backend,
+            loadMs: d.loadMs,
+            warmupMs: d.warmupMs,
+          });
+        } catch (error) {
+          post({
+            type: 'error',
+            id: message.id,
+            message: error instanceof Error ? error.message : String(error),
+          });
+        }
+      });
+      break;
+    case 'detect':
+      chain = chain.then(() => handleDetect(message));
+      break;
+    case 'cancel':
+      cancelledQueues.add(message.queueId);
+      post({ type: 'done', id: message.id });
+      break;
+    case 'reset':
+      chain = chain.then(async () => {
+        for (const d of detectors.values()) (await d.catch(() => null))?.reset();
+        post({ type: 'done', id: message.id });
+      });
+      break;
+  }
+};

@@ -1,0 +1,127 @@
+// Fixed phantom stills the detector tests (Node and browser) run on. Poses are ordinary race stances
+// (common practice), each frame a different size, facing and camera roll.
+import type { PhantomFrameSpec } from '../../fixtures/phantom/render-phantom';
+
+export const PHANTOM_CASES: { name: string; spec: PhantomFrameSpec }[] = [
+  {
+    name: 'front, leaning left with angulation',
+    spec: {
+      pose: {
+        view: 'front',
+        inclination: 20,
+        angulation: 8,
+        shoulderTilt: -5,
+        hipTilt: -14,
+        stanceWidth: 1.1,
+        kneeSeparation: 0.95,
+      },
+      width: 640,
+      height: 480,
+      skierHeight: 360,
+      outfit: 0,
+      seed: 3,
+    },
+  },
+  {
+    name: 'front, leaning right, wide stance, tilted camera',
+    spec: {
+      pose: {
+        view: 'front',
+        inclination: -25,
+        angulation: -10,
+        shoulderTilt: 6,
+        hipTilt: 16,
+        stanceWidth: 1.3,
+        kneeSeparation: 1.2,
+        kneeFlexion: 55,
+      },
+      width: 1280,
+      height: 720,
+      skierHeight: 430,
+      origin: [700, 650],
+      roll: 4,
+      outfit: 1,
+      seed: 4,
+    },
+  },
+  {
+    name: 'front, upright, knees pinched',
+    spec: {
+      pose: {
+        view: 'front',
+        inclination: 4,
+        shoulderTilt: 2,
+        hipTilt: -2,
+        stanceWidth: 0.9,
+        kneeSeparation: 0.7,
+        kneeFlexion: 35,
+      },
+      width: 960,
+      height: 540,
+      skierHeight: 320,
+      origin: [430, 500],
+      outfit: 3,
+      seed: 5,
+    },
+  },
+  {
+    name: 'side facing right, left foot ahead, 10° slope',
+    spec: {
+      pose: {
+        view: 'side',
+        facing: 'right',
+        kneeFlexion: 60,
+        shinAngle: 28,
+        torsoAngle: 32,
+        foreAftOffset: 0.2,
+      },
+      width: 640,
+      height: 480,
+      skierHeight: 330,
+      origin: [300, 430],
+      roll: -10,
+      outfit: 0,
+      seed: 6,
+    },
+  },
+  {
+    name: 'side facing left, tall stance, 8° slope',
+    spec: {
+      pose: {
+        view: 'side',
+        facing: 'left',
+        kneeFlexion: 40,
+        shinAngle: 20,
+        torsoAngle: 24,
+        foreAftOffset: -0.15,
+      },
+      width: 960,
+      height: 540,
+      skierHeight: 380,
+      origin: [520, 490],
+      roll: 8,
+      outfit: 2,
+      seed: 7,
+    },
+  },
+  {
+    name: 'side facing right, deep flexion, 15° slope',
+    spec: {
+      pose: {
+        view: 'side',
+        facing: 'right',
+        kneeFlexion: 75,
+        shinAngle: 32,
+        torsoAngle: 40,
+        foreAftOffset: 0.05,
+      },
+      width: 1280,
+      height: 720,
+      skierHeight: 460,
+      origin: [560, 640],
+      roll: -15,
+      outfit: 3,
+      seed: 8,
+    },
+  },
+];

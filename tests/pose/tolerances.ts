@@ -1,0 +1,64 @@
+// Tolerances the detector tests hold the models to on the phantom cases (tests/pose/phantom-cases.ts).
+// Set from the phantom accuracy report (docs/accuracy.md) with headroom over the worst case seen
+// there, so a real regression (wrong mapping, scale, left/right, backend) fails and model noise does not.
+import type { MetricKey } from '@shared/metrics';
+import type { BodyJoint } from './phantom-eval';
+
+/** Joint distance from the true joint, in torso lengths (hip midpoint to shoulder midpoint). */
+export const JOINT_TOLERANCE: Record<BodyJoint, number> = {
+  left_shoulder: 0.25,
+  right_shoulder: 0.25,
+  left_elbow: 0.25,
+  right_elbow: 0.25,
+  left_wrist: 0.25,
+  right_wrist: 0.25,
+  left_hip: 0.25,
+  right_hip: 0.25,
+  left_knee: 0.25,
+  right_knee: 0.25,
+  // The boot hides the ankle: every model puts it higher and further forward in the boot than the
+  // joint centre (largest seen on the cases 0.27).
+  left_ankle: 0.35,
+  right_ankle: 0.35,
+};
+
+export interface MetricTolerance {
+  key: MetricKey;
+  tolerance: number;
+  why: string;
+}
+
+export const METRIC_TOLERANCE: MetricTolerance[] = [
+  {
+    key: 'kneeFlexionRight',
+    tolerance: 10,
+    why: 'three joints; the ankle is the loose one (largest seen 7°)',
+  },
+  {
+    key: 'kneeFlexionLeft',
+    tolerance: 10,
+    why: 'the far leg in a side view is partly hidden (largest seen 4°)',
+  },
+  {
+    key: 'shinAngleRight',
+    tolerance: 15,
+    why: 'a shin is short, so the ankle error in the boot turns into degrees (largest seen 12°, BlazePose)',
+  },
+  { key: 'shinAngleLeft', tolerance: 15, why: 'as for the right shin' },
+  { key: 'torsoAngle', tolerance: 8, why: 'hips and shoulders are the steadiest joints (largest seen 6.6°)' },
+  { key: 'shoulderTilt', tolerance: 6, why: 'shoulders are far apart and well found (largest seen 4.4°)' },
+  {
+    key: 'kneeSeparationRatio',
+    tolerance: 0.3,
+    why: 'a ratio of two short horizontal distances; knees slide along the leg (largest seen 0.25)',
+  },
+  {
+    key: 'stanceWidthRatio',
+    tolerance: 0.4,
+    why: 'ankle based, and ankles are the weakest joints (largest seen 0.31)',
+  },
+  { key: 'inclination', tolerance: 5, why: 'long lever from ankle to hip midpoints (largest seen 4.2°)' },
+];
+
+/** Browser (worker) and Node keypoints for the same frame and model, in torso lengths. */
+export const BROWSER_NODE_AGREEMENT = 0.05;
