@@ -6,11 +6,15 @@ const run = promisify(execFile);
 
 export interface VideoProbe {
   codec: string;
+  /** Display rotation in degrees (0, 90, 180, 270); width and height below already account for it. */
+  rotation: number;
   width: number;
   height: number;
   fps: number | null;
   frameCount: number | null;
   durationMs: number | null;
+  /** ffprobe's pix_fmt ("yuv420p", "yuv420p10le", ...), when it reports one. */
+  pixelFormat: string | null;
 }
 
 interface FfprobeStream {
@@ -23,6 +27,7 @@ interface FfprobeStream {
   nb_frames?: string;
   nb_read_packets?: string;
   duration?: string;
+  pix_fmt?: string;
   tags?: { rotate?: string };
   side_data_list?: { rotation?: number }[];
 }
@@ -82,10 +87,20 @@ export async function probeVideo(filePath: string): Promise<VideoProbe | null> {
   const quarterTurn = Math.abs(rotation) % 180 === 90;
   return {
     codec: stream.codec_name!,
+    rotation: (((Math.round(rotation / 90) * 90) % 360) + 360) % 360,
     width: quarterTurn ? stream.height! : stream.width!,
     height: quarterTurn ? stream.width! : stream.height!,
     fps: rate(stream.avg_frame_rate) ?? rate(stream.r_frame_rate),
     frameCount: positive(stream.nb_frames) ?? positive(stream.nb_read_packets),
     durationMs: duration === null ? null : Math.round(duration * 1000),
+    pixelFormat: stream.pix_fmt ?? null,
   };
+}
+
+/** Pixel size of an image file (the thumbnail sprite), read back with ffprobe. */
+export async function probeImageSize(filePath: string): Promise<{ width: number; height: number }> {
+  const output = await ffprobeJson(filePath, []);
+  const stream = output.streams?.[0];
+  if (!stream?.width || !stream.height) throw new Error(`ffprobe found no image size in ${filePath}`);
+  return { width: stream.width, height: stream.height };
 }
