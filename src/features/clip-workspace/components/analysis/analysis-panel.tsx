@@ -1,0 +1,214 @@
+import { useId, useState } from 'react';
+import { Activity, X } from 'lucide-react';
+import { Button } from '@/components/ui/button';
+import { Notice } from '@/components/ui/notice';
+import { ProgressBar } from '@/components/ui/progress-bar';
+import { formatDateTime } from '@/lib/format';
+import { clipExtras } from '../../api/clip-contract';
+import { useClipFrames } from '../../api/get-clip-frames';
+import { useWorkspace } from '../workspace-context';
+import {
+  EVERY_NTH_CHOICES,
+  formatRoughDuration,
+  formatTimeLeft,
+  framesToAnalyze,
+  roughDurationMs,
+} from './analysis-plan';
+import { rememberedMsPerFrame, useWholeClipAnalysis, type AnalysisRun } from './use-whole-clip-analysis';
+
+const MODEL_NAMES = { lightning: 'Lightning', thunder: 'Thunder', blazepose: 'BlazePose' } as const;
+
+const everyLabel = (n: number) =>
+  n === 1 ? 'Every frame' : `Every ${n}${n === 2 ? 'nd' : n === 3 ? 'rd' : 'th'} frame`;
+
+function seconds(ms: number): string {
+  return `${(ms / 1000).toFixed(1)} s`;
+}
+
+export function AnalysisPanel() {
+  const ws = useWorkspace();
+  const stored = useClipFrames(ws.clip.id, ws.model);
+  const { run, start, cancel } = useWholeClipAnalysis();
+  const [everyNth, setEveryNth] = useState(1);
+  const selectId = useId();
+
+  const busy = run.state === 'loading' || run.state === 'running' || run.state === 'cancelling';
+  const planned = framesToAnalyze(ws.frameCount, everyNth).length;
+  const measured = rememberedMsPerFrame(ws.model);
+  const estimate = formatRoughDuration(roughDurationMs(planned, ws.model, measured));
+  const storedFrames = stored.data?.frames.length ?? 0;
+  const lastStored = stored.data?.frames.length
+    ? Math.max(...stored.data.frames.map((f) => f.frameIndex))
+    : null;
+
+  return (
+    <section
+      aria-labelledby={`${selectId}-title`}
+      className="rounded-lg border border-granite-200 bg-white p-4"
+    >
+      <div className="flex flex-wrap items-end justify-between gap-3">
+        <div>
+          <h2 id={`${selectId}-title`} className="font-semibold text-granite-900">
+            Whole-clip analysis
+          </h2>
+          <StoredSummary
+            loading={stored.isPending}
+            storedFrames={storedFrames}
+            frameCount={ws.frameCount}
+            model={MODEL_NAMES[ws.model]}
+            lastFrame={lastStored}
+          />
+        </div>
+        <div className="flex flex-wrap items-end gap-2">
+          <label htmlFor={selectId} className="text-sm text-granite-700">
+            <span className="block text-xs font-medium text-granite-600">Frames to analyse</span>
+            <select
+              id={selectId}
+              value={everyNth}
+              disabled={busy}
+              onChange={(e) => setEveryNth(Number(e.target.value))}
+              className="mt-1 h-8 rounded-md border border-granite-200 bg-white px-2 text-sm"
+            >
+              {EVERY_NTH_CHOICES.map((n) => (
+                <option key={n} value={n}>
+                  {everyLabel(n)}
+                </option>
+              ))}
+            </select>
+          </label>
+          {busy ? (
+            <Button
+              variant="secondary"
+              size="sm"
+              icon={<X aria-hidden="true" className="h-4 w-4" />}
+              onClick={cancel}
+              disabled={run.state === 'cancelling'}
+            >
+              Cancel analysis
+            </Button>
+          ) : (
+            <Button
+              size="sm"
+              icon={<Activity aria-hidden="true" className="h-4 w-4" />}
+              onClick={() => void start(everyNth)}
+            >
+              Analyze whole clip
+            </Button>
+          )}
+        </div>
+      </div>
+
+      {!busy && storedFrames === 0 && run.state !== 'failed' && !stored.isPending ? (
+        <p className="mt-3 text-sm text-granite-600">
+          No whole-clip analysis yet. <strong className="font-medium">Analyze whole clip</strong> runs the{' '}
+          {MODEL_NAMES[ws.model]} model on {planned === ws.frameCount ? 'all' : planned} of the clip&rsquo;s{' '}
+          {ws.frameCount} frames on this computer, stores the points and draws the curves and turns below:{' '}
+          {estimate}
+          {measured ? ' at the pace of the last run here' : ''}. You can cancel at any time and keep what is
+          done.
+        </p>
+      ) : null}
+
+      {stored.isError ? (
+        <Notice tone="error" title="Stored results could not be loaded" className="mt-3">
+          <p>{stored.error.message}</p>
+          <Button variant="secondary" size="sm" className="mt-2" onClick={() => void stored.refetch()}>
+            Try again
+          </Button>
+        </Notice>
+      ) : null}
+
+      <RunStatus run={run} />
+    </section>
+  );
+}
+
+function StoredSummary(props: {
+  loading: boolean;
+  storedFrames: number;
+  frameCount: number;
+  model: string;
+  lastFrame: number | null;
+}) {
+  const ws = useWorkspace();
+  const info = clipExtras(ws.clip).analysis;
+  if (props.loading) return <p className="text-sm text-granite-600">Looking for stored results…</p>;
+  if (props.storedFrames === 0) return <p className="text-sm text-granite-600">Model: {props.model}</p>;
+  return (
+    <p className="text-sm text-granite-600" data-testid="stored-analysis">
+      <span className="font-mono tabular-nums">{props.storedFrames}</span> of{' '}
+      <span className="font-mono tabular-nums">{props.frameCount}</span> frames analysed with {props.model}
+      {info?.updatedAt ? ` · ${formatDateTime(info.updatedAt)}` : ''}
+    </p>
+  );
+}
+
+function RunStatus({ run }: { run: AnalysisRun }) {
+  switch (run.state) {
+    case 'idle':
+      return null;
+    case 'loading':
+      return (
+        <p role="status" className="mt-3 text-sm text-granite-700">
+          Loading the {MODEL_NAMES[run.model]} model and opening the video…
+        </p>
+      );
+    case 'running':
+    case 'cancelling': {
+      const { done, total, remainingMs } = run.progress;
+      return (
+        <div className="mt-3 space-y-1.5">
+          <ProgressBar value={total ? done / total : 0} label="Whole-clip analysis progress" />
+          <p role="status" className="flex justify-between text-sm text-granite-700">
+            <span>
+              <span className="font-mono tabular-nums">
+                {done} / {total}
+              </span>{' '}
+              frames
+            </span>
+            <span>
+              {run.state === 'cancelling'
+                ? 'Stopping; keeping the frames done…'
+                : formatTimeLeft(remainingMs)}
+            </span>
+          </p>
+        </div>
+      );
+    }
+    case 'done': {
+      const { outcome } = run;
+      const perFrame = outcome.done ? outcome.elapsedMs / outcome.done : 0;
+      return (
+        <div className="mt-3 space-y-1.5">
+          {outcome.status === 'finished' ? (
+            <p role="status" className="text-sm text-spruce-700" data-testid="analysis-finished">
+              Analysed <span className="font-mono tabular-nums">{outcome.done}</span> frames in{' '}
+              <span className="font-mono tabular-nums" data-elapsed-ms={Math.round(outcome.elapsedMs)}>
+                {seconds(outcome.elapsedMs)}
+              </span>{' '}
+              (<span className="font-mono tabular-nums">{Math.round(perFrame)}</span> ms a frame).
+            </p>
+          ) : (
+            <p role="status" className="text-sm text-granite-700">
+              Cancelled after <span className="font-mono tabular-nums">{outcome.done}</span> of{' '}
+              <span className="font-mono tabular-nums">{outcome.total}</span> frames; those are stored. Run
+              the analysis again to cover the whole clip.
+            </p>
+          )}
+          {outcome.emptyFrames > 0 ? (
+            <p className="text-sm text-signal-700">
+              No skier was found in {outcome.emptyFrames} frame{outcome.emptyFrames === 1 ? '' : 's'}: the
+              curves have gaps there. A closer or larger view of the athlete helps.
+            </p>
+          ) : null}
+        </div>
+      );
+    }
+    case 'failed':
+      return (
+        <Notice tone="error" title="The analysis stopped" className="mt-3">
+          <p>{run.message}</p>
+        </Notice>
+      );
+  }
+}

@@ -1,0 +1,132 @@
+import { frameFromMediaTime, seekTimeForFrame } from '../../lib/frame-time';
+
+/** How long to wait for a presented frame after 'seeked' before grabbing what the element holds. */
+const FRAME_CALLBACK_TIMEOUT_MS = 500;
+const LOAD_TIMEOUT_MS = 20_000;
+
+function abortError(): DOMException {
+  return new DOMException('Analysis cancelled', 'AbortError');
+}
+
+function once(
+  target: HTMLVideoElement,
+  event: string,
+  signal: AbortSignal,
+  timeoutMs: number,
+): Promise<void> {
+  return new Promise((resolve, reject) => {
+    const done = (fn: () => void) => {
+      clearTimeout(timer);
+      target.removeEventListener(event, onEvent);
+      target.removeEventListener('error', onError);
+      signal.removeEventListener('abort', onAbort);
+      fn();
+    };
+    const onEvent = () => done(resolve);
+    const onError = () =>
+      done(() => reject(new Error(target.error?.message || 'the video could not be decoded for analysis')));
+    const onAbort = () => done(() => reject(abortError()));
+    const timer = setTimeout(
+      () => done(() => reject(new Error(`the video did not answer within ${timeoutMs / 1000} s (${event})`))),
+      timeoutMs,
+    );
+    target.addEventListener(event, onEvent);
+    target.addEventListener('error', onError);
+    signal.addEventListener('abort', onAbort);
+  });
+}
+
+/**
+ * Decodes frames of a clip for analysis through a second, hidden <video> with the same source, so
+ * the visible player is never disturbed. Each grab seeks to the middle of the frame's presentation
+ * span, waits for 'seeked' and for the frame to be presented, and copies it into an ImageBitmap.
+ */
+export class FrameGrabber {
+  private video: HTMLVideoElement | null = null;
+  /** Frames whose presented media time pointed at a different frame than asked for. */
+  mismatches = 0;
+
+  constructor(
+    private readonly src: string,
+    private readonly fps: number,
+  ) {}
+
+  async open(signal: AbortSignal): Promise<void> {
+    const video = document.createElement('video');
+    video.muted = true;
+    video.playsInline = true;
+    video.preload = 'auto';
+    video.setAttribute('aria-hidden', 'true');
+    // In the document but out of sight: some browsers present no frames for detached or display:none videos.
+    Object.assign(video.style, {
+      position: 'fixed',
+      left: '0',
+      top: '0',
+      width: '2px',
+      height: '2px',
+      opacity: '0',
+      pointerEvents: 'none',
+    });
+    document.body.appendChild(video);
+    this.video = video;
+    const loaded = once(video, 'loadeddata', signal, LOAD_TIMEOUT_MS);
+    video.src = this.src;
+    video.load();
+    await loaded;
+  }
+
+  get size(): { width: number; height: number } {
+    return { width: this.video?.videoWidth ?? 0, height: this.video?.videoHeight ?? 0 };
+  }
+
+  async grab(frameIndex: number, signal: AbortSignal): Promise<ImageBitmap> {
+    const video = this.video;
+    if (!video) throw new Error('the frame grabber is not open');
+    if (signal.aborted) throw abortError();
+    const target = seekTimeForFrame(frameIndex, this.fps);
+    // Ask for the presented frame before seeking, so its callback cannot be missed.
+    const presented = this.nextPresentedFrame(video);
+    try {
+      const seeked = once(video, 'seeked', signal, LOAD_TIMEOUT_MS);
+      video.currentTime = target;
+      await seeked;
+      const mediaTime = await Promise.race([
+        presented.mediaTime,
+        new Promise<null>((resolve) => setTimeout(() => resolve(null), FRAME_CALLBACK_TIMEOUT_MS)),
+      ]);
+      if (mediaTime !== null && frameFromMediaTime(mediaTime, this.fps) !== frameIndex) this.mismatches += 1;
+    } finally {
+      presented.cancel();
+    }
+    return createImageBitmap(video);
+  }
+
+  /** Media time of the next presented frame; null without frame callbacks (the 'seeked' frame is used). */
+  private nextPresentedFrame(video: HTMLVideoElement): { mediaTime: Promise<number | null>; cancel(): void } {
+    if (typeof video.requestVideoFrameCallback !== 'function') {
+      return { mediaTime: Promise.resolve(null), cancel: () => undefined };
+    }
+    let handle = 0;
+    let settled = false;
+    const mediaTime = new Promise<number | null>((resolve) => {
+      handle = video.requestVideoFrameCallback((_now, meta) => {
+        settled = true;
+        resolve(meta.mediaTime);
+      });
+    });
+    return {
+      mediaTime,
+      cancel: () => {
+        if (!settled) video.cancelVideoFrameCallback(handle);
+      },
+    };
+  }
+
+  close(): void {
+    if (!this.video) return;
+    this.video.removeAttribute('src');
+    this.video.load();
+    this.video.remove();
+    this.video = null;
+  }
+}

@@ -1,0 +1,1 @@
+export { AnalysisPanel } from './analysis-panel';

@@ -1,0 +1,126 @@
+import { useCallback, useEffect, useRef, useState } from 'react';
+import type { PoseModelName } from '@shared/keypoints';
+import { getPoseClient } from '@/lib/pose-client';
+import { useAnalysisUpload } from '../../api/post-clip-frames';
+import { useWorkspace } from '../workspace-context';
+import { framesToAnalyze } from './analysis-plan';
+import { FrameGrabber } from './frame-grabber';
+import {
+  runWholeClip,
+  WholeClipError,
+  type WholeClipOutcome,
+  type WholeClipProgress,
+} from './run-whole-clip';
+
+export type AnalysisRun =
+  | { state: 'idle' }
+  | { state: 'loading'; model: PoseModelName }
+  | { state: 'running'; model: PoseModelName; progress: WholeClipProgress }
+  | { state: 'cancelling'; model: PoseModelName; progress: WholeClipProgress }
+  | { state: 'done'; model: PoseModelName; outcome: WholeClipOutcome; mismatches: number }
+  | { state: 'failed'; model: PoseModelName; message: string; stored: number };
+
+const RATE_KEY = (model: PoseModelName) => `stanceline.analysis.ms-per-frame.${model}`;
+
+/** The last measured whole-clip pace on this computer, for the estimate before a run. */
+export function rememberedMsPerFrame(model: PoseModelName): number | null {
+  try {
+    const value = Number(window.localStorage.getItem(RATE_KEY(model)));
+    return Number.isFinite(value) && value > 0 ? value : null;
+  } catch {
+    return null;
+  }
+}
+
+function remember(model: PoseModelName, msPerFrame: number): void {
+  try {
+    window.localStorage.setItem(RATE_KEY(model), String(Math.round(msPerFrame)));
+  } catch {
+    // Private windows may refuse storage; the estimate then falls back to the published figures.
+  }
+}
+
+function describe(error: unknown): string {
+  if (error instanceof WholeClipError) return error.message;
+  const text = error instanceof Error ? error.message : String(error);
+  return `The analysis could not start: ${text}. Check that the clip plays above, then try again.`;
+}
+
+/** Whole-clip analysis of the workspace's clip with the workspace's model, view and snow line. */
+export function useWholeClipAnalysis() {
+  const ws = useWorkspace();
+  const upload = useAnalysisUpload(ws.clip.id);
+  const [run, setRun] = useState<AnalysisRun>({ state: 'idle' });
+  const controller = useRef<AbortController | null>(null);
+
+  // Leaving the page stops the run; what was posted stays stored.
+  useEffect(() => () => controller.current?.abort(), []);
+
+  const start = useCallback(
+    async (everyNth: number) => {
+      controller.current?.abort();
+      const abort = new AbortController();
+      controller.current = abort;
+      const model = ws.model;
+      const plan = {
+        frames: framesToAnalyze(ws.frameCount, everyNth),
+        fps: ws.fps,
+        model,
+        view: ws.view,
+        referenceLine: ws.referenceLine,
+      };
+      const grabber = new FrameGrabber(ws.clip.mediaUrl, ws.fps);
+      const pose = getPoseClient();
+      setRun({ state: 'loading', model });
+      try {
+        await Promise.all([grabber.open(abort.signal), pose.load(model)]);
+        // A whole clip is one sequence: start tracking afresh, then keep it frame to frame.
+        await pose.reset();
+        const outcome = await runWholeClip(
+          plan,
+          {
+            grab: (i, signal) => grabber.grab(i, signal),
+            detect: (bitmap, req) => pose.detect(bitmap, req),
+            postBatch: upload.postBatch,
+            now: () => performance.now(),
+          },
+          {
+            signal: abort.signal,
+            onProgress: (progress) =>
+              setRun((r) =>
+                r.state === 'cancelling' ? { ...r, progress } : { state: 'running', model, progress },
+              ),
+          },
+        );
+        if (outcome.done > 0 && outcome.status === 'finished')
+          remember(model, outcome.elapsedMs / outcome.done);
+        setRun({ state: 'done', model, outcome, mismatches: grabber.mismatches });
+      } catch (error) {
+        if (error instanceof DOMException && error.name === 'AbortError') {
+          setRun({ state: 'idle' });
+        } else {
+          setRun({
+            state: 'failed',
+            model,
+            message: describe(error),
+            stored: error instanceof WholeClipError ? error.stored : 0,
+          });
+        }
+      } finally {
+        grabber.close();
+        // The detector followed this clip's frames; the player's next single frame starts fresh.
+        await pose.reset().catch(() => undefined);
+        await upload.finish();
+        if (controller.current === abort) controller.current = null;
+      }
+    },
+    [upload, ws.clip.mediaUrl, ws.fps, ws.frameCount, ws.model, ws.referenceLine, ws.view],
+  );
+
+  const cancel = useCallback(() => {
+    controller.current?.abort();
+    setRun((r) => (r.state === 'running' ? { ...r, state: 'cancelling' } : r));
+  }, []);
+
+  return { run, start, cancel };
+}

@@ -1,0 +1,341 @@
+import { useId, useMemo, useState } from 'react';
+import {
+  CartesianGrid,
+  Legend,
+  Line,
+  LineChart,
+  ReferenceArea,
+  ReferenceDot,
+  ReferenceLine,
+  ResponsiveContainer,
+  Tooltip,
+  XAxis,
+  YAxis,
+} from 'recharts';
+import { Flag } from 'lucide-react';
+import { METRIC_DEFINITIONS, isMetricKey, type MetricKey } from '@shared/metrics';
+import { EmptyState } from '@/components/ui/empty-state';
+import { Notice } from '@/components/ui/notice';
+import { Spinner } from '@/components/ui/spinner';
+import { cn } from '@/lib/format';
+import { useClipFrames } from '../../api/get-clip-frames';
+import { formatClipTime } from '../../lib/frame-time';
+import { formatMetricValue } from '../../lib/metric-format';
+import { useWorkspace } from '../workspace-context';
+import { CURSOR_COLOR, FLAG_COLOR, SERIES_STYLES, TURN_FILL, TURN_FILL_OPACITY } from './curve-colors';
+import {
+  axisFor,
+  chartRows,
+  defaultChartMetrics,
+  flagMarkers,
+  flagSpans,
+  frameStep,
+  metricsForView,
+  nearestFrame,
+  turnShading,
+  type FlagSpan,
+} from './curve-data';
+
+const CHART_HEIGHT = 300;
+
+function metricLabel(metric: string): string {
+  if (isMetricKey(metric)) return METRIC_DEFINITIONS[metric].label;
+  if (metric === 'transitionRise') return 'Transition rise';
+  return metric;
+}
+
+function metricValue(metric: string, value: number): string {
+  return isMetricKey(metric) ? formatMetricValue(value, METRIC_DEFINITIONS[metric].unit) : value.toFixed(2);
+}
+
+export function CurvesPanel() {
+  const ws = useWorkspace();
+  const query = useClipFrames(ws.clip.id, ws.model);
+  const available = useMemo(() => metricsForView(ws.view), [ws.view]);
+  const [chosen, setChosen] = useState<MetricKey[]>(() => defaultChartMetrics(ws.view));
+  const titleId = useId();
+
+  const data = query.data;
+  const frames = useMemo(() => data?.frames ?? [], [data]);
+  const rows = useMemo(() => chartRows(frames, chosen), [frames, chosen]);
+  const turns = useMemo(() => data?.series?.turns ?? [], [data]);
+  const shades = useMemo(() => turnShading(turns), [turns]);
+  const transitions = data?.series?.transitions ?? [];
+  const flags = useMemo(() => data?.flags ?? [], [data]);
+  const markers = useMemo(() => flagMarkers(flags, frames, chosen), [flags, frames, chosen]);
+  const spans = useMemo(() => flagSpans(flags, frameStep(frames)), [flags, frames]);
+
+  const hasDeg = chosen.some((k) => METRIC_DEFINITIONS[k].unit === 'deg');
+  const hasRatio = chosen.some((k) => METRIC_DEFINITIONS[k].unit !== 'deg');
+  const durationS = ws.frameCount / ws.fps;
+  const cursorS = ws.currentFrame / ws.fps;
+
+  const toggle = (key: MetricKey) =>
+    setChosen((list) =>
+      list.includes(key)
+        ? list.filter((k) => k !== key)
+        : available.filter((k) => k === key || list.includes(k)),
+    );
+
+  return (
+    <section
+      aria-label="Metric curves"
+      aria-describedby={titleId}
+      className="rounded-lg border border-granite-200 bg-white p-4"
+    >
+      <div className="flex flex-wrap items-start justify-between gap-3">
+        <div>
+          <h2 className="font-semibold text-granite-900">Curves</h2>
+          <p id={titleId} className="text-sm text-granite-600">
+            Chosen metrics over the clip. Click the chart to show that frame.
+          </p>
+        </div>
+        <details className="relative">
+          <summary className="flex h-8 cursor-pointer list-none items-center rounded-md border border-granite-200 px-3 text-sm text-granite-800 hover:bg-glacier-50">
+            Metrics ({chosen.length})
+          </summary>
+          <fieldset className="absolute right-0 z-20 mt-1 w-64 space-y-1 rounded-md border border-granite-200 bg-white p-3 shadow-lg">
+            <legend className="sr-only">Metrics on the chart</legend>
+            {available.map((key) => (
+              <label key={key} className="flex items-center gap-2 text-sm text-granite-800">
+                <input type="checkbox" checked={chosen.includes(key)} onChange={() => toggle(key)} />
+                {METRIC_DEFINITIONS[key].label}
+                <span className="ml-auto text-xs text-granite-400">{METRIC_DEFINITIONS[key].unit}</span>
+              </label>
+            ))}
+          </fieldset>
+        </details>
+      </div>
+
+      {query.isPending ? (
+        <div className="flex h-40 items-center justify-center">
+          <Spinner label="Loading stored results" />
+        </div>
+      ) : query.isError ? (
+        <Notice tone="error" title="The curves could not be loaded" className="mt-3">
+          <p>{query.error.message}</p>
+        </Notice>
+      ) : frames.length === 0 ? (
+        <div className="mt-3">
+          <EmptyState title="No curves yet">
+            Run <strong className="font-medium">Analyze whole clip</strong> above: the chosen metrics appear
+            here frame by frame, with turns, transitions, apexes and flagged moments marked.
+          </EmptyState>
+        </div>
+      ) : (
+        <>
+          <TurnLegend hasTurns={shades.length > 0} view={ws.view} />
+          <div className="mt-2 cursor-crosshair" data-testid="curves-chart">
+            <ResponsiveContainer width="100%" height={CHART_HEIGHT}>
+              <LineChart
+                data={rows}
+                margin={{ top: 18, right: 8, bottom: 4, left: 0 }}
+                onClick={(state) => {
+                  const index = Number(state?.activeTooltipIndex);
+                  const frame =
+                    Number.isInteger(index) && rows[index]
+                      ? rows[index].frameIndex
+                      : nearestFrame(rows, Number(state?.activeLabel));
+                  if (frame !== null && frame !== undefined) ws.seekToFrame(frame);
+                }}
+              >
+                <CartesianGrid stroke="#eceef1" strokeDasharray="3 3" />
+                <XAxis
+                  dataKey="t"
+                  type="number"
+                  domain={[0, Number(durationS.toFixed(3))]}
+                  tickFormatter={(t: number) => `${t.toFixed(1)} s`}
+                  tick={{ fontSize: 12, fontFamily: 'IBM Plex Mono, monospace' }}
+                />
+                <YAxis
+                  yAxisId="deg"
+                  hide={!hasDeg}
+                  width={48}
+                  tickFormatter={(v: number) => `${v}°`}
+                  tick={{ fontSize: 12, fontFamily: 'IBM Plex Mono, monospace' }}
+                />
+                <YAxis
+                  yAxisId="ratio"
+                  orientation="right"
+                  hide={!hasRatio}
+                  width={44}
+                  tick={{ fontSize: 12, fontFamily: 'IBM Plex Mono, monospace' }}
+                />
+                {shades.map((s) => (
+                  <ReferenceArea
+                    key={s.key}
+                    yAxisId="deg"
+                    x1={s.x1}
+                    x2={s.x2}
+                    fill={TURN_FILL[s.direction]}
+                    fillOpacity={TURN_FILL_OPACITY[s.direction]}
+                    stroke="none"
+                    ifOverflow="hidden"
+                    label={{ value: s.label, position: 'insideTop', fontSize: 11, fill: '#4f5968' }}
+                  />
+                ))}
+                {transitions.map((t) => (
+                  <ReferenceLine
+                    key={`tr-${t.frameIndex}`}
+                    yAxisId="deg"
+                    x={t.timeMs / 1000}
+                    stroke="#4f5968"
+                    strokeDasharray="5 4"
+                  />
+                ))}
+                {turns.map((t) => (
+                  <ReferenceLine
+                    key={`apex-${t.index}`}
+                    yAxisId="deg"
+                    x={t.apexMs / 1000}
+                    stroke="#8b94a3"
+                    strokeDasharray="1 3"
+                    label={{ value: 'apex', position: 'insideBottom', fontSize: 10, fill: '#4f5968' }}
+                  />
+                ))}
+                {chosen.map((key, i) => {
+                  const style = SERIES_STYLES[i % SERIES_STYLES.length];
+                  return (
+                    <Line
+                      key={key}
+                      yAxisId={axisFor(METRIC_DEFINITIONS[key].unit)}
+                      dataKey={key}
+                      name={METRIC_DEFINITIONS[key].label}
+                      stroke={style.stroke}
+                      strokeDasharray={style.dash}
+                      strokeWidth={1.75}
+                      dot={false}
+                      isAnimationActive={false}
+                      connectNulls={false}
+                    />
+                  );
+                })}
+                {markers.map((m) => (
+                  <ReferenceDot
+                    key={m.key}
+                    yAxisId={axisFor(METRIC_DEFINITIONS[m.metric].unit)}
+                    x={m.t}
+                    y={m.value}
+                    r={3.5}
+                    fill={FLAG_COLOR}
+                    stroke="#ffffff"
+                    strokeWidth={1}
+                    ifOverflow="extendDomain"
+                  />
+                ))}
+                <ReferenceLine yAxisId="deg" x={cursorS} stroke={CURSOR_COLOR} strokeWidth={1.5} />
+                <Tooltip
+                  isAnimationActive={false}
+                  labelFormatter={(t) =>
+                    `${formatClipTime(Number(t) * 1000)} · frame ${nearestFrame(rows, Number(t)) ?? ''}`
+                  }
+                  formatter={(value, name, item) => {
+                    const key = item.dataKey as MetricKey;
+                    return [
+                      typeof value === 'number'
+                        ? formatMetricValue(value, METRIC_DEFINITIONS[key].unit)
+                        : '—',
+                      name,
+                    ];
+                  }}
+                  contentStyle={{ fontSize: 12 }}
+                />
+                <Legend wrapperStyle={{ fontSize: 12 }} />
+              </LineChart>
+            </ResponsiveContainer>
+          </div>
+          <FlagList
+            spans={spans}
+            fps={ws.fps}
+            currentFrame={ws.currentFrame}
+            bandsCount={ws.bands.length}
+            onSeek={ws.seekToFrame}
+          />
+        </>
+      )}
+    </section>
+  );
+}
+
+interface FlagListProps {
+  spans: FlagSpan[];
+  fps: number;
+  currentFrame: number;
+  bandsCount: number;
+  onSeek(frameIndex: number): void;
+}
+
+function FlagList({ spans, fps, currentFrame, bandsCount, onSeek }: FlagListProps) {
+  if (spans.length === 0) {
+    return (
+      <p className="mt-2 text-sm text-spruce-700">
+        No value of this clip is outside its age-group band{bandsCount === 0 ? ' (no bands set)' : ''}.
+      </p>
+    );
+  }
+  return (
+    <div className="mt-3">
+      <h3 className="text-sm font-medium text-granite-800">
+        Outside the age-group band <span className="font-mono text-granite-600">({spans.length})</span>
+      </h3>
+      <ul className="mt-1 flex flex-wrap gap-1.5" aria-label="Flagged moments">
+        {spans.map((s) => (
+          <li key={s.key}>
+            <button
+              type="button"
+              onClick={() => onSeek(s.worstFrame)}
+              className={cn(
+                'inline-flex items-center gap-1 rounded border border-alarm-500/40 bg-alarm-500/5 px-2 py-0.5 text-xs text-granite-800 hover:bg-alarm-500/10',
+                currentFrame >= s.firstFrame && currentFrame <= s.lastFrame && 'ring-2 ring-alarm-500/50',
+              )}
+            >
+              <Flag aria-hidden="true" className="h-3 w-3 text-alarm-600" />
+              {metricLabel(s.metric)}{' '}
+              <span className="font-mono tabular-nums">{metricValue(s.metric, s.worstValue)}</span>
+              <span className="font-mono text-granite-600 tabular-nums">
+                {formatClipTime((s.worstFrame / fps) * 1000)}
+              </span>
+            </button>
+          </li>
+        ))}
+      </ul>
+    </div>
+  );
+}
+
+function TurnLegend({ hasTurns, view }: { hasTurns: boolean; view: 'front' | 'side' }) {
+  if (!hasTurns) {
+    return (
+      <p className="mt-2 text-xs text-granite-600">
+        {view === 'side'
+          ? 'Turns are found from inclination, which only a front view shows; the curves cover every analysed frame.'
+          : 'No turns found: inclination does not swing from side to side in this clip.'}
+      </p>
+    );
+  }
+  return (
+    <p className="mt-2 flex flex-wrap items-center gap-x-4 gap-y-1 text-xs text-granite-600">
+      <span className="inline-flex items-center gap-1">
+        <span aria-hidden="true" className="inline-block h-3 w-4 rounded-sm bg-glacier-300/60" /> left turn
+      </span>
+      <span className="inline-flex items-center gap-1">
+        <span aria-hidden="true" className="inline-block h-3 w-4 rounded-sm bg-signal-400/40" /> right turn
+      </span>
+      <span className="inline-flex items-center gap-1">
+        <span aria-hidden="true" className="inline-block w-4 border-t-2 border-dashed border-granite-600" />{' '}
+        transition
+      </span>
+      <span className="inline-flex items-center gap-1">
+        <span aria-hidden="true" className="inline-block w-4 border-t-2 border-dotted border-granite-400" />{' '}
+        apex
+      </span>
+      <span className="inline-flex items-center gap-1">
+        <span aria-hidden="true" className="inline-block h-2.5 w-2.5 rounded-full bg-alarm-600" /> outside
+        band
+      </span>
+      <span className="inline-flex items-center gap-1">
+        <span aria-hidden="true" className="inline-block h-3 border-l-2 border-glacier-950" /> frame on screen
+      </span>
+    </p>
+  );
+}

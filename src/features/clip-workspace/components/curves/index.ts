@@ -1,0 +1,2 @@
+export { CurvesPanel } from './curves-panel';
+export { TurnTable } from './turn-table';

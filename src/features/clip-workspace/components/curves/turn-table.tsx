@@ -1,0 +1,168 @@
+import { useMemo } from 'react';
+import { Flag } from 'lucide-react';
+import type { View } from '@shared/keypoints';
+import { METRIC_DEFINITIONS, type MetricKey } from '@shared/metrics';
+import type { Turn } from '@shared/series';
+import { cn } from '@/lib/format';
+import { useClipFrames, type ClipFlagDto } from '../../api/get-clip-frames';
+import { formatMetricValue } from '../../lib/metric-format';
+import { useWorkspace } from '../workspace-context';
+
+/** Apex columns per view: what a coach compares turn to turn. */
+const APEX_METRICS: Record<View, MetricKey[]> = {
+  front: ['inclination', 'angulation', 'shoulderTilt', 'kneeSeparationRatio', 'stanceWidthRatio'],
+  side: ['kneeFlexionLeft', 'kneeFlexionRight', 'shinTorsoMismatch'],
+};
+
+const unitShort = (key: MetricKey) =>
+  METRIC_DEFINITIONS[key].unit === 'deg' ? '°' : METRIC_DEFINITIONS[key].unit;
+
+/** Flags raised inside a turn: per-turn ones (transition rise) and per-frame ones within its span. */
+export function flagsInTurn(turn: Turn, flags: readonly ClipFlagDto[]): ClipFlagDto[] {
+  return flags.filter(
+    (f) =>
+      f.turnIndex === turn.index ||
+      (f.turnIndex === null &&
+        f.frameIndex !== null &&
+        f.frameIndex >= turn.startFrame &&
+        f.frameIndex < turn.endFrame),
+  );
+}
+
+export function TurnTable() {
+  const ws = useWorkspace();
+  const query = useClipFrames(ws.clip.id, ws.model);
+  const turns = useMemo(() => query.data?.series?.turns ?? [], [query.data]);
+  const flags = useMemo(() => query.data?.flags ?? [], [query.data]);
+  const columns = APEX_METRICS[ws.view];
+
+  if (!query.data || query.data.frames.length === 0) return null;
+
+  return (
+    <section aria-labelledby="turn-table-title" className="rounded-lg border border-granite-200 bg-white p-4">
+      <h2 id="turn-table-title" className="font-semibold text-granite-900">
+        Turns <span className="font-mono text-sm font-normal text-granite-600">({turns.length})</span>
+      </h2>
+      {turns.length === 0 ? (
+        <p className="mt-1 text-sm text-granite-600">
+          {ws.view === 'side'
+            ? 'Turns are found from inclination, which a front view shows. This clip is filmed from the side.'
+            : 'No turns were found: the inclination never swung past 3° to each side.'}
+        </p>
+      ) : (
+        <div className="mt-2 overflow-x-auto">
+          <table className="w-full text-sm">
+            <caption className="sr-only">
+              Turns of this clip with direction, duration and the values at each apex
+            </caption>
+            <thead>
+              <tr className="border-b border-granite-200 text-left text-xs text-granite-600">
+                <th scope="col" className="py-1.5 pr-3 font-medium">
+                  Turn
+                </th>
+                <th scope="col" className="py-1.5 pr-3 font-medium">
+                  Direction
+                </th>
+                <th scope="col" className="py-1.5 pr-3 text-right font-medium">
+                  Duration
+                </th>
+                <th scope="col" className="py-1.5 pr-3 font-medium">
+                  Inside
+                </th>
+                {columns.map((key) => (
+                  <th key={key} scope="col" className="py-1.5 pr-3 text-right font-medium">
+                    {METRIC_DEFINITIONS[key].label} at apex{' '}
+                    <span className="text-granite-400">({unitShort(key)})</span>
+                  </th>
+                ))}
+                <th scope="col" className="py-1.5 pr-3 text-right font-medium">
+                  Transition rise <span className="text-granite-400">(ratio)</span>
+                </th>
+                <th scope="col" className="py-1.5 font-medium">
+                  Flags
+                </th>
+              </tr>
+            </thead>
+            <tbody>
+              {turns.map((turn) => {
+                const own = flagsInTurn(turn, flags);
+                const here = ws.currentFrame >= turn.startFrame && ws.currentFrame < turn.endFrame;
+                const name = `${turn.direction === 'left' ? 'L' : 'R'}${turn.index + 1}`;
+                const riseFlag = own.find((f) => f.metric === 'transitionRise');
+                return (
+                  <tr
+                    key={turn.index}
+                    className={cn('border-b border-granite-100 last:border-0', here && 'bg-glacier-50')}
+                    aria-current={here ? 'true' : undefined}
+                  >
+                    <th scope="row" className="py-1.5 pr-3 text-left font-medium">
+                      <button
+                        type="button"
+                        className="font-mono text-glacier-700 hover:underline"
+                        aria-label={`Go to the apex of turn ${name}`}
+                        onClick={() => ws.seekToFrame(turn.apexFrame)}
+                      >
+                        {name}
+                      </button>
+                      {turn.complete ? null : (
+                        <span
+                          className="ml-1 text-xs font-normal text-granite-400"
+                          title="Cut by the start or end of the clip"
+                        >
+                          partial
+                        </span>
+                      )}
+                    </th>
+                    <td className="py-1.5 pr-3">{turn.direction === 'left' ? 'Left' : 'Right'}</td>
+                    <td className="py-1.5 pr-3 text-right font-mono tabular-nums">
+                      {(turn.durationMs / 1000).toFixed(2)} s
+                    </td>
+                    <td className="py-1.5 pr-3">{turn.insideSide === 'left' ? 'Left leg' : 'Right leg'}</td>
+                    {columns.map((key) => {
+                      const value = turn.apexValues[key];
+                      const flagged = own.some((f) => f.metric === key && f.frameIndex === turn.apexFrame);
+                      return (
+                        <td
+                          key={key}
+                          className={cn(
+                            'py-1.5 pr-3 text-right font-mono tabular-nums',
+                            flagged && 'text-alarm-600',
+                          )}
+                        >
+                          {value === null ? '—' : formatMetricValue(value, METRIC_DEFINITIONS[key].unit)}
+                          {flagged ? <span className="sr-only"> (outside band)</span> : null}
+                        </td>
+                      );
+                    })}
+                    <td
+                      className={cn(
+                        'py-1.5 pr-3 text-right font-mono tabular-nums',
+                        riseFlag && 'text-alarm-600',
+                      )}
+                    >
+                      {turn.transitionRise === null ? '—' : turn.transitionRise.toFixed(2)}
+                      {riseFlag ? <span className="sr-only"> (outside band)</span> : null}
+                    </td>
+                    <td className="py-1.5">
+                      {own.length > 0 ? (
+                        <span className="inline-flex items-center gap-1 text-alarm-600">
+                          <Flag aria-hidden="true" className="h-3.5 w-3.5" />
+                          <span className="font-mono tabular-nums">
+                            {new Set(own.map((f) => f.metric)).size}
+                          </span>
+                          <span className="sr-only">metrics outside band</span>
+                        </span>
+                      ) : (
+                        <span className="text-granite-400">none</span>
+                      )}
+                    </td>
+                  </tr>
+                );
+              })}
+            </tbody>
+          </table>
+        </div>
+      )}
+    </section>
+  );
+}
