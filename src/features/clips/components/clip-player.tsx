@@ -56,6 +56,8 @@ export function ClipPlayer({ clip, onRenewUrl }: ClipPlayerProps) {
           className="aspect-video w-full bg-glacier-950 object-contain"
           onLoadedMetadata={(event) => {
             if (resumeAt.current > 0) event.currentTarget.currentTime = resumeAt.current;
+            // Loaded fine: a later expiry of this URL gets its own silent renewal.
+            renewed.current = false;
             setError(null);
           }}
           onError={() => void handleError()}
