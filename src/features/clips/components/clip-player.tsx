@@ -9,12 +9,17 @@ interface ClipPlayerProps {
   onRenewUrl: () => Promise<unknown>;
 }
 
+// MediaError codes from the HTML standard (2 network, 3 decode, 4 source not supported).
+const MEDIA_ERR_NETWORK = 2;
+const MEDIA_ERR_DECODE = 3;
+const MEDIA_ERR_SRC_NOT_SUPPORTED = 4;
+
 function describeMediaError(error: MediaError | null): string {
   switch (error?.code) {
-    case MediaError.MEDIA_ERR_NETWORK:
+    case MEDIA_ERR_NETWORK:
       return 'The video stopped loading. Check your connection.';
-    case MediaError.MEDIA_ERR_DECODE:
-    case MediaError.MEDIA_ERR_SRC_NOT_SUPPORTED:
+    case MEDIA_ERR_DECODE:
+    case MEDIA_ERR_SRC_NOT_SUPPORTED:
       return 'This browser cannot play the clip as it was filmed (some phones record HEVC). A playable copy is made on the server once processing is available.';
     default:
       return 'The video could not be played.';
