@@ -62,11 +62,11 @@ const envSchema = z.object({
   BCRYPT_ROUNDS: z.coerce.number().int().min(4).max(15).default(10),
   /** Sign-in attempts allowed per address and e-mail within 15 minutes. */
   LOGIN_RATE_LIMIT: z.coerce.number().int().positive().default(20),
-  /** Set the Secure flag on the refresh cookie (turn on behind HTTPS). */
+  /** Secure flag on the refresh cookie. Unset: on when PUBLIC_URL is https. */
   COOKIE_SECURE: z
     .enum(['true', 'false'])
-    .default('false')
-    .transform((v) => v === 'true'),
+    .optional()
+    .transform((v) => (v === undefined ? undefined : v === 'true')),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
 });
 
@@ -138,7 +138,7 @@ export function loadConfig(env: Record<string, string | undefined>): Config {
     invitationTtlMs: e.INVITATION_TTL,
     bcryptRounds: e.BCRYPT_ROUNDS,
     loginRateLimit: e.LOGIN_RATE_LIMIT,
-    cookieSecure: e.COOKIE_SECURE,
+    cookieSecure: e.COOKIE_SECURE ?? Boolean(e.PUBLIC_URL?.startsWith('https://')),
     logLevel: e.LOG_LEVEL,
   };
 }

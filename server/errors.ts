@@ -7,8 +7,10 @@ export class HttpError extends Error {
     readonly code: string,
     message: string,
     readonly details?: unknown,
+    /** The underlying failure; logged for 5xx answers, never sent to the client. */
+    options?: { cause?: unknown },
   ) {
-    super(message);
+    super(message, options);
   }
 }
 

@@ -41,8 +41,10 @@ export function createErrorHandler(opts: { maxUploadBytes: number }): ErrorReque
   return (error: unknown, req, res, next) => {
     if (res.headersSent) return next(error);
     let http: HttpError;
-    if (error instanceof HttpError) http = error;
-    else if (error instanceof ZodError) {
+    if (error instanceof HttpError) {
+      http = error;
+      if (http.status >= 500) req.log?.error({ err: http.cause ?? http, code: http.code }, http.message);
+    } else if (error instanceof ZodError) {
       http = new HttpError(
         400,
         'validation_failed',

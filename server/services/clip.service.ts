@@ -145,7 +145,15 @@ export class ClipService {
       const id = randomUUID();
       const key = `clubs/${principal.clubId}/clips/${id}/original.${sniff.ext}`;
       storedKey = key;
-      await this.storage.putFile(key, file.path, sniff.mime);
+      await this.storage.putFile(key, file.path, sniff.mime).catch((error: Error) => {
+        throw new HttpError(
+          503,
+          'storage_unavailable',
+          'Clip storage cannot be reached; the upload was not kept. Try again.',
+          undefined,
+          { cause: error },
+        );
+      });
 
       const clip: Clip = {
         id,

@@ -105,9 +105,13 @@ export class InvitationService {
     } catch (error) {
       // No mail, no invitation: a link nobody received must not stay valid.
       await authRepo.deleteInvitation(invitation.id);
-      throw new HttpError(502, 'mail_failed', 'The invitation e-mail could not be sent; try again later', {
-        reason: (error as Error).message,
-      });
+      throw new HttpError(
+        502,
+        'mail_failed',
+        'The invitation e-mail could not be sent; try again later',
+        undefined,
+        { cause: error },
+      );
     }
     await this.audit.record(manager, {
       clubId: principal.clubId,

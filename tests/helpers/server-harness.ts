@@ -5,7 +5,7 @@ import type { Express } from 'express';
 import supertest from 'supertest';
 import type TestAgent from 'supertest/lib/agent';
 import type { LoginResponse } from '@shared/schemas/auth.schema';
-import { createApp } from '@server/app';
+import { createApp, type AppDeps } from '@server/app';
 import { loadConfig, type Config } from '@server/config';
 import { createLogger } from '@server/logger';
 import { startRuntime, type Runtime } from '@server/runtime';
@@ -37,6 +37,8 @@ export interface TestServer {
   runtime: Runtime;
   clock: TestClock;
   dataDir: string;
+  /** Another app on the same database and stand-ins, with some dependencies swapped (failure tests). */
+  buildApp(overrides: Partial<AppDeps>): Express;
   login(role: DemoRole): Promise<LoginResponse & { cookie: string }>;
   /** Bearer header for a demo role, signing in once and reusing the token. */
   bearer(role: DemoRole): Promise<{ Authorization: string }>;
@@ -65,7 +67,7 @@ export async function createTestServer(env: Record<string, string> = {}): Promis
   const runtime = await startRuntime(config);
   const clock = new TestClock();
   await seedDemoClub(runtime.dataSource, { bcryptRounds: config.bcryptRounds, clock });
-  const app = createApp({
+  const deps: AppDeps = {
     config,
     dataSource: runtime.dataSource,
     storage: runtime.storage,
@@ -75,7 +77,8 @@ export async function createTestServer(env: Record<string, string> = {}): Promis
     publicUrl: config.publicUrl!,
     logger: createLogger('silent'),
     clock,
-  });
+  };
+  const app = createApp(deps);
   const http = supertest(app);
   const tokens = new Map<DemoRole, string>();
 
@@ -101,6 +104,7 @@ export async function createTestServer(env: Record<string, string> = {}): Promis
     runtime,
     clock,
     dataDir,
+    buildApp: (overrides) => createApp({ ...deps, ...overrides }),
     login,
     async bearer(role) {
       if (!tokens.has(role)) tokens.set(role, (await login(role)).accessToken);

@@ -107,6 +107,13 @@ describe('upload round trip', () => {
     expect(Buffer.compare(tail.body as Buffer, video.bytes.subarray(size - 500))).toBe(0);
   });
 
+  it('answers HEAD with the headers of the full answer and no body', async () => {
+    const res = await server.http.head(mediaUrl);
+    expect(res.status).toBe(200);
+    expect(res.headers['content-length']).toBe(String(video.bytes.length));
+    expect(res.headers['accept-ranges']).toBe('bytes');
+  });
+
   it('answers a range past the end with 416 and the size', async () => {
     const size = video.bytes.length;
     const res = await server.http.get(mediaUrl).set('Range', `bytes=${size + 10}-${size + 20}`);
