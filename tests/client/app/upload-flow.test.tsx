@@ -4,32 +4,26 @@ import userEvent from '@testing-library/user-event';
 import { http, HttpResponse } from 'msw';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import type { ClipDto } from '@shared/schemas/clip.schema';
-import { ATHLETE_NO_CONSENT, ATHLETE_WITH_CONSENT, SESSION, userWith } from '../helpers/demo-data';
+import {
+  ATHLETE_NO_CONSENT,
+  ATHLETE_WITH_CONSENT,
+  clipFixture,
+  SESSION,
+  userWith,
+} from '../helpers/demo-data';
 import { createApiMock, ORIGIN, renderApp, resetSession } from '../helpers/render-app';
 
 const api = createApiMock();
 const coach = userWith('coach');
 
 function clipFrom(fields: Record<string, string>, file: File): ClipDto {
-  return {
-    id: '70000000-0000-4000-8000-000000000001',
+  return clipFixture({
     sessionId: fields.sessionId,
-    athletes: [{ id: ATHLETE_WITH_CONSENT.id, name: 'Pia Underhill' }],
     view: fields.view as ClipDto['view'],
     status: 'uploaded',
-    failureReason: null,
     originalName: file.name,
     sizeBytes: file.size,
-    codec: null,
-    width: null,
-    height: null,
-    fps: null,
-    frameCount: null,
-    durationMs: null,
-    createdAt: '2026-12-14T12:00:00.000Z',
-    mediaUrl: '/api/clips/70000000-0000-4000-8000-000000000001/media?token=t',
-    posterUrl: null,
-  };
+  });
 }
 
 beforeAll(() => api.listen({ onUnhandledRequest: 'error' }));

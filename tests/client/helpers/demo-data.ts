@@ -1,5 +1,6 @@
 import type { AthleteDetailDto, AgeGroupDto } from '@shared/schemas/athlete.schema';
 import type { Role, UserDto } from '@shared/schemas/auth.schema';
+import type { ClipDto } from '@shared/schemas/clip.schema';
 import type { SessionDto } from '@shared/schemas/session.schema';
 
 // Invented records for client tests; ids are fixed UUIDs so schemas accept them.
@@ -54,3 +55,28 @@ export const SESSION: SessionDto = {
   notes: null,
   clipCount: 0,
 };
+
+const CLIP_BASE = {
+  id: '70000000-0000-4000-8000-000000000001',
+  sessionId: SESSION.id,
+  athletes: [{ id: ATHLETE_WITH_CONSENT.id, name: 'Pia Underhill' }],
+  view: 'side',
+  status: 'ready',
+  failureReason: null,
+  originalName: 'gs-run-3.mp4',
+  sizeBytes: 4096,
+  codec: 'h264',
+  width: 640,
+  height: 360,
+  fps: 30,
+  frameCount: 90,
+  durationMs: 3000,
+  createdAt: '2026-12-14T12:00:00.000Z',
+  mediaUrl: '/api/clips/70000000-0000-4000-8000-000000000001/media?token=t',
+  posterUrl: null,
+} satisfies Partial<ClipDto>;
+
+/** A clip as the API returns it; fields that later issues add and these tests do not read stay unset. */
+export function clipFixture(overrides: Partial<ClipDto> = {}): ClipDto {
+  return { ...CLIP_BASE, ...overrides } as ClipDto;
+}

@@ -1,28 +1,14 @@
 // @vitest-environment happy-dom
 import { act, cleanup, fireEvent, render, screen } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import type { ClipDto } from '@shared/schemas/clip.schema';
 import { ClipPlayer } from '@/features/clips/components/clip-player';
+import { clipFixture } from '../../helpers/demo-data';
 
-const clip: ClipDto = {
+const clip = clipFixture({
   id: '70000000-0000-4000-8000-000000000009',
-  sessionId: '60000000-0000-4000-8000-000000000001',
-  athletes: [],
-  view: 'side',
-  status: 'ready',
-  failureReason: null,
   originalName: 'turns.mp4',
-  sizeBytes: 1000,
-  codec: 'h264',
-  width: 640,
-  height: 360,
-  fps: 30,
-  frameCount: 90,
-  durationMs: 3000,
-  createdAt: '2026-12-14T12:00:00.000Z',
   mediaUrl: '/api/clips/70000000-0000-4000-8000-000000000009/media?token=first',
-  posterUrl: null,
-};
+});
 
 afterEach(cleanup);
 
