@@ -53,7 +53,8 @@ export const routes: RouteObject[] = [
               {
                 path: paths.clip.path,
                 lazy: async () => ({
-                  Component: (await import('@/features/clips/routes/clip-route')).ClipRoute,
+                  Component: (await import('@/features/clip-workspace/routes/clip-workspace-route'))
+                    .ClipWorkspaceRoute,
                 }),
               },
               {

@@ -60,6 +60,11 @@ export interface PoseFrameResult extends FrameKeypoints {
   confidence: Partial<Record<MetricKey, number>>;
 }
 
+/** Overlays a coach can switch on and off. */
+export type OverlayKey = 'skeleton' | 'angleArcs' | 'tiltGauge' | 'widthBars';
+export type OverlayToggles = Record<OverlayKey, boolean>;
+const ALL_OVERLAYS: OverlayToggles = { skeleton: true, angleArcs: true, tiltGauge: true, widthBars: true };
+
 export type PoseStatus =
   | { state: 'idle' }
   | { state: 'detecting'; frameIndex: number }
@@ -74,6 +79,8 @@ export interface WorkspaceState {
   currentFrame: number;
   currentTimeMs: number;
   playing: boolean;
+  /** The visible video has a decoded frame to show (readyState >= HAVE_CURRENT_DATA). */
+  mediaReady: boolean;
   /** Pauses, seeks exactly, updates currentFrame when the frame is shown. */
   seekToFrame(frameIndex: number): void;
   seekToTimeMs(ms: number): void;
@@ -121,6 +128,17 @@ export interface WorkspaceState {
   setFrameKeypoints(next: FrameKeypoints | null): void;
   poseStatus: PoseStatus;
   setPoseStatus(status: PoseStatus): void;
+  /** Corrections made on this page, by correctionKey(model, frame); they win over detection and storage. */
+  corrections: ReadonlyMap<string, FrameKeypoints>;
+  /** Shows corrected keypoints at once and remembers them for the frame (saving is the caller's). */
+  applyCorrection(next: FrameKeypoints): void;
+  overlays: OverlayToggles;
+  setOverlay(key: OverlayKey, on: boolean): void;
+  /** While on, the snow line's two handles can be dragged on the stage. */
+  snowLineEditing: boolean;
+  setSnowLineEditing(on: boolean): void;
+  /** Media problems (expired link, codec) are reported here by the player. */
+  renewMedia(): Promise<unknown>;
 }
 
 const WorkspaceContext = createContext<WorkspaceState | null>(null);
@@ -131,6 +149,8 @@ export function useWorkspace(): WorkspaceState {
   return state;
 }
 
+export const correctionKey = (model: PoseModelName, frameIndex: number) => `${model}:${frameIndex}`;
+
 export const PLAYBACK_RATES = [0.25, 0.5, 1] as const;
 const DEFAULT_FPS = 30;
 
@@ -139,7 +159,14 @@ function sizeOf(el: HTMLElement): Size {
   return { width: rect.width, height: rect.height };
 }
 
-export function WorkspaceProvider({ clip, children }: { clip: ClipDto; children: ReactNode }) {
+interface WorkspaceProviderProps {
+  clip: ClipDto;
+  /** Fetches a fresh signed media URL (the old one may expire while the page is open). */
+  renewMedia: () => Promise<unknown>;
+  children: ReactNode;
+}
+
+export function WorkspaceProvider({ clip, renewMedia, children }: WorkspaceProviderProps) {
   const extras = clipExtras(clip);
   const toast = useToast();
   const updateClip = useUpdateClip(clip.id);
@@ -163,12 +190,24 @@ export function WorkspaceProvider({ clip, children }: { clip: ClipDto; children:
   const [currentFrame, setCurrentFrame] = useState(0);
   const [currentTimeMs, setCurrentTimeMs] = useState(0);
   const [playing, setPlaying] = useState(false);
+  const [mediaReady, setMediaReady] = useState(false);
   const [playbackRate, setRate] = useState(1);
   const [model, setModelState] = useState<PoseModelName>(extras.defaultModel ?? 'lightning');
   const [referenceLine, setReferenceLineState] = useState<ReferenceLine | null>(extras.referenceLine ?? null);
   const [drawingActive, setDrawingActive] = useState(false);
   const [frameKeypoints, setFrameKeypoints] = useState<FrameKeypoints | null>(null);
   const [poseStatus, setPoseStatus] = useState<PoseStatus>({ state: 'idle' });
+  const [overlays, setOverlays] = useState<OverlayToggles>(ALL_OVERLAYS);
+  const [corrections, setCorrections] = useState<ReadonlyMap<string, FrameKeypoints>>(new Map());
+  const applyCorrection = useCallback((next: FrameKeypoints) => {
+    setCorrections((all) => new Map(all).set(correctionKey(next.model, next.frameIndex), next));
+    setFrameKeypoints(next);
+  }, []);
+  const [snowLineEditing, setSnowLineEditing] = useState(false);
+  const setOverlay = useCallback(
+    (key: OverlayKey, on: boolean) => setOverlays((all) => ({ ...all, [key]: on })),
+    [],
+  );
 
   // The frame last asked for; steps count from it so quick presses are not lost while a seek runs.
   const targetFrame = useRef<number | null>(null);
@@ -217,11 +256,16 @@ export function WorkspaceProvider({ clip, children }: { clip: ClipDto; children:
     const onClock = () => {
       if (!hasFrameCallback) report(videoEl.currentTime);
     };
+    const onReady = () => setMediaReady(videoEl.readyState >= 2);
     const onPlay = () => setPlaying(true);
     const onPause = () => setPlaying(false);
     const onRate = () => setRate(videoEl.playbackRate);
     onMetadata();
+    onReady();
     setPlaying(!videoEl.paused);
+    videoEl.addEventListener('loadeddata', onReady);
+    videoEl.addEventListener('canplay', onReady);
+    videoEl.addEventListener('emptied', onReady);
     videoEl.addEventListener('loadedmetadata', onMetadata);
     videoEl.addEventListener('resize', onMetadata);
     videoEl.addEventListener('seeked', onClock);
@@ -233,6 +277,9 @@ export function WorkspaceProvider({ clip, children }: { clip: ClipDto; children:
     return () => {
       cancelled = true;
       if (handle !== null) videoEl.cancelVideoFrameCallback(handle);
+      videoEl.removeEventListener('loadeddata', onReady);
+      videoEl.removeEventListener('canplay', onReady);
+      videoEl.removeEventListener('emptied', onReady);
       videoEl.removeEventListener('loadedmetadata', onMetadata);
       videoEl.removeEventListener('resize', onMetadata);
       videoEl.removeEventListener('seeked', onClock);
@@ -378,6 +425,7 @@ export function WorkspaceProvider({ clip, children }: { clip: ClipDto; children:
     currentFrame,
     currentTimeMs,
     playing,
+    mediaReady,
     seekToFrame,
     seekToTimeMs,
     model,
@@ -411,6 +459,13 @@ export function WorkspaceProvider({ clip, children }: { clip: ClipDto; children:
     setFrameKeypoints,
     poseStatus,
     setPoseStatus,
+    corrections,
+    applyCorrection,
+    overlays,
+    setOverlay,
+    snowLineEditing,
+    setSnowLineEditing,
+    renewMedia,
   };
 
   return <WorkspaceContext.Provider value={value}>{children}</WorkspaceContext.Provider>;

@@ -70,8 +70,9 @@ export function clampView(view: ViewTransform, stage: Size): ViewTransform {
   const minY = -(zoom - 1) * stage.height;
   return {
     zoom,
-    panX: Math.min(0, Math.max(minX, view.panX)),
-    panY: Math.min(0, Math.max(minY, view.panY)),
+    // "+ 0" turns -0 into 0 so an unpanned view compares equal to the identity.
+    panX: Math.min(0, Math.max(minX, view.panX)) + 0,
+    panY: Math.min(0, Math.max(minY, view.panY)) + 0,
   };
 }
 

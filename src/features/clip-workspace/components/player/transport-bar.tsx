@@ -1,0 +1,130 @@
+import type { ReactNode } from 'react';
+import { ChevronLeft, ChevronRight, Pause, Play, Minus, Plus, Maximize } from 'lucide-react';
+import { cn } from '@/lib/format';
+import { formatClipTime, frameStartMs } from '../../lib/frame-time';
+import { PLAYBACK_RATES, useWorkspace } from '../workspace-context';
+import { KeyboardHelp } from './keyboard-help';
+
+const ZOOM_STEP = 1.25;
+
+function IconButton({
+  label,
+  onClick,
+  children,
+  disabled,
+  primary,
+}: {
+  label: string;
+  onClick(): void;
+  children: ReactNode;
+  disabled?: boolean;
+  primary?: boolean;
+}) {
+  return (
+    <button
+      type="button"
+      aria-label={label}
+      title={label}
+      onClick={onClick}
+      disabled={disabled}
+      className={cn(
+        'inline-flex h-9 w-9 items-center justify-center rounded-md transition-colors focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-glacier-500 disabled:opacity-50',
+        primary
+          ? 'bg-glacier-700 text-white hover:bg-glacier-800'
+          : 'border border-granite-200 bg-white text-granite-800 hover:border-glacier-300 hover:bg-glacier-50',
+      )}
+    >
+      {children}
+    </button>
+  );
+}
+
+interface TransportBarProps {
+  helpOpen: boolean;
+  onHelpOpenChange(open: boolean): void;
+  /** Extra controls at the end of the bar (export menu). */
+  extra?: ReactNode;
+}
+
+/** Play/pause, exact frame steps, speed, the frame clock and zoom. */
+export function TransportBar({ helpOpen, onHelpOpenChange, extra }: TransportBarProps) {
+  const ws = useWorkspace();
+  const { currentFrame, frameCount, fps, playing, viewTransform } = ws;
+
+  return (
+    <div className="flex flex-wrap items-center gap-x-4 gap-y-2">
+      <div className="flex items-center gap-1.5">
+        <IconButton label="Previous frame" onClick={() => ws.stepFrames(-1)} disabled={currentFrame <= 0}>
+          <ChevronLeft aria-hidden="true" className="h-5 w-5" />
+        </IconButton>
+        {playing ? (
+          <IconButton label="Pause" onClick={ws.pause} primary>
+            <Pause aria-hidden="true" className="h-5 w-5" />
+          </IconButton>
+        ) : (
+          <IconButton label="Play" onClick={ws.play} primary>
+            <Play aria-hidden="true" className="h-5 w-5" />
+          </IconButton>
+        )}
+        <IconButton
+          label="Next frame"
+          onClick={() => ws.stepFrames(1)}
+          disabled={currentFrame >= frameCount - 1}
+        >
+          <ChevronRight aria-hidden="true" className="h-5 w-5" />
+        </IconButton>
+      </div>
+
+      <div
+        role="group"
+        aria-label="Playback speed"
+        className="flex rounded-md border border-granite-200 bg-white p-0.5"
+      >
+        {PLAYBACK_RATES.map((rate) => (
+          <button
+            key={rate}
+            type="button"
+            aria-pressed={ws.playbackRate === rate}
+            onClick={() => ws.setPlaybackRate(rate)}
+            className={cn(
+              'rounded px-2 py-1 font-mono text-xs tabular-nums',
+              ws.playbackRate === rate ? 'bg-glacier-700 text-white' : 'text-granite-600 hover:bg-glacier-50',
+            )}
+          >
+            {rate}×
+          </button>
+        ))}
+      </div>
+
+      <p className="font-mono text-sm text-granite-800 tabular-nums" aria-live="off">
+        <span className="text-granite-400">frame </span>
+        <span data-testid="current-frame">{currentFrame}</span>
+        <span className="text-granite-400"> / {frameCount - 1}</span>
+        <span className="mx-2 text-granite-200">|</span>
+        <span data-testid="current-time">{formatClipTime(frameStartMs(currentFrame, fps))}</span>
+        <span className="ml-2 text-xs text-granite-400">{Number(fps.toFixed(3))} fps</span>
+      </p>
+
+      <div className="ml-auto flex items-center gap-1.5">
+        <IconButton
+          label="Zoom out"
+          onClick={() => ws.zoomAt(viewTransform.zoom / ZOOM_STEP)}
+          disabled={viewTransform.zoom <= 1}
+        >
+          <Minus aria-hidden="true" className="h-4 w-4" />
+        </IconButton>
+        <span className="w-12 text-center font-mono text-xs text-granite-600 tabular-nums">
+          {Math.round(viewTransform.zoom * 100)}%
+        </span>
+        <IconButton label="Zoom in" onClick={() => ws.zoomAt(viewTransform.zoom * ZOOM_STEP)}>
+          <Plus aria-hidden="true" className="h-4 w-4" />
+        </IconButton>
+        <IconButton label="Whole frame" onClick={ws.resetZoom} disabled={viewTransform.zoom === 1}>
+          <Maximize aria-hidden="true" className="h-4 w-4" />
+        </IconButton>
+        <KeyboardHelp open={helpOpen} onOpenChange={onHelpOpenChange} />
+        {extra}
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,145 @@
+import { METRIC_DEFINITIONS, METRIC_KEYS, type MetricDefinition } from '@shared/metrics';
+import { POSE_MODEL_INFO } from '@shared/pose/pose-models';
+import { POSE_MODELS, type PoseModelName } from '@shared/keypoints';
+import { Spinner } from '@/components/ui/spinner';
+import { cn } from '@/lib/format';
+import { clipExtras } from '../../api/clip-contract';
+import {
+  checkMetricBands,
+  describeReason,
+  formatBandRange,
+  formatMetricValue,
+} from '../../lib/metric-format';
+import { useWorkspace, type PoseFrameResult, type PoseStatus } from '../workspace-context';
+
+const MODEL_SHORT: Record<PoseModelName, string> = {
+  lightning: 'Lightning (fast)',
+  thunder: 'Thunder (accurate)',
+  blazepose: 'BlazePose (feet)',
+};
+
+const ORIGIN_TEXT: Record<PoseFrameResult['origin'], string> = {
+  live: 'detected on this frame',
+  stored: 'from the stored analysis',
+  corrected: 'corrected by hand',
+};
+
+function StatusLine({ pose, status }: { pose: PoseFrameResult | null; status: PoseStatus }) {
+  if (status.state === 'detecting') {
+    return (
+      <p className="flex items-center gap-2 text-xs text-granite-600">
+        <Spinner size="sm" label="" /> Finding the skier in frame {status.frameIndex}…
+      </p>
+    );
+  }
+  if (status.state === 'error') {
+    return (
+      <p role="alert" className="text-xs text-alarm-600">
+        Frame {status.frameIndex}: {status.message}
+      </p>
+    );
+  }
+  if (!pose) return <p className="text-xs text-granite-600">Pause or step to measure the frame on screen.</p>;
+  return (
+    <p className="text-xs text-granite-600">
+      Frame <span className="font-mono tabular-nums">{pose.frameIndex}</span>, {ORIGIN_TEXT[pose.origin]}
+      {pose.keypoints.length === 0 ? ': no skier found' : null}
+    </p>
+  );
+}
+
+function MetricRow({ definition, pose }: { definition: MetricDefinition; pose: PoseFrameResult | null }) {
+  const { bands, clip } = useWorkspace();
+  const value = pose?.metrics[definition.key] ?? null;
+  const confidence = pose?.confidence[definition.key];
+  const check = value === null ? null : checkMetricBands(definition.key, value, bands);
+  const outside = check?.state === 'outside';
+  const ageGroup = clipExtras(clip).ageGroup?.name;
+
+  return (
+    <li
+      className={cn(
+        'grid grid-cols-[1fr_auto] gap-x-3 gap-y-0.5 border-b border-granite-100 px-3 py-2 last:border-b-0',
+        outside && 'bg-alarm-500/5',
+      )}
+      data-metric={definition.key}
+    >
+      <span className="text-sm text-granite-800" title={definition.description}>
+        {definition.label}
+      </span>
+      <span
+        className={cn(
+          'text-right font-mono text-sm tabular-nums',
+          value === null ? 'text-granite-400' : outside ? 'font-semibold text-alarm-600' : 'text-granite-900',
+        )}
+      >
+        {value === null ? '—' : formatMetricValue(value, definition.unit)}
+        {outside ? (
+          <span className="ml-1" aria-label="outside band" title="Outside the age-group band">
+            ▲
+          </span>
+        ) : null}
+      </span>
+      <span className="col-span-2 text-xs text-granite-400">
+        {value === null ? (
+          pose ? (
+            <>No value: {describeReason(pose.reasons[definition.key])}</>
+          ) : (
+            'Not measured yet'
+          )
+        ) : (
+          <>
+            {confidence !== undefined ? (
+              <span className={cn(confidence < 0.5 && 'text-signal-700')}>
+                points {Math.round(confidence * 100)}% sure
+              </span>
+            ) : null}
+            {check && check.state !== 'none' ? (
+              <span className={cn('ml-2', outside ? 'text-alarm-600' : 'text-spruce-600')}>
+                {outside ? 'outside' : 'within'} {ageGroup ?? 'age-group'} band{' '}
+                {formatBandRange(check.band, definition.unit)}
+                {check.band.source === 'common practice' ? ' (common practice)' : ''}
+              </span>
+            ) : null}
+          </>
+        )}
+      </span>
+    </li>
+  );
+}
+
+/** Every metric of the clip's view for the frame on screen, with units, confidence and band marks. */
+export function ReadoutsPanel() {
+  const { view, currentPose, poseStatus, model, setModel } = useWorkspace();
+  const definitions = METRIC_KEYS.map((key) => METRIC_DEFINITIONS[key]).filter((d) => d.views.includes(view));
+
+  return (
+    <section aria-label="Readouts" className="rounded-lg border border-granite-200 bg-white">
+      <header className="space-y-2 border-b border-granite-200 px-3 py-2.5">
+        <div className="flex items-center justify-between gap-2">
+          <h2 className="text-sm font-semibold text-granite-900">Readouts</h2>
+          <label className="flex items-center gap-1.5 text-xs text-granite-600">
+            Pose model
+            <select
+              value={model}
+              onChange={(event) => setModel(event.target.value as PoseModelName)}
+              className="rounded border border-granite-200 bg-white px-1.5 py-1 text-xs text-granite-800"
+            >
+              {POSE_MODELS.map((name) => (
+                <option key={name} value={name} title={POSE_MODEL_INFO[name].label}>
+                  {MODEL_SHORT[name]}
+                </option>
+              ))}
+            </select>
+          </label>
+        </div>
+        <StatusLine pose={currentPose} status={poseStatus} />
+      </header>
+      <ul>
+        {definitions.map((definition) => (
+          <MetricRow key={definition.key} definition={definition} pose={currentPose} />
+        ))}
+      </ul>
+    </section>
+  );
+}

@@ -1,0 +1,119 @@
+import { useEffect, useMemo, useRef } from 'react';
+import type { Keypoint, KeypointName, PoseModelName } from '@shared/keypoints';
+import { errorMessage } from '@/lib/api-client';
+import { getPoseClient } from '@/lib/pose-client';
+import { useClipFrames } from '../api/get-clip-frames';
+import { correctionKey, useWorkspace, type FrameKeypoints } from '../components/workspace-context';
+import { frameStartMs } from '../lib/frame-time';
+
+/** A point the coach placed by hand is stored with full confidence; that is how it is recognised later. */
+export const CORRECTED_SCORE = 1;
+
+export function correctedNames(keypoints: readonly Keypoint[]): KeypointName[] {
+  return keypoints.filter((k) => k.score === CORRECTED_SCORE).map((k) => k.name);
+}
+
+/**
+ * Keeps frameKeypoints in step with the frame on screen: a correction made here wins, then the stored
+ * analysis (a second visit needs no detection), then live detection on the displayed frame whenever
+ * playback is paused. Live results are cached per model and frame, so stepping back costs nothing.
+ */
+export function useFramePose() {
+  const ws = useWorkspace();
+  const { clip, currentFrame, playing, mediaReady, model, view, fps, videoRef, videoSize } = ws;
+  const { setFrameKeypoints, setPoseStatus, corrections } = ws;
+  const stored = useClipFrames(clip.id, model);
+  const storedByFrame = useMemo(() => {
+    const map = new Map<number, FrameKeypoints>();
+    for (const frame of stored.data?.frames ?? []) {
+      const moved = frame.corrected ? correctedNames(frame.keypoints) : [];
+      map.set(frame.frameIndex, {
+        frameIndex: frame.frameIndex,
+        timeMs: frame.timeMs,
+        model,
+        keypoints: frame.keypoints,
+        width: videoSize.width,
+        height: videoSize.height,
+        origin: frame.corrected ? 'corrected' : 'stored',
+        correctedPoints: moved,
+      });
+    }
+    return map;
+  }, [stored.data, model, videoSize.width, videoSize.height]);
+
+  const liveCache = useRef(new Map<string, FrameKeypoints>());
+  // Tracking state in the detector is only valid for the next frame of the same model.
+  const lastDetected = useRef<{ model: PoseModelName; frameIndex: number } | null>(null);
+  const request = useRef(0);
+
+  useEffect(() => {
+    const key = correctionKey(model, currentFrame);
+    const known = corrections.get(key) ?? storedByFrame.get(currentFrame) ?? liveCache.current.get(key);
+    if (known) {
+      setFrameKeypoints(known);
+      setPoseStatus({ state: 'idle' });
+      return;
+    }
+    // Detection waits for a still frame; while playing only stored frames are shown.
+    if (playing || stored.isPending || !mediaReady) return;
+    const video = videoRef.current;
+    if (!video || video.seeking) return;
+
+    const id = ++request.current;
+    const frameIndex = currentFrame;
+    setPoseStatus({ state: 'detecting', frameIndex });
+    void (async () => {
+      try {
+        const client = getPoseClient();
+        const previous = lastDetected.current;
+        if (!previous || previous.model !== model || previous.frameIndex !== frameIndex - 1)
+          await client.reset();
+        const bitmap = await createImageBitmap(video);
+        const result = await client.detect(bitmap, {
+          frameIndex,
+          timeMs: frameStartMs(frameIndex, fps),
+          model,
+          view,
+        });
+        lastDetected.current = { model, frameIndex };
+        const entry: FrameKeypoints = {
+          frameIndex,
+          timeMs: result.timeMs,
+          model,
+          keypoints: result.keypoints,
+          width: result.width,
+          height: result.height,
+          origin: 'live',
+          correctedPoints: [],
+        };
+        liveCache.current.set(correctionKey(model, frameIndex), entry);
+        if (id !== request.current) return;
+        setFrameKeypoints(entry);
+        setPoseStatus({ state: 'idle' });
+      } catch (error) {
+        if (id !== request.current) return;
+        lastDetected.current = null;
+        setPoseStatus({
+          state: 'error',
+          frameIndex,
+          message: `pose detection failed: ${errorMessage(error)}`,
+        });
+      }
+    })();
+  }, [
+    currentFrame,
+    playing,
+    mediaReady,
+    model,
+    view,
+    fps,
+    videoRef,
+    corrections,
+    storedByFrame,
+    stored.isPending,
+    setFrameKeypoints,
+    setPoseStatus,
+  ]);
+
+  return { storedCount: storedByFrame.size, storedError: stored.error };
+}

@@ -1,0 +1,77 @@
+import { useEffect } from 'react';
+import { PLAYBACK_RATES, useWorkspace } from '../components/workspace-context';
+import { commandForKey, JUMP_FRAMES } from '../lib/keyboard-map';
+
+const ZOOM_STEP = 1.25;
+
+function isTyping(target: EventTarget | null): boolean {
+  if (!(target instanceof HTMLElement)) return false;
+  if (target.isContentEditable) return true;
+  // A focused slider already steps with the arrows; the page must not step a second time.
+  return ['INPUT', 'TEXTAREA', 'SELECT'].includes(target.tagName);
+}
+
+/** Page-wide keys of the workspace (see lib/keyboard-map.ts). */
+export function useWorkspaceKeys(options: { toggleHelp(): void }) {
+  const ws = useWorkspace();
+  const { toggleHelp } = options;
+
+  useEffect(() => {
+    const onKey = (event: KeyboardEvent) => {
+      if (event.defaultPrevented || isTyping(event.target)) return;
+      const command = commandForKey(event);
+      if (!command) return;
+      // Space on a focused button would click it as well as toggle playback.
+      event.preventDefault();
+      const rateIndex = PLAYBACK_RATES.indexOf(ws.playbackRate as (typeof PLAYBACK_RATES)[number]);
+      switch (command) {
+        case 'toggle-play':
+          ws.togglePlay();
+          break;
+        case 'step-back':
+          ws.stepFrames(-1);
+          break;
+        case 'step-forward':
+          ws.stepFrames(1);
+          break;
+        case 'jump-back':
+          ws.stepFrames(-JUMP_FRAMES);
+          break;
+        case 'jump-forward':
+          ws.stepFrames(JUMP_FRAMES);
+          break;
+        case 'first-frame':
+          ws.seekToFrame(0);
+          break;
+        case 'last-frame':
+          ws.seekToFrame(ws.frameCount - 1);
+          break;
+        case 'slower':
+          ws.setPlaybackRate(PLAYBACK_RATES[Math.max(0, rateIndex - 1)] ?? PLAYBACK_RATES[0]);
+          break;
+        case 'faster':
+          ws.setPlaybackRate(
+            PLAYBACK_RATES[Math.min(PLAYBACK_RATES.length - 1, rateIndex + 1)] ?? PLAYBACK_RATES[0],
+          );
+          break;
+        case 'zoom-in':
+          ws.zoomAt(ws.viewTransform.zoom * ZOOM_STEP);
+          break;
+        case 'zoom-out':
+          ws.zoomAt(ws.viewTransform.zoom / ZOOM_STEP);
+          break;
+        case 'zoom-fit':
+          ws.resetZoom();
+          break;
+        case 'snow-line':
+          ws.setSnowLineEditing(!ws.snowLineEditing);
+          break;
+        case 'help':
+          toggleHelp();
+          break;
+      }
+    };
+    window.addEventListener('keydown', onKey);
+    return () => window.removeEventListener('keydown', onKey);
+  }, [ws, toggleHelp]);
+}

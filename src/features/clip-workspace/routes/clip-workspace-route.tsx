@@ -1,0 +1,100 @@
+import { useCallback, useState } from 'react';
+import { Link, useParams } from 'react-router-dom';
+import { Notice } from '@/components/ui/notice';
+import { PageHeader } from '@/components/ui/page-header';
+import { QueryError } from '@/components/ui/query-error';
+import { PageSpinner, Spinner } from '@/components/ui/spinner';
+import { paths } from '@/config/paths';
+import type { ClipDto } from '@shared/schemas/clip.schema';
+import { clipExtras } from '../api/clip-contract';
+import { useWorkspaceClip } from '../api/get-workspace-clip';
+import { OverlayToolbar } from '../components/overlays/overlay-toolbar';
+import { PoseOverlay } from '../components/overlays/pose-overlay';
+import { ScrubBar } from '../components/player/scrub-bar';
+import { ReadoutsPanel } from '../components/readouts/readouts-panel';
+import { TransportBar } from '../components/player/transport-bar';
+import { VideoStage } from '../components/stage/video-stage';
+import { WorkspaceProvider } from '../components/workspace-context';
+import { useFramePose } from '../hooks/use-frame-pose';
+import { useWorkspaceKeys } from '../hooks/use-workspace-keys';
+
+export function ClipWorkspaceRoute() {
+  const { clipId = '' } = useParams();
+  const query = useWorkspaceClip(clipId);
+
+  if (query.isPending) return <PageSpinner label="Loading the clip" />;
+  if (query.isError)
+    return <QueryError error={query.error} what="this clip" retry={() => void query.refetch()} />;
+
+  const clip = query.data.clip;
+  return (
+    <>
+      <ClipHeader clip={clip} />
+      {clip.status === 'failed' ? (
+        <Notice tone="error" title="This clip could not be prepared">
+          <p>{clip.failureReason ?? 'The server could not read the video.'}</p>
+          <p className="mt-1">Upload the clip again, or try another file from the phone.</p>
+        </Notice>
+      ) : clip.status !== 'ready' ? (
+        <Notice tone="info" title="Preparing the clip">
+          <p className="flex items-center gap-2">
+            <Spinner size="sm" label="" />
+            The server is making a playable copy, a poster and the thumbnail strip. This page opens the
+            workspace by itself when it is done.
+          </p>
+        </Notice>
+      ) : (
+        <WorkspaceProvider key={clip.id} clip={clip} renewMedia={() => query.refetch()}>
+          <Workspace />
+        </WorkspaceProvider>
+      )}
+    </>
+  );
+}
+
+function ClipHeader({ clip }: { clip: ClipDto }) {
+  const ageGroup = clipExtras(clip).ageGroup?.name;
+  return (
+    <PageHeader
+      title={clip.originalName}
+      back={
+        <Link to={paths.session.href(clip.sessionId)} className="text-glacier-700 hover:underline">
+          ← Training session
+        </Link>
+      }
+      subtitle={[
+        clip.athletes.map((a) => a.name).join(', ') || 'No athlete tagged',
+        clip.view === 'front' ? 'front view' : 'side view',
+        ageGroup ? `age group ${ageGroup}` : null,
+      ]
+        .filter(Boolean)
+        .join(' · ')}
+    />
+  );
+}
+
+function Workspace() {
+  const [helpOpen, setHelpOpen] = useState(false);
+  const toggleHelp = useCallback(() => setHelpOpen((open) => !open), []);
+  useWorkspaceKeys({ toggleHelp });
+  useFramePose();
+
+  return (
+    <div className="grid gap-6 xl:grid-cols-[minmax(0,1fr)_23rem]">
+      <div className="min-w-0 space-y-3">
+        <OverlayToolbar />
+        <VideoStage overlay={<PoseOverlay />} />
+        <ScrubBar />
+        <TransportBar helpOpen={helpOpen} onHelpOpenChange={setHelpOpen} />
+      </div>
+      <aside className="space-y-4">
+        <ReadoutsPanel />
+        <Notice tone="info" title="2D estimates, not medical advice">
+          Angles come from one camera and depend on where it stood and how sure the pose model is of each
+          joint. They are a coaching aid, not a medical or injury assessment: pain or injury goes to a
+          licensed professional. Defer to certified coaching standards and local rules.
+        </Notice>
+      </aside>
+    </div>
+  );
+}
