@@ -1,0 +1,137 @@
+import { useEffect, useId, useRef, useState } from 'react';
+import { Captions, ChevronDown, Download, ImageDown } from 'lucide-react';
+import { Button } from '@/components/ui/button';
+import { useToast } from '@/components/ui/toast';
+import { errorMessage } from '@/lib/api-client';
+import { useExportNotesVtt } from '../../api/export-notes-vtt';
+import { formatClipTime } from '../../lib/frame-time';
+import { drawOverlays } from '../overlays/draw-overlays';
+import { useFrameDrawings } from '../notes/use-frame-drawings';
+import { useWorkspace } from '../workspace-context';
+import { canvasToPng, composeStill } from './compose-still';
+import { saveBlob, stillFileName } from './save-file';
+
+/** Still image of the frame with overlays and drawings, and the notes as WebVTT captions. */
+export function ExportMenu() {
+  const ws = useWorkspace();
+  const toast = useToast();
+  const { saved, draft } = useFrameDrawings();
+  const vtt = useExportNotesVtt(ws.clip.id, saveBlob);
+  const [open, setOpen] = useState(false);
+  const [savingStill, setSavingStill] = useState(false);
+  const menuId = useId();
+  const root = useRef<HTMLDivElement | null>(null);
+
+  useEffect(() => {
+    if (!open) return;
+    const onDown = (event: PointerEvent) => {
+      if (!root.current?.contains(event.target as Node)) setOpen(false);
+    };
+    const onKey = (event: KeyboardEvent) => {
+      if (event.key === 'Escape') setOpen(false);
+    };
+    document.addEventListener('pointerdown', onDown);
+    document.addEventListener('keydown', onKey);
+    return () => {
+      document.removeEventListener('pointerdown', onDown);
+      document.removeEventListener('keydown', onKey);
+    };
+  }, [open]);
+
+  const saveStill = async () => {
+    setOpen(false);
+    const video = ws.videoRef.current;
+    if (!video) return;
+    setSavingStill(true);
+    try {
+      const canvas = composeStill({
+        video,
+        drawOverlays: (ctx, scale) =>
+          drawOverlays(
+            ctx,
+            {
+              pose: ws.currentPose,
+              view: ws.view,
+              referenceLine: ws.referenceLine,
+              toggles: ws.overlays,
+              bands: ws.bands,
+              videoSize: ws.videoSize,
+              snowLineHandles: false,
+            },
+            { map: (p) => p, scale },
+          ),
+        drawings: draft ? [...saved, draft] : saved,
+        caption: `${ws.clip.originalName} · frame ${ws.currentFrame} · ${formatClipTime(
+          (ws.currentFrame / ws.fps) * 1000,
+        )} · Stanceline, 2D estimate`,
+      });
+      saveBlob(await canvasToPng(canvas), stillFileName(ws.clip.originalName, ws.currentFrame));
+    } catch (error) {
+      toast.error(`The still was not saved: ${errorMessage(error)}`);
+    } finally {
+      setSavingStill(false);
+    }
+  };
+
+  const saveVtt = () => {
+    setOpen(false);
+    vtt.mutate(ws.clip.originalName, {
+      onError: (error) => toast.error(`The captions were not downloaded: ${errorMessage(error)}`),
+    });
+  };
+
+  return (
+    <div ref={root} className="relative">
+      <Button
+        variant="secondary"
+        size="sm"
+        aria-haspopup="menu"
+        aria-expanded={open}
+        aria-controls={open ? menuId : undefined}
+        busy={savingStill || vtt.isPending}
+        icon={<Download aria-hidden="true" className="h-4 w-4" />}
+        onClick={() => setOpen((v) => !v)}
+      >
+        Export
+        <ChevronDown aria-hidden="true" className="h-3.5 w-3.5" />
+      </Button>
+      {open ? (
+        <div
+          id={menuId}
+          role="menu"
+          aria-label="Export"
+          className="absolute right-0 z-30 mt-1 w-72 rounded-md border border-granite-200 bg-white p-1 shadow-lg"
+        >
+          <button
+            type="button"
+            role="menuitem"
+            onClick={() => void saveStill()}
+            className="flex w-full items-start gap-2 rounded px-2 py-1.5 text-left text-sm hover:bg-glacier-50"
+          >
+            <ImageDown aria-hidden="true" className="mt-0.5 h-4 w-4 text-glacier-700" />
+            <span>
+              Still image (PNG)
+              <span className="block text-xs text-granite-600">
+                Frame {ws.currentFrame} at full size with overlays and drawings
+              </span>
+            </span>
+          </button>
+          <button
+            type="button"
+            role="menuitem"
+            onClick={saveVtt}
+            className="flex w-full items-start gap-2 rounded px-2 py-1.5 text-left text-sm hover:bg-glacier-50"
+          >
+            <Captions aria-hidden="true" className="mt-0.5 h-4 w-4 text-glacier-700" />
+            <span>
+              Notes as captions (WebVTT)
+              <span className="block text-xs text-granite-600">
+                Any video player shows them over the clip
+              </span>
+            </span>
+          </button>
+        </div>
+      ) : null}
+    </div>
+  );
+}

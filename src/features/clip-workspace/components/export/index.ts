@@ -1,0 +1,1 @@
+export { ExportMenu } from './export-menu';

@@ -1,0 +1,2 @@
+export { NotesPanel } from './notes-panel';
+export { DrawingLayer } from './drawing-layer';

@@ -1,0 +1,21 @@
+import { useMemo } from 'react';
+import { useClipNotes } from '../../api/get-clip-notes';
+import { useWorkspace } from '../workspace-context';
+import { useDrawingDraft } from './drawing-draft';
+import { isDrawingEmpty, type Drawing } from './drawing-geometry';
+
+/** Drawings to show on the frame on screen: saved notes pinned to it, and the draft when it is there. */
+export function useFrameDrawings(): { saved: Drawing[]; draft: Drawing | null } {
+  const ws = useWorkspace();
+  const notes = useClipNotes(ws.clip.id);
+  const draft = useDrawingDraft();
+  const saved = useMemo(
+    () =>
+      (notes.data ?? [])
+        .filter((n) => n.frameIndex === ws.currentFrame && !isDrawingEmpty(n.drawing))
+        .map((n) => n.drawing as Drawing),
+    [notes.data, ws.currentFrame],
+  );
+  const onDraftFrame = draft.frameIndex === null || draft.frameIndex === ws.currentFrame;
+  return { saved, draft: onDraftFrame && !isDrawingEmpty(draft.drawing) ? draft.drawing : null };
+}
