@@ -7,6 +7,7 @@ import type { DataSource } from 'typeorm';
 import type { Config } from './config';
 import type { Mailbox } from './mail/embedded-smtp';
 import type { Mailer } from './mail/mailer';
+import type { MediaPipeline } from './services/clip.service';
 import { createAuthMiddleware } from './middleware/auth.middleware';
 import { apiNotFound, createErrorHandler } from './middleware/error.middleware';
 import { createRequestLogger } from './middleware/request-logger.middleware';
@@ -37,6 +38,8 @@ export interface AppDeps {
   dataSource: DataSource;
   storage: ObjectStorage;
   mailer: Mailer;
+  /** Where uploaded clips go for probing, playable copies, posters and thumbnails (Runtime.mediaQueue). */
+  mediaQueue: MediaPipeline;
   /** Set when the embedded SMTP fake is in use: mounts the /dev/mailbox inbox page. */
   mailbox?: Mailbox;
   jwtSecret: string;
@@ -69,7 +72,7 @@ export function createApp(deps: AppDeps): Express {
     auth,
     athletes: new AthleteService(dataSource, access, audit, clock),
     sessions,
-    clips: new ClipService(dataSource, access, sessions, deps.storage, tokens, audit, clock),
+    clips: new ClipService(dataSource, access, sessions, deps.storage, tokens, audit, clock, deps.mediaQueue),
     invitations: new InvitationService(
       dataSource,
       access,

@@ -4,6 +4,8 @@ import path from 'node:path';
 import type { DataSource } from 'typeorm';
 import type { Config } from './config';
 import { openDatabase } from './db/data-source';
+import { createLogger } from './logger';
+import { ClipProcessingQueue } from './media/processing-queue';
 import { startEmbeddedSmtp, type EmbeddedSmtp, type Mailbox } from './mail/embedded-smtp';
 import { createMailer, type Mailer } from './mail/mailer';
 import { startEmbeddedS3, type EmbeddedS3 } from './storage/embedded-s3';
@@ -17,6 +19,8 @@ export interface Runtime {
   mailbox: Mailbox | undefined;
   jwtSecret: string;
   s3Endpoint: string;
+  /** Probe, playable copy, poster and thumbnails of uploaded clips, one clip at a time. */
+  mediaQueue: ClipProcessingQueue;
   close(): Promise<void>;
 }
 
@@ -63,8 +67,17 @@ export async function startRuntime(config: Config): Promise<Runtime> {
     const dataSource = await openDatabase(config.databasePath);
     closers.push(() => dataSource.destroy());
 
+    // Closed before the database and the store (closers run in reverse): a running job winds down first.
+    const mediaQueue = new ClipProcessingQueue({
+      dataSource,
+      storage,
+      logger: createLogger(config.logLevel),
+      workDir: path.join(config.dataDir, 'media-work'),
+    });
+    closers.push(() => mediaQueue.close());
+
     const jwtSecret = await readOrCreateSecret(config);
-    return { dataSource, storage, mailer, mailbox: smtp, jwtSecret, s3Endpoint, close: closeAll };
+    return { dataSource, storage, mailer, mailbox: smtp, jwtSecret, s3Endpoint, mediaQueue, close: closeAll };
   } catch (error) {
     await closeAll();
     throw error;

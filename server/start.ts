@@ -50,6 +50,7 @@ export async function startStanceline(opts: StartOptions = {}): Promise<StartedS
       config,
       dataSource: runtime.dataSource,
       storage: runtime.storage,
+      mediaQueue: runtime.mediaQueue,
       mailer: runtime.mailer,
       mailbox: runtime.mailbox,
       jwtSecret: runtime.jwtSecret,

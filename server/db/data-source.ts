@@ -21,6 +21,7 @@ import { UserEntity } from '../entities/user.entity';
 import { DataSource } from 'typeorm';
 import { InitialSchema1796163026000 } from '../migrations/1796163026000-initial-schema';
 import { ClipWorkspace1796250000000 } from '../migrations/1796250000000-clip-workspace';
+import { ClipProxySize1796250000001 } from '../migrations/1796250000001-clip-proxy-size';
 
 export const ALL_ENTITIES = [
   ClubEntity,
@@ -45,7 +46,11 @@ export const ALL_ENTITIES = [
 ];
 
 // Listed explicitly (no globs): bundlers and tsx cannot resolve migration globs reliably.
-export const ALL_MIGRATIONS = [InitialSchema1796163026000, ClipWorkspace1796250000000];
+export const ALL_MIGRATIONS = [
+  InitialSchema1796163026000,
+  ClipWorkspace1796250000000,
+  ClipProxySize1796250000001,
+];
 
 /** SQLite through better-sqlite3: WAL journal, foreign keys on (the driver always enables them), no synchronize. */
 export function createDataSource(databasePath: string): DataSource {

@@ -19,6 +19,8 @@ export interface Clip {
   /** Object keys in the clip bucket. */
   storageKey: string;
   proxyKey: string | null;
+  /** Byte size of the playable copy, for Range answers without asking the store. */
+  proxySizeBytes: number | null;
   posterKey: string | null;
   thumbnailsKey: string | null;
   /** Layout of the thumbnail sprite (see ThumbnailStripDto), null until it is made. */
@@ -60,6 +62,7 @@ export const ClipEntity = new EntitySchema<Clip>({
     sha256: { type: 'varchar', length: 64 },
     storageKey: { type: 'varchar', length: 255 },
     proxyKey: { type: 'varchar', length: 255, nullable: true },
+    proxySizeBytes: { type: 'integer', nullable: true },
     posterKey: { type: 'varchar', length: 255, nullable: true },
     thumbnailsKey: { type: 'varchar', length: 255, nullable: true },
     thumbnails: { type: 'simple-json', nullable: true },

@@ -1,4 +1,5 @@
 import { EntitySchema } from 'typeorm';
+import type { NoteDrawing } from '@shared/schemas/note.schema';
 import { foreignKey, idColumn, nullableUuidColumn, timestampColumn, uuidColumn } from './columns';
 
 /** A coach's note pinned to a moment of a clip, optionally with a drawing on that frame. */
@@ -9,8 +10,8 @@ export interface Note {
   timeMs: number;
   frameIndex: number | null;
   body: string;
-  /** Vector strokes in image pixels; shape owned by the annotation feature. */
-  drawing: unknown;
+  /** Strokes, arrows and angles in the playable video's pixels. */
+  drawing: NoteDrawing | null;
   createdAt: Date;
   updatedAt: Date;
 }

@@ -1,8 +1,31 @@
-import type { ClipDto } from '@shared/schemas/clip.schema';
+import type { PoseModelName, ReferenceLine } from '@shared/keypoints';
+import type { ClipAnalysisDto, ClipDto } from '@shared/schemas/clip.schema';
 import type { Athlete } from '../entities/athlete.entity';
 import type { Clip } from '../entities/clip.entity';
+import type { AnalysisInfo } from '../repositories/frame-result.repository';
 
-export function toClipDto(clip: Clip, athletes: Athlete[], mediaUrl: string): ClipDto {
+export interface ClipLinks {
+  media: string;
+  poster: string;
+  thumbnails: string;
+}
+
+export interface ClipExtras {
+  referenceLine: ReferenceLine | null;
+  ageGroup: { id: string; name: string } | null;
+  analyses: AnalysisInfo[];
+}
+
+/** The default model's stored results, else the most recently written model's. */
+export function pickAnalysis(defaultModel: PoseModelName, analyses: AnalysisInfo[]): ClipAnalysisDto | null {
+  const chosen =
+    analyses.find((a) => a.model === defaultModel) ??
+    [...analyses].sort((a, b) => b.updatedAt.getTime() - a.updatedAt.getTime())[0];
+  if (!chosen) return null;
+  return { frameCount: chosen.frameCount, model: chosen.model, updatedAt: chosen.updatedAt.toISOString() };
+}
+
+export function toClipDto(clip: Clip, athletes: Athlete[], links: ClipLinks, extras: ClipExtras): ClipDto {
   return {
     id: clip.id,
     sessionId: clip.sessionId,
@@ -19,8 +42,13 @@ export function toClipDto(clip: Clip, athletes: Athlete[], mediaUrl: string): Cl
     frameCount: clip.frameCount,
     durationMs: clip.durationMs,
     createdAt: clip.createdAt.toISOString(),
-    mediaUrl,
-    // Poster frames arrive with the media pipeline; until then there is none.
-    posterUrl: null,
+    mediaUrl: links.media,
+    posterUrl: clip.posterKey ? links.poster : null,
+    thumbnails: clip.thumbnailsKey && clip.thumbnails ? { url: links.thumbnails, ...clip.thumbnails } : null,
+    rotation: clip.rotation,
+    referenceLine: extras.referenceLine,
+    defaultModel: clip.defaultModel,
+    ageGroup: extras.ageGroup,
+    analysis: pickAnalysis(clip.defaultModel, extras.analyses),
   };
 }

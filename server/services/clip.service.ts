@@ -11,6 +11,9 @@ import type { Athlete } from '../entities/athlete.entity';
 import type { Clip } from '../entities/clip.entity';
 import { HttpError, badRequest, conflict, notFound } from '../errors';
 import { toClipDto } from '../mappers/clip.mapper';
+import { ClubRepository } from '../repositories/club.repository';
+import { FrameResultRepository } from '../repositories/frame-result.repository';
+import { ReferenceLineRepository } from '../repositories/reference-line.repository';
 import { probeVideo } from '../media/probe';
 import { ACCEPTED_CONTAINER_LABEL, sniffVideoContainer } from '../media/sniff';
 import { AthleteRepository } from '../repositories/athlete.repository';
@@ -38,6 +41,14 @@ export interface MediaTarget {
   sizeBytes: number;
 }
 
+/** The playable copy when one was made (else the original), or the original as uploaded. */
+export type MediaVariant = 'playable' | 'original';
+
+/** Where uploads go to be probed, transcoded when needed and given a poster and thumbnails. */
+export interface MediaPipeline {
+  enqueue(clipId: string): void;
+}
+
 export class ClipService {
   constructor(
     private readonly dataSource: DataSource,
@@ -47,6 +58,7 @@ export class ClipService {
     private readonly tokens: TokenService,
     private readonly audit: AuditService,
     private readonly clock: Clock,
+    private readonly media: MediaPipeline,
   ) {}
 
   async list(
@@ -81,8 +93,15 @@ export class ClipService {
     return { clip: dto };
   }
 
-  async mediaTarget(principal: Principal, clipId: string): Promise<MediaTarget> {
+  async mediaTarget(
+    principal: Principal,
+    clipId: string,
+    variant: MediaVariant = 'playable',
+  ): Promise<MediaTarget> {
     const clip = await this.findVisible(principal, clipId);
+    if (variant === 'playable' && clip.proxyKey && clip.proxySizeBytes !== null) {
+      return { clip, key: clip.proxyKey, contentType: 'video/mp4', sizeBytes: clip.proxySizeBytes };
+    }
     return { clip, key: clip.storageKey, contentType: clip.mimeType, sizeBytes: clip.sizeBytes };
   }
 
@@ -93,6 +112,15 @@ export class ClipService {
     const shown = (ids: string[]) => (visible ? ids.filter((id) => visible.includes(id)) : ids);
     const allIds = [...new Set([...tags.values()].flatMap(shown))];
     const athletes = new Map((await new AthleteRepository(manager).findByIds(allIds)).map((a) => [a.id, a]));
+    // The clip's bands follow its first tagged athlete, whether or not the caller sees that athlete.
+    const firstIds = [...new Set(clips.map((c) => tags.get(c.id)?.[0]).filter((id): id is string => !!id))];
+    const firsts = new Map((await new AthleteRepository(manager).findByIds(firstIds)).map((a) => [a.id, a]));
+    const groups = new Map(
+      (await new ClubRepository(manager).listAgeGroups(principal.clubId)).map((g) => [g.id, g]),
+    );
+    const ids = clips.map((c) => c.id);
+    const lines = await new ReferenceLineRepository(manager).forClips(ids);
+    const analyses = await new FrameResultRepository(manager).analysisByClip(ids);
     return clips.map((clip) => {
       const tagged = shown(tags.get(clip.id) ?? [])
         .map((id) => athletes.get(id))
@@ -102,7 +130,23 @@ export class ClipService {
         ver: principal.user.tokenVersion,
         clip: clip.id,
       });
-      return toClipDto(clip, tagged, `/api/clips/${clip.id}/media?token=${encodeURIComponent(token)}`);
+      const query = `?token=${encodeURIComponent(token)}`;
+      const first = firsts.get(tags.get(clip.id)?.[0] ?? '');
+      const group = first ? groups.get(first.ageGroupId) : undefined;
+      return toClipDto(
+        clip,
+        tagged,
+        {
+          media: `/api/clips/${clip.id}/media${query}`,
+          poster: `/api/clips/${clip.id}/poster${query}`,
+          thumbnails: `/api/clips/${clip.id}/thumbnails${query}`,
+        },
+        {
+          referenceLine: lines.get(clip.id) ?? null,
+          ageGroup: group ? { id: group.id, name: group.name } : null,
+          analyses: analyses.get(clip.id) ?? [],
+        },
+      );
     });
   }
 
@@ -161,8 +205,9 @@ export class ClipService {
         sessionId: session.id,
         uploadedById: principal.user.id,
         view: fields.view,
-        // Probed and playable as stored; proxies for codecs browsers cannot play come with the media pipeline.
-        status: 'ready',
+        // The header probe above answers at once; the media pipeline then makes the playable copy,
+        // poster and thumbnails and moves the clip to ready (or failed, with the reason).
+        status: 'uploaded',
         failureReason: null,
         originalName: file.originalName.slice(0, 255),
         mimeType: sniff.mime,
@@ -170,6 +215,7 @@ export class ClipService {
         sha256: file.sha256,
         storageKey: key,
         proxyKey: null,
+        proxySizeBytes: null,
         posterKey: null,
         thumbnailsKey: null,
         thumbnails: null,
@@ -195,6 +241,7 @@ export class ClipService {
         });
       });
       storedKey = null;
+      this.media.enqueue(clip.id);
       const [dto] = await this.toDtos(principal, [clip], await this.access.visibleAthleteIds(principal));
       return { clip: dto };
     } catch (error) {

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { POSE_MODELS, type PoseModelName, type ReferenceLine } from '../keypoints';
 
 export const CLIP_VIEWS = ['front', 'side'] as const;
 export const CLIP_STATUSES = ['uploaded', 'processing', 'ready', 'failed'] as const;
@@ -42,8 +43,65 @@ export interface ClipDto {
   createdAt: string;
   /** Short-lived signed URL usable by a <video> element (Range requests supported). */
   mediaUrl: string;
+  /** JPEG still from the first second; null until processing is done. */
   posterUrl: string | null;
+  thumbnails: ThumbnailStripDto | null;
+  /** Rotation of the uploaded file in degrees; the playable copy has it applied already. */
+  rotation: number;
+  /** Snow line in the playable video's pixel space; null means the image horizontal. */
+  referenceLine: ReferenceLine | null;
+  defaultModel: PoseModelName;
+  /** Age group of the first tagged athlete: its tolerance bands apply to the clip. */
+  ageGroup: { id: string; name: string } | null;
+  /** Stored pose results of the clip's default model (or the latest model when it has none). */
+  analysis: ClipAnalysisDto | null;
 }
+
+/** One JPEG sprite: tile i shows the frame at i * intervalMs, row-major, `columns` tiles a row. */
+export interface ThumbnailStripDto {
+  url: string;
+  count: number;
+  tileWidth: number;
+  tileHeight: number;
+  columns: number;
+  intervalMs: number;
+}
+
+export interface ClipAnalysisDto {
+  frameCount: number;
+  model: PoseModelName;
+  updatedAt: string;
+}
+
+const COORDINATE_LIMIT = 100_000;
+const pixelSchema = z.number().min(-COORDINATE_LIMIT).max(COORDINATE_LIMIT);
+
+/** Two points along the snow surface; they must be apart, or the line has no direction. */
+export const referenceLineSchema = z
+  .tuple([z.tuple([pixelSchema, pixelSchema]), z.tuple([pixelSchema, pixelSchema])])
+  .refine(
+    ([[x1, y1], [x2, y2]]) => Math.hypot(x2 - x1, y2 - y1) >= 1,
+    'Set the snow line with two points at least a pixel apart',
+  );
+
+export const updateClipSchema = z
+  .object({
+    view: z.enum(CLIP_VIEWS, { message: 'Choose front or side view' }).optional(),
+    defaultModel: z
+      .enum(POSE_MODELS as [PoseModelName, ...PoseModelName[]], {
+        message: `Choose a model: ${POSE_MODELS.join(', ')}`,
+      })
+      .optional(),
+    /** null puts the snow line back to the image horizontal. */
+    referenceLine: referenceLineSchema.nullable().optional(),
+  })
+  .refine((v) => Object.values(v).some((x) => x !== undefined), 'Change at least one setting');
+export type UpdateClipInput = z.input<typeof updateClipSchema>;
+
+export const mediaVariantQuerySchema = z.object({
+  variant: z.enum(['playable', 'original']).default('playable'),
+  token: z.string().optional(),
+});
 
 export interface ClipListResponse {
   clips: ClipDto[];

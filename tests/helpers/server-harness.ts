@@ -71,6 +71,7 @@ export async function createTestServer(env: Record<string, string> = {}): Promis
     config,
     dataSource: runtime.dataSource,
     storage: runtime.storage,
+    mediaQueue: runtime.mediaQueue,
     mailer: runtime.mailer,
     mailbox: runtime.mailbox,
     jwtSecret: runtime.jwtSecret,

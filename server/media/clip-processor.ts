@@ -1,0 +1,157 @@
+import { createWriteStream } from 'node:fs';
+import fs from 'node:fs/promises';
+import path from 'node:path';
+import { pipeline } from 'node:stream/promises';
+import type { Logger } from 'pino';
+import type { DataSource } from 'typeorm';
+import type { Clip } from '../entities/clip.entity';
+import { ClipMediaRepository } from '../repositories/clip-media.repository';
+import { ClipRepository } from '../repositories/clip.repository';
+import type { ObjectStorage } from '../storage/object-storage';
+import { FfmpegError, MediaJobAborted } from './ffmpeg-run';
+import { makePoster } from './poster';
+import { probeVideo, type VideoProbe } from './probe';
+import { makeProxy, proxyReason } from './proxy';
+import { makeThumbnailStrip } from './thumbnails';
+
+/** A failure the coach is shown as the clip's failure reason. */
+export class ClipProcessingError extends Error {
+  override name = 'ClipProcessingError';
+}
+
+export interface ClipProcessorDeps {
+  dataSource: DataSource;
+  storage: ObjectStorage;
+  logger: Logger;
+  /** Scratch folder for downloads and ffmpeg output; each job uses and removes its own subfolder. */
+  workDir: string;
+}
+
+export const derivativeKeys = (clip: Pick<Clip, 'clubId' | 'id'>) => {
+  const base = `clubs/${clip.clubId}/clips/${clip.id}`;
+  return {
+    proxy: `${base}/playable.mp4`,
+    poster: `${base}/poster.jpg`,
+    thumbnails: `${base}/thumbnails.jpg`,
+  };
+};
+
+/** ffprobe/ffmpeg messages name the scratch file; coaches know the file by its own name. */
+function describe(error: unknown, scratch: string, originalName: string): string {
+  const raw =
+    error instanceof FfmpegError
+      ? error.detail
+      : String((error as { stderr?: string }).stderr || (error as Error).message || error);
+  const line = raw.trim().split('\n').filter(Boolean).slice(-1)[0] ?? 'unknown error';
+  return line.split(scratch).join(originalName).slice(0, 300);
+}
+
+/**
+ * Probe, playable copy, poster and thumbnail strip for one clip; status processing -> ready, or
+ * failed with a reason a coach can act on. An abort (server shutting down) leaves the clip in
+ * "processing", so the next start picks it up again.
+ */
+export async function processClip(
+  deps: ClipProcessorDeps,
+  clipId: string,
+  signal: AbortSignal,
+): Promise<void> {
+  const clip = await new ClipRepository(deps.dataSource.manager).findById(clipId);
+  if (!clip || (clip.status !== 'uploaded' && clip.status !== 'processing')) return;
+  const clips = new ClipMediaRepository(deps.dataSource.manager);
+  await clips.update(clip.id, { status: 'processing', failureReason: null });
+
+  await fs.mkdir(deps.workDir, { recursive: true });
+  const dir = await fs.mkdtemp(path.join(deps.workDir, `${clip.id}-`));
+  const keys = derivativeKeys(clip);
+  const stored: string[] = [];
+  try {
+    const original = path.join(dir, `original${path.extname(clip.storageKey)}`);
+    await pipeline(await deps.storage.getStream(clip.storageKey), createWriteStream(original), { signal });
+
+    let probe: VideoProbe | null;
+    try {
+      probe = await probeVideo(original);
+    } catch (error) {
+      throw new ClipProcessingError(
+        `The file could not be read as video: ${describe(error, original, clip.originalName)}`,
+      );
+    }
+    if (!probe) throw new ClipProcessingError('The file could not be read as video: it has no video stream');
+
+    let playable = original;
+    let playableProbe = probe;
+    const needsProxy = proxyReason(probe, clip.mimeType);
+    if (needsProxy) {
+      playable = path.join(dir, 'playable.mp4');
+      try {
+        await makeProxy(original, playable, probe, signal);
+        playableProbe = (await probeVideo(playable)) ?? probe;
+      } catch (error) {
+        if (error instanceof MediaJobAborted) throw error;
+        throw new ClipProcessingError(
+          `The file could not be read as video: ${describe(error, original, clip.originalName)}`,
+        );
+      }
+    }
+
+    const durationMs = playableProbe.durationMs ?? probe.durationMs ?? 0;
+    const poster = path.join(dir, 'poster.jpg');
+    const strip = path.join(dir, 'thumbnails.jpg');
+    let thumbnails;
+    try {
+      await makePoster(playable, poster, durationMs, signal);
+      thumbnails = await makeThumbnailStrip(playable, strip, Math.max(durationMs, 1), signal);
+    } catch (error) {
+      if (error instanceof MediaJobAborted) throw error;
+      throw new ClipProcessingError(
+        `The file could not be read as video: ${describe(error, playable, clip.originalName)}`,
+      );
+    }
+
+    if (needsProxy) {
+      await deps.storage.putFile(keys.proxy, playable, 'video/mp4');
+      stored.push(keys.proxy);
+    }
+    await deps.storage.putFile(keys.poster, poster, 'image/jpeg');
+    stored.push(keys.poster);
+    await deps.storage.putFile(keys.thumbnails, strip, 'image/jpeg');
+    stored.push(keys.thumbnails);
+    if (signal.aborted) throw new MediaJobAborted('stopped before the clip was marked ready');
+
+    await clips.update(clip.id, {
+      status: 'ready',
+      failureReason: null,
+      codec: probe.codec,
+      rotation: probe.rotation,
+      // Keypoints and the snow line live in the playable video's pixels.
+      width: playableProbe.width,
+      height: playableProbe.height,
+      fps: probe.fps,
+      frameCount: probe.frameCount,
+      durationMs: probe.durationMs ?? playableProbe.durationMs,
+      proxyKey: needsProxy ? keys.proxy : null,
+      proxySizeBytes: needsProxy ? (await fs.stat(playable)).size : null,
+      posterKey: keys.poster,
+      thumbnailsKey: keys.thumbnails,
+      thumbnails,
+    });
+    deps.logger.info(
+      { clipId: clip.id, proxy: needsProxy, frames: probe.frameCount, codec: probe.codec },
+      'clip processed',
+    );
+  } catch (error) {
+    await Promise.all(stored.map((key) => deps.storage.delete(key).catch(() => undefined)));
+    if (error instanceof MediaJobAborted || signal.aborted)
+      throw new MediaJobAborted('clip processing stopped');
+    const reason =
+      error instanceof ClipProcessingError
+        ? error.message
+        : 'The clip could not be processed because of a server error; it was logged';
+    if (!(error instanceof ClipProcessingError))
+      deps.logger.error({ err: error, clipId }, 'clip processing failed');
+    await clips.update(clip.id, { status: 'failed', failureReason: reason });
+  } finally {
+    await fs.rm(dir, { recursive: true, force: true });
+  }
+}
