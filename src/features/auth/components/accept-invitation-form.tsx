@@ -6,7 +6,14 @@ import { FormError, TextField } from '@/components/ui/field';
 import { errorMessage } from '@/lib/api-client';
 import { useAcceptInvitation } from '../api/accept-invitation';
 
-export function AcceptInvitationForm({ token, email }: { token: string; email: string }) {
+interface AcceptInvitationFormProps {
+  token: string;
+  email: string;
+  /** Called just before sending, so the page knows the sign-in that follows is this one. */
+  onSubmitting: (pending: boolean) => void;
+}
+
+export function AcceptInvitationForm({ token, email, onSubmitting }: AcceptInvitationFormProps) {
   const accept = useAcceptInvitation();
   const {
     register,
@@ -18,7 +25,14 @@ export function AcceptInvitationForm({ token, email }: { token: string; email: s
   });
 
   return (
-    <form noValidate className="space-y-4" onSubmit={handleSubmit((values) => accept.mutate(values))}>
+    <form
+      noValidate
+      className="space-y-4"
+      onSubmit={handleSubmit((values) => {
+        onSubmitting(true);
+        accept.mutate(values, { onError: () => onSubmitting(false) });
+      })}
+    >
       <TextField label="Email" value={email} readOnly disabled />
       <TextField label="Your name" autoComplete="name" error={errors.name?.message} {...register('name')} />
       <TextField

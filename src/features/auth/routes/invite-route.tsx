@@ -1,4 +1,6 @@
+import { useState } from 'react';
 import { Link, Navigate, useParams } from 'react-router-dom';
+import { Button, ButtonLink } from '@/components/ui/button';
 import { PageSpinner } from '@/components/ui/spinner';
 import { QueryError } from '@/components/ui/query-error';
 import { paths } from '@/config/paths';
@@ -10,10 +12,29 @@ import { AuthLayout } from '../components/auth-layout';
 
 export function InviteRoute() {
   const { token = '' } = useParams();
-  const { state } = useAuth();
+  const { state, signOut } = useAuth();
   const invitation = useInvitation(token);
+  const [joining, setJoining] = useState(false);
 
-  if (state.status === 'signed-in') return <Navigate to={landingPathFor(state.user.role)} replace />;
+  if (state.status === 'signed-in' && joining)
+    return <Navigate to={landingPathFor(state.user.role)} replace />;
+  if (state.status === 'signed-in') {
+    // An invitation is for a new sign-in; accepting it while signed in as someone else would mix the two.
+    return (
+      <AuthLayout title="Accept your invitation">
+        <p className="text-sm text-granite-700">
+          You are signed in as <strong>{state.user.email}</strong>. Sign out first to accept this invitation,
+          or go on as yourself.
+        </p>
+        <div className="mt-4 flex gap-2">
+          <Button onClick={() => void signOut()}>Sign out</Button>
+          <ButtonLink variant="secondary" to={landingPathFor(state.user.role)}>
+            Continue as {state.user.name}
+          </ButtonLink>
+        </div>
+      </AuthLayout>
+    );
+  }
 
   return (
     <AuthLayout title="Accept your invitation">
@@ -34,10 +55,11 @@ export function InviteRoute() {
         <>
           <p className="mb-4 text-sm text-granite-700">
             You are invited to <strong>{invitation.data.club.name}</strong> as{' '}
-            <strong>{ROLE_LABELS[invitation.data.role].toLowerCase()}</strong>. Set your name and password to
-            join.
+            <strong>{ROLE_LABELS[invitation.data.role].toLowerCase()}</strong>
+            {invitation.data.athleteName ? ` for ${invitation.data.athleteName}` : ''}. Set your name and
+            password to join.
           </p>
-          <AcceptInvitationForm token={token} email={invitation.data.email} />
+          <AcceptInvitationForm token={token} email={invitation.data.email} onSubmitting={setJoining} />
         </>
       ) : null}
     </AuthLayout>
