@@ -27,7 +27,7 @@ function fakes(options: { failPostAt?: number; failDetectAt?: number; onDetect?:
     postBatch: async (input) => {
       if (posts.length === options.failPostAt) throw new Error('the server is unreachable');
       posts.push(input);
-      return { stored: input.frames.length, flags: [] };
+      return { stored: input.frames.length, flags: 0 };
     },
     now: () => clock,
   };

@@ -1,18 +1,9 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { CreateNoteInput, NoteResponse } from '@shared/schemas/note.schema';
 import { api } from '@/lib/api-client';
-import type { NoteDrawing, NoteDto } from './get-clip-notes';
 import { clipWorkspaceKeys } from './keys';
 
-export interface CreateNoteInput {
-  timeMs: number;
-  frameIndex: number;
-  text: string;
-  drawing?: NoteDrawing;
-}
-
-export interface NoteResponse {
-  note: NoteDto;
-}
+export type { CreateNoteInput, NoteResponse };
 
 export function createNote(clipId: string, input: CreateNoteInput): Promise<NoteResponse> {
   return api.post<NoteResponse>(`/api/clips/${encodeURIComponent(clipId)}/notes`, input);

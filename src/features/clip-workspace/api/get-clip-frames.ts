@@ -1,45 +1,15 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { Keypoint, PoseModelName } from '@shared/keypoints';
-import type { MetricKey } from '@shared/metrics';
-import type { FilterRecord, SeriesSummary, Turn } from '@shared/series';
-import type { BandMetricKey } from '@shared/tolerance';
+import type { PoseModelName } from '@shared/keypoints';
+import type { ClipFramesResponse } from '@shared/schemas/frames.schema';
 import { api } from '@/lib/api-client';
 import { clipWorkspaceKeys } from './keys';
 
-/** One stored frame as GET /api/clips/:id/frames returns it; metrics are the server's own recompute. */
-export interface StoredFrameDto {
-  frameIndex: number;
-  timeMs: number;
-  keypoints: Keypoint[];
-  metrics: Record<MetricKey, number | null>;
-  reasons: Partial<Record<MetricKey, string>>;
-  corrected: boolean;
-}
-
-export interface ClipSeriesDto {
-  turns: Turn[];
-  transitions: { frameIndex: number; timeMs: number }[];
-  summary: SeriesSummary;
-  filter: FilterRecord;
-}
-
-export interface ClipFlagDto {
-  metric: BandMetricKey;
-  value: number;
-  min: number | null;
-  max: number | null;
-  distance: number;
-  side: 'below' | 'above';
-  frameIndex: number | null;
-  turnIndex: number | null;
-}
-
-export interface ClipFramesResponse {
-  model: PoseModelName;
-  frames: StoredFrameDto[];
-  series: ClipSeriesDto | null;
-  flags: ClipFlagDto[];
-}
+export type {
+  ClipFramesResponse,
+  ClipSeriesDto,
+  FlagDto as ClipFlagDto,
+  FrameResultDto as StoredFrameDto,
+} from '@shared/schemas/frames.schema';
 
 export function getClipFrames(clipId: string, model: PoseModelName): Promise<ClipFramesResponse> {
   return api.get<ClipFramesResponse>(`/api/clips/${encodeURIComponent(clipId)}/frames`, {

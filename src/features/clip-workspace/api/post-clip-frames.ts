@@ -1,27 +1,12 @@
 import { useMemo } from 'react';
 import { useQueryClient } from '@tanstack/react-query';
-import type { Keypoint, PoseModelName } from '@shared/keypoints';
+import type { FrameBatchInput, FrameBatchResponse } from '@shared/schemas/frames.schema';
 import { api } from '@/lib/api-client';
-import type { ClipFlagDto } from './get-clip-frames';
 import { clipWorkspaceKeys } from './keys';
 
-export interface FrameUpload {
-  frameIndex: number;
-  timeMs: number;
-  keypoints: Keypoint[];
-  corrected?: boolean;
-}
-
-export interface PostClipFramesInput {
-  model: PoseModelName;
-  /** At most 500 frames a request (API contract). */
-  frames: FrameUpload[];
-}
-
-export interface PostClipFramesResponse {
-  stored: number;
-  flags: ClipFlagDto[];
-}
+export type FrameUpload = FrameBatchInput['frames'][number];
+export type PostClipFramesInput = FrameBatchInput;
+export type PostClipFramesResponse = FrameBatchResponse;
 
 export function postClipFrames(
   clipId: string,

@@ -1,13 +1,9 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { NoteResponse, UpdateNoteInput } from '@shared/schemas/note.schema';
 import { api } from '@/lib/api-client';
-import type { NoteResponse } from './create-note';
-import type { NoteDrawing } from './get-clip-notes';
 import { clipWorkspaceKeys } from './keys';
 
-export interface UpdateNoteInput {
-  text?: string;
-  drawing?: NoteDrawing | null;
-}
+export type { UpdateNoteInput };
 
 export function updateNote(noteId: string, input: UpdateNoteInput): Promise<NoteResponse> {
   return api.patch<NoteResponse>(`/api/notes/${encodeURIComponent(noteId)}`, input);

@@ -1,5 +1,6 @@
 import { useEffect, useId, useState, type FormEvent } from 'react';
 import { Pencil, PenTool, Trash2 } from 'lucide-react';
+import { createNoteSchema, MAX_NOTE_LENGTH } from '@shared/schemas/note.schema';
 import { Button } from '@/components/ui/button';
 import { FormError } from '@/components/ui/field';
 import { Spinner } from '@/components/ui/spinner';
@@ -14,10 +15,10 @@ import { useUpdateNote } from '../../api/update-note';
 import { formatClipTime, frameStartMs } from '../../lib/frame-time';
 import { useWorkspace } from '../workspace-context';
 import { drawingDraft, useDrawingDraft } from './drawing-draft';
+import { noteFrame } from './note-frame';
 import { isDrawingEmpty } from './drawing-geometry';
 import { DrawingTools } from './drawing-tools';
 
-const NOTE_MAX = 2000;
 const WRITERS = new Set(['coach', 'head_coach']);
 
 export function NotesPanel() {
@@ -51,7 +52,7 @@ export function NotesPanel() {
       ) : (
         <ol className="mt-3 space-y-2" aria-label="Notes on this clip">
           {list.map((note) => (
-            <NoteItem key={note.id} note={note} own={note.author.id === user.id} />
+            <NoteItem key={note.id} note={note} own={note.author?.id === user.id} />
           ))}
         </ol>
       )}
@@ -81,30 +82,27 @@ function NoteComposer() {
 
   const submit = (event: FormEvent) => {
     event.preventDefault();
-    const trimmed = text.trim();
-    if (!trimmed) {
-      setProblem('Write the note first: what should the athlete look for here?');
+    const parsed = createNoteSchema.safeParse({
+      frameIndex: frame,
+      timeMs: Math.round(frameStartMs(frame, ws.fps) * 1000) / 1000,
+      text,
+      ...(hasDrawing ? { drawing: draft.drawing } : {}),
+    });
+    if (!parsed.success) {
+      setProblem(parsed.error.issues[0]?.message ?? 'The note cannot be saved as it is.');
       return;
     }
     setProblem(null);
-    create.mutate(
-      {
-        frameIndex: frame,
-        timeMs: Math.round(frameStartMs(frame, ws.fps) * 1000) / 1000,
-        text: trimmed,
-        ...(hasDrawing ? { drawing: draft.drawing } : {}),
+    create.mutate(parsed.data, {
+      onSuccess: () => {
+        setText('');
+        drawingDraft.reset(clip.id);
+        setDrawingActive(false);
+        toast.success(`Note added at ${formatClipTime(frameStartMs(frame, ws.fps))}.`);
       },
-      {
-        onSuccess: () => {
-          setText('');
-          drawingDraft.reset(clip.id);
-          setDrawingActive(false);
-          toast.success(`Note added at ${formatClipTime(frameStartMs(frame, ws.fps))}.`);
-        },
-        // The text and drawing stay in the form, so nothing is lost on a failed save.
-        onError: (error) => setProblem(`The note was not saved: ${errorMessage(error)}`),
-      },
-    );
+      // The text and drawing stay in the form, so nothing is lost on a failed save.
+      onError: (error) => setProblem(`The note was not saved: ${errorMessage(error)}`),
+    });
   };
 
   return (
@@ -121,7 +119,7 @@ function NoteComposer() {
       <textarea
         id={textId}
         value={text}
-        maxLength={NOTE_MAX}
+        maxLength={MAX_NOTE_LENGTH}
         onChange={(e) => setText(e.target.value)}
         rows={3}
         placeholder="e.g. Inside hand drops before the apex"
@@ -176,7 +174,8 @@ function NoteItem({ note, own }: { note: NoteDto; own: boolean }) {
   const [confirming, setConfirming] = useState(false);
   const [text, setText] = useState(note.text);
   const [problem, setProblem] = useState<string | null>(null);
-  const here = ws.currentFrame === note.frameIndex;
+  const frame = noteFrame(note, ws.fps, ws.frameCount);
+  const here = ws.currentFrame === frame;
   const drawn = !isDrawingEmpty(note.drawing);
 
   const save = () => {
@@ -207,12 +206,12 @@ function NoteItem({ note, own }: { note: NoteDto; own: boolean }) {
     >
       <button
         type="button"
-        onClick={() => ws.seekToFrame(note.frameIndex)}
+        onClick={() => ws.seekToFrame(frame)}
         className="block w-full text-left"
-        aria-label={`Go to ${formatClipTime(note.timeMs)}, frame ${note.frameIndex}: ${note.text}`}
+        aria-label={`Go to ${formatClipTime(note.timeMs)}, frame ${frame}: ${note.text}`}
       >
         <span className="flex items-center gap-2 font-mono text-xs text-glacier-700 tabular-nums">
-          {formatClipTime(note.timeMs)} · frame {note.frameIndex}
+          {formatClipTime(note.timeMs)} · frame {frame}
           {drawn ? (
             <span className="inline-flex items-center gap-0.5 font-sans text-granite-600">
               <PenTool aria-hidden="true" className="h-3 w-3" /> drawing
@@ -231,7 +230,7 @@ function NoteItem({ note, own }: { note: NoteDto; own: boolean }) {
           <textarea
             id={`edit-${note.id}`}
             value={text}
-            maxLength={NOTE_MAX}
+            maxLength={MAX_NOTE_LENGTH}
             onChange={(e) => setText(e.target.value)}
             rows={3}
             className="block w-full rounded-md border border-granite-200 px-2 py-1.5 text-sm focus:outline-2 focus:outline-glacier-500"
@@ -256,7 +255,7 @@ function NoteItem({ note, own }: { note: NoteDto; own: boolean }) {
         </div>
       ) : (
         <div className="mt-1 flex items-center gap-2 text-xs text-granite-600">
-          <span>{note.author.name}</span>
+          <span>{note.author?.name ?? 'Former member'}</span>
           {own && !confirming ? (
             <span className="ml-auto flex gap-1">
               <button

@@ -3,6 +3,7 @@ import { useClipNotes } from '../../api/get-clip-notes';
 import { useWorkspace } from '../workspace-context';
 import { useDrawingDraft } from './drawing-draft';
 import { isDrawingEmpty, type Drawing } from './drawing-geometry';
+import { noteFrame } from './note-frame';
 
 /** Drawings to show on the frame on screen: saved notes pinned to it, and the draft when it is there. */
 export function useFrameDrawings(): { saved: Drawing[]; draft: Drawing | null } {
@@ -12,9 +13,9 @@ export function useFrameDrawings(): { saved: Drawing[]; draft: Drawing | null } 
   const saved = useMemo(
     () =>
       (notes.data ?? [])
-        .filter((n) => n.frameIndex === ws.currentFrame && !isDrawingEmpty(n.drawing))
+        .filter((n) => noteFrame(n, ws.fps, ws.frameCount) === ws.currentFrame && !isDrawingEmpty(n.drawing))
         .map((n) => n.drawing as Drawing),
-    [notes.data, ws.currentFrame],
+    [notes.data, ws.currentFrame, ws.fps, ws.frameCount],
   );
   const onDraftFrame = draft.frameIndex === null || draft.frameIndex === ws.currentFrame;
   return { saved, draft: onDraftFrame && !isDrawingEmpty(draft.drawing) ? draft.drawing : null };
