@@ -29,6 +29,10 @@ export class UserRepository {
     await this.manager.update(UserEntity, { id }, patch);
   }
 
+  async bumpTokenVersion(id: string): Promise<void> {
+    await this.manager.increment(UserEntity, { id }, 'tokenVersion', 1);
+  }
+
   async links(user: User): Promise<UserLinks> {
     const [athlete, guardianLinks, assignments] = await Promise.all([
       this.manager.findOneBy(AthleteEntity, { userId: user.id }),

@@ -1,6 +1,12 @@
 import { Router, type Response } from 'express';
 import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
-import { loginSchema, type LoginInput, type LoginResponse } from '@shared/schemas/auth.schema';
+import {
+  loginSchema,
+  logoutSchema,
+  type LoginInput,
+  type LoginResponse,
+  type LogoutInput,
+} from '@shared/schemas/auth.schema';
 import { HttpError } from '../errors';
 import { principalOf } from '../middleware/auth.middleware';
 import { validate } from '../middleware/validate.middleware';
@@ -55,8 +61,9 @@ export function authRoutes(ctx: RouteContext): Router {
   });
 
   // No bearer needed: an expired access token must not stop a member from signing out.
-  router.post('/api/auth/logout', async (req, res) => {
-    await ctx.auth.logout((req.cookies as Record<string, string | undefined>)[REFRESH_COOKIE]);
+  router.post('/api/auth/logout', validate({ body: logoutSchema }), async (req, res) => {
+    const { everywhere } = req.body as LogoutInput;
+    await ctx.auth.logout((req.cookies as Record<string, string | undefined>)[REFRESH_COOKIE], everywhere);
     res.clearCookie(REFRESH_COOKIE, { path: COOKIE_PATH });
     res.status(204).end();
   });

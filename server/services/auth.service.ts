@@ -134,11 +134,28 @@ export class AuthService {
     return outcome;
   }
 
-  async logout(refreshToken: string | undefined): Promise<void> {
+  /** Revokes the presented refresh token; with `everywhere`, every session and access token of its user. */
+  async logout(refreshToken: string | undefined, everywhere = false): Promise<void> {
     if (!refreshToken) return;
-    const repo = new AuthRepository(this.dataSource.manager);
-    const row = await repo.findRefreshToken(hashSecretToken(refreshToken));
-    if (row) await repo.revokeRefreshToken(row.id, this.clock.now());
+    await this.dataSource.transaction(async (manager) => {
+      const repo = new AuthRepository(manager);
+      const row = await repo.findRefreshToken(hashSecretToken(refreshToken));
+      if (!row) return;
+      const now = this.clock.now();
+      await repo.revokeRefreshToken(row.id, now);
+      if (!everywhere) return;
+      await repo.revokeAllRefreshTokens(row.userId, now);
+      // Access tokens carry the version they were issued under; bumping it voids them at once.
+      await new UserRepository(manager).bumpTokenVersion(row.userId);
+      const user = await new UserRepository(manager).findById(row.userId);
+      await this.audit.record(manager, {
+        clubId: user?.clubId ?? null,
+        actorUserId: row.userId,
+        action: 'auth.sign_out_everywhere',
+        targetType: 'user',
+        targetId: row.userId,
+      });
+    });
   }
 
   async me(principal: Principal): Promise<MeResponse> {

@@ -9,6 +9,10 @@ export const loginSchema = z.object({
 });
 export type LoginInput = z.infer<typeof loginSchema>;
 
+/** POST /api/auth/logout; `everywhere` also ends the member's other sessions and access tokens. */
+export const logoutSchema = z.object({ everywhere: z.boolean().optional() });
+export type LogoutInput = z.infer<typeof logoutSchema>;
+
 export const acceptInvitationSchema = z.object({
   token: z.string().min(10),
   name: z.string().trim().min(1, 'Enter your name').max(120),

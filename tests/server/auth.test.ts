@@ -167,6 +167,37 @@ describe('access token expiry and refresh', () => {
   });
 });
 
+describe('sign out everywhere', () => {
+  it('voids every refresh token and every access token of the member at once', async () => {
+    const laptop = await server.login('coach');
+    const phone = await server.login('coach');
+    const out = await server.http
+      .post('/api/auth/logout')
+      .set('Cookie', phone.cookie)
+      .send({ everywhere: true });
+    expect(out.status).toBe(204);
+    const access = await server.http.get('/api/me').set('Authorization', `Bearer ${laptop.accessToken}`);
+    expect(access.status).toBe(401);
+    expect(access.body.error.code).toBe('invalid_token');
+    const refresh = await server.http.post('/api/auth/refresh').set('Cookie', laptop.cookie);
+    expect(refresh.status).toBe(401);
+    // Signing in again works and yields a valid token under the new version.
+    const again = await server.login('coach');
+    const me = await server.http.get('/api/me').set('Authorization', `Bearer ${again.accessToken}`);
+    expect(me.status).toBe(200);
+  });
+
+  it('keeps the rotated token when two tabs present the old one within the grace window', async () => {
+    const session = await server.login('analyst');
+    const first = await server.http.post('/api/auth/refresh').set('Cookie', session.cookie);
+    const current = refreshCookieOf(first).split(';')[0];
+    const lateTab = await server.http.post('/api/auth/refresh').set('Cookie', session.cookie);
+    expect(lateTab.status).toBe(401);
+    const stillGood = await server.http.post('/api/auth/refresh').set('Cookie', current);
+    expect(stillGood.status).toBe(200);
+  });
+});
+
 describe('login rate limit', () => {
   it('answers 429 after LOGIN_RATE_LIMIT attempts for one e-mail', async () => {
     const limited = await createTestServer({ LOGIN_RATE_LIMIT: '3' });
