@@ -25,6 +25,8 @@ const TAGGED_ATHLETE = 'Elsie Marrow';
 const SIBLING = 'Finn Marrow';
 const CLIP_NAME = 'pattern-drill.mp4';
 const NEW_COACH = 'new.coach@larchwood.example';
+// A ceiling for waiting while a busy CI machine renders, not a speed check.
+const POLL = { timeout: 15_000 };
 
 let app: StartedStanceline;
 let browser: Browser;
@@ -101,7 +103,7 @@ describe('foundation in a real browser', () => {
     await page.getByRole('button', { name: 'Sign in' }).click();
     await page.waitForURL(/\/athletes$/);
 
-    await expect.poll(() => navNames(page)).toEqual(['Athletes', 'Sessions', 'Upload']);
+    await expect.poll(() => navNames(page), POLL).toEqual(['Athletes', 'Sessions', 'Upload']);
     await page.getByRole('heading', { name: 'Athletes', level: 1 }).waitFor();
     await page.getByRole('link', { name: TAGGED_ATHLETE }).waitFor();
     expect(await page.getByRole('button', { name: 'Add athlete' }).count()).toBe(1);
@@ -188,7 +190,7 @@ describe('foundation in a real browser', () => {
     await invited.getByText('Use at least 10 characters').waitFor();
     await invited.getByLabel('Choose a password').fill('slalom-gates-in-fog');
     await invited.getByRole('button', { name: 'Join the club' }).click();
-    await expect.poll(() => navNames(invited)).toEqual(['Athletes', 'Sessions', 'Upload']);
+    await expect.poll(() => navNames(invited), POLL).toEqual(['Athletes', 'Sessions', 'Upload']);
     await invited.getByText('Nia Brookfield').waitFor();
     await invited.screenshot({ path: screenshotPath('foundation-05-invited-coach'), fullPage: true });
     await invited.context().close();
@@ -206,7 +208,7 @@ describe('foundation in a real browser', () => {
       const context = await browser.newContext({ viewport: { width: 1280, height: 860 } });
       const page = await context.newPage();
       await signIn(page, DEMO[role]);
-      await expect.poll(() => navNames(page), { message: role }).toEqual(expected[role]);
+      await expect.poll(() => navNames(page), { ...POLL, message: role }).toEqual(expected[role]);
       await page.getByRole('heading', { level: 1 }).waitFor();
       // Every spinner on the page says "Loading …"; wait for the data before the screenshot.
       await page.waitForFunction(() => !document.body.innerText.includes('Loading'));
