@@ -90,6 +90,10 @@ export interface WorkspaceState {
   referenceLine: ReferenceLine | null;
   /** Persists via PATCH /api/clips/:id. */
   setReferenceLine(line: ReferenceLine | null): void;
+  /** A line being dragged: metrics follow it at once, nothing is saved. Null ends the preview. */
+  previewReferenceLine(line: ReferenceLine | null): void;
+  /** The line the numbers on screen use: the preview while dragging, else referenceLine. */
+  effectiveReferenceLine: ReferenceLine | null;
   bands: ToleranceBandDto[];
   /** Live result for currentFrame (or the stored/corrected one). */
   currentPose: PoseFrameResult | null;
@@ -194,6 +198,8 @@ export function WorkspaceProvider({ clip, renewMedia, children }: WorkspaceProvi
   const [playbackRate, setRate] = useState(1);
   const [model, setModelState] = useState<PoseModelName>(extras.defaultModel ?? 'lightning');
   const [referenceLine, setReferenceLineState] = useState<ReferenceLine | null>(extras.referenceLine ?? null);
+  const [linePreview, previewReferenceLine] = useState<ReferenceLine | null>(null);
+  const effectiveReferenceLine = linePreview ?? referenceLine;
   const [drawingActive, setDrawingActive] = useState(false);
   const [frameKeypoints, setFrameKeypoints] = useState<FrameKeypoints | null>(null);
   const [poseStatus, setPoseStatus] = useState<PoseStatus>({ state: 'idle' });
@@ -375,22 +381,17 @@ export function WorkspaceProvider({ clip, renewMedia, children }: WorkspaceProvi
     [patchClip, toast],
   );
 
-  // The line the server last confirmed, to fall back to when a save fails.
-  const savedLine = useRef<ReferenceLine | null>(extras.referenceLine ?? null);
   const setReferenceLine = useCallback(
     (line: ReferenceLine | null) => {
       setReferenceLineState(line);
       patchClip(
         { referenceLine: line },
         {
-          onSuccess: () => {
-            savedLine.current = line;
-          },
-          onError: (error) => {
-            // Put the saved line back so the numbers on screen match what is stored.
-            setReferenceLineState(savedLine.current);
-            toast.error(`The snow line was not saved: ${errorMessage(error)}`);
-          },
+          // The line stays on screen so the coach's work is not lost; the message says it is not stored.
+          onError: (error) =>
+            toast.error(
+              `The snow line was not saved: ${errorMessage(error)}. It is used on this page only; move a handle to try again.`,
+            ),
         },
       );
     },
@@ -405,7 +406,7 @@ export function WorkspaceProvider({ clip, renewMedia, children }: WorkspaceProvi
     const computed = computeFrameMetrics({
       keypoints: frameKeypoints.keypoints,
       view: clip.view,
-      referenceLine,
+      referenceLine: effectiveReferenceLine,
       width: frameKeypoints.width,
       height: frameKeypoints.height,
     });
@@ -415,7 +416,7 @@ export function WorkspaceProvider({ clip, renewMedia, children }: WorkspaceProvi
       reasons: computed.reasons,
       confidence: computed.confidence,
     };
-  }, [frameKeypoints, currentFrame, clip.view, referenceLine]);
+  }, [frameKeypoints, currentFrame, clip.view, effectiveReferenceLine]);
 
   const value: WorkspaceState = {
     clip,
@@ -433,6 +434,8 @@ export function WorkspaceProvider({ clip, renewMedia, children }: WorkspaceProvi
     view: clip.view,
     referenceLine,
     setReferenceLine,
+    previewReferenceLine,
+    effectiveReferenceLine,
     bands,
     currentPose,
     videoToStage,

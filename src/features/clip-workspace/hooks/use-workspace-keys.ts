@@ -2,7 +2,7 @@ import { useEffect } from 'react';
 import { PLAYBACK_RATES, useWorkspace } from '../components/workspace-context';
 import { commandForKey, JUMP_FRAMES } from '../lib/keyboard-map';
 
-const ZOOM_STEP = 1.25;
+import { ZOOM_STEP } from '../components/stage/zoom-controls';
 
 function isTyping(target: EventTarget | null): boolean {
   if (!(target instanceof HTMLElement)) return false;

@@ -8,6 +8,8 @@ import { paths } from '@/config/paths';
 import type { ClipDto } from '@shared/schemas/clip.schema';
 import { clipExtras } from '../api/clip-contract';
 import { useWorkspaceClip } from '../api/get-workspace-clip';
+import { AnalysisPanel } from '../components/analysis';
+import { CurvesPanel, TurnTable } from '../components/curves';
 import { OverlayToolbar } from '../components/overlays/overlay-toolbar';
 import { PoseOverlay } from '../components/overlays/pose-overlay';
 import { ScrubBar } from '../components/player/scrub-bar';
@@ -86,6 +88,7 @@ function Workspace() {
         <VideoStage overlay={<PoseOverlay />} />
         <ScrubBar />
         <TransportBar helpOpen={helpOpen} onHelpOpenChange={setHelpOpen} />
+        <AnalysisPanel />
       </div>
       <aside className="space-y-4">
         <ReadoutsPanel />
@@ -95,6 +98,10 @@ function Workspace() {
           licensed professional. Defer to certified coaching standards and local rules.
         </Notice>
       </aside>
+      <div className="min-w-0 space-y-4 xl:col-span-2">
+        <CurvesPanel />
+        <TurnTable />
+      </div>
     </div>
   );
 }

@@ -64,13 +64,6 @@ export function OverlayToolbar() {
           </button>
         ) : null}
       </div>
-      {snowLineEditing ? (
-        <p className="w-full text-xs text-granite-600">
-          Drag the two round handles onto the snow surface (
-          {view === 'front' ? 'across the hill' : 'along the slope'}). Every tilt and lean is then measured
-          against that line.
-        </p>
-      ) : null}
     </div>
   );
 }

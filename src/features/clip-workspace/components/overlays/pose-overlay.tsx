@@ -153,7 +153,9 @@ export function PoseOverlay() {
     } else if (drag.kind === 'handle') {
       const line = draftLine ?? defaultSnowLine(videoSize);
       const moved = clampToVideo(stageToVideo(at));
-      setDraftLine(drag.index === 0 ? [moved, line[1]] : [line[0], moved]);
+      const next: ReferenceLine = drag.index === 0 ? [moved, line[1]] : [line[0], moved];
+      setDraftLine(next);
+      if (Math.hypot(next[0][0] - next[1][0], next[0][1] - next[1][1]) >= 4) ws.previewReferenceLine(next);
     } else if (frameKeypoints) {
       const [x, y] = clampToVideo(stageToVideo(at));
       // Metrics follow the point at once: currentPose recomputes from these keypoints.
@@ -180,6 +182,7 @@ export function PoseOverlay() {
       } else {
         ws.setReferenceLine(draftLine);
       }
+      ws.previewReferenceLine(null);
       setDraftLine(null);
     } else if (drag.kind === 'point' && frameKeypoints && frameKeypoints !== drag.start) {
       const saved = frameKeypoints;
@@ -210,6 +213,25 @@ export function PoseOverlay() {
     <canvas
       ref={canvasRef}
       data-testid="pose-overlay"
+      data-snow-handles={
+        snowLineEditing
+          ? handles()
+              .map((p) => p.map((v) => v.toFixed(1)).join(','))
+              .join(' ')
+          : undefined
+      }
+      data-points={
+        currentPose && !playing
+          ? currentPose.keypoints
+              .map(
+                (k) =>
+                  `${k.name}:${videoToStage([k.x, k.y])
+                    .map((v) => v.toFixed(1))
+                    .join(',')}`,
+              )
+              .join(' ')
+          : undefined
+      }
       aria-hidden="true"
       className={cn('absolute inset-0 h-full w-full', cursor, drawingActive && 'pointer-events-none')}
       onPointerDown={onPointerDown}

@@ -1,11 +1,9 @@
 import type { ReactNode } from 'react';
-import { ChevronLeft, ChevronRight, Pause, Play, Minus, Plus, Maximize } from 'lucide-react';
+import { ChevronLeft, ChevronRight, Pause, Play } from 'lucide-react';
 import { cn } from '@/lib/format';
 import { formatClipTime, frameStartMs } from '../../lib/frame-time';
 import { PLAYBACK_RATES, useWorkspace } from '../workspace-context';
 import { KeyboardHelp } from './keyboard-help';
-
-const ZOOM_STEP = 1.25;
 
 function IconButton({
   label,
@@ -49,7 +47,7 @@ interface TransportBarProps {
 /** Play/pause, exact frame steps, speed, the frame clock and zoom. */
 export function TransportBar({ helpOpen, onHelpOpenChange, extra }: TransportBarProps) {
   const ws = useWorkspace();
-  const { currentFrame, frameCount, fps, playing, viewTransform } = ws;
+  const { currentFrame, frameCount, fps, playing } = ws;
 
   return (
     <div className="flex flex-wrap items-center gap-x-4 gap-y-2">
@@ -106,22 +104,6 @@ export function TransportBar({ helpOpen, onHelpOpenChange, extra }: TransportBar
       </p>
 
       <div className="ml-auto flex items-center gap-1.5">
-        <IconButton
-          label="Zoom out"
-          onClick={() => ws.zoomAt(viewTransform.zoom / ZOOM_STEP)}
-          disabled={viewTransform.zoom <= 1}
-        >
-          <Minus aria-hidden="true" className="h-4 w-4" />
-        </IconButton>
-        <span className="w-12 text-center font-mono text-xs text-granite-600 tabular-nums">
-          {Math.round(viewTransform.zoom * 100)}%
-        </span>
-        <IconButton label="Zoom in" onClick={() => ws.zoomAt(viewTransform.zoom * ZOOM_STEP)}>
-          <Plus aria-hidden="true" className="h-4 w-4" />
-        </IconButton>
-        <IconButton label="Whole frame" onClick={ws.resetZoom} disabled={viewTransform.zoom === 1}>
-          <Maximize aria-hidden="true" className="h-4 w-4" />
-        </IconButton>
         <KeyboardHelp open={helpOpen} onOpenChange={onHelpOpenChange} />
         {extra}
       </div>
