@@ -60,7 +60,8 @@ export function KeyboardHelp({ open, onOpenChange }: KeyboardHelpProps) {
             ))}
           </dl>
           <p className="mt-2 text-xs text-granite-400">
-            Wheel over the frame zooms at the pointer; drag the zoomed frame to pan.
+            Ctrl + wheel (or a pinch) over the frame zooms at the pointer; drag the zoomed frame to pan; drag
+            a joint to correct it.
           </p>
         </div>
       ) : null}

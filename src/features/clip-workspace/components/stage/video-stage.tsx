@@ -38,6 +38,8 @@ export function VideoStage({ overlay }: { overlay: ReactNode }) {
     const box = boxRef.current;
     if (!box) return;
     const onWheel = (event: WheelEvent) => {
+      // Plain wheel scrolls the page; Ctrl/⌘ + wheel (and a trackpad pinch, which sets ctrlKey) zooms.
+      if (!event.ctrlKey && !event.metaKey) return;
       event.preventDefault();
       const rect = box.getBoundingClientRect();
       const factor = event.deltaY < 0 ? WHEEL_ZOOM_STEP : 1 / WHEEL_ZOOM_STEP;
