@@ -5,7 +5,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { createTestServer } from '../helpers/server-harness';
-import { videoFixture } from '../helpers/video-fixture';
+import { removeVideoFixtures, videoFixture } from '../helpers/video-fixture';
 
 const SIZE_MB = Number(process.env.BENCH_UPLOAD_MB ?? 256);
 
@@ -60,4 +60,5 @@ try {
 } finally {
   await server.close();
   await fs.rm(scratch, { recursive: true, force: true });
+  await removeVideoFixtures();
 }

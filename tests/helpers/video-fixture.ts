@@ -18,6 +18,14 @@ export interface VideoFixture {
 }
 
 const cache = new Map<string, Promise<VideoFixture>>();
+const dirs = new Set<string>();
+
+/** Deletes the rendered fixtures; call from afterAll (test files get their own module state). */
+export async function removeVideoFixtures(): Promise<void> {
+  await Promise.all([...dirs].map((dir) => fs.rm(dir, { recursive: true, force: true })));
+  dirs.clear();
+  cache.clear();
+}
 
 /**
  * Renders ffmpeg's test pattern to a tiny clip in a temp folder (once per worker and format).
@@ -28,6 +36,7 @@ export function videoFixture(format: 'mp4' | 'webm' = 'mp4'): Promise<VideoFixtu
   if (!pending) {
     pending = (async () => {
       const dir = await fs.mkdtemp(path.join(os.tmpdir(), 'stanceline-fixture-'));
+      dirs.add(dir);
       const file = path.join(dir, `testsrc.${format}`);
       const codec =
         format === 'mp4'

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestServer, type DemoRole, type TestServer } from '../helpers/server-harness';
 import { listRoutes } from '../helpers/route-list';
-import { videoFixture, type VideoFixture } from '../helpers/video-fixture';
+import { removeVideoFixtures, videoFixture, type VideoFixture } from '../helpers/video-fixture';
 
 // The role table of PRODUCT.md ("People and roles") as expected HTTP statuses, one row per route and
 // target. 404 where the record is outside the caller's reach (403 would confirm it exists), 403 where
@@ -294,6 +294,7 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   await server.close();
+  await removeVideoFixtures();
 });
 
 async function call(row: Row, auth: Record<string, string>, role: DemoRole) {

@@ -5,7 +5,12 @@ import type { Test } from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { AuditRepository } from '@server/repositories/audit.repository';
 import { createTestServer, type TestServer } from '../helpers/server-harness';
-import { rotatedVideoFixture, videoFixture, type VideoFixture } from '../helpers/video-fixture';
+import {
+  rotatedVideoFixture,
+  videoFixture,
+  type VideoFixture,
+  removeVideoFixtures,
+} from '../helpers/video-fixture';
 
 const LIMIT = 256 * 1024;
 let server: TestServer;
@@ -26,6 +31,7 @@ beforeAll(async () => {
 afterAll(async () => {
   await server.close();
   await fs.rm(scratch, { recursive: true, force: true });
+  await removeVideoFixtures();
 });
 
 async function upload(file: string, fields: Record<string, string>, role: 'head' | 'coach' = 'coach') {

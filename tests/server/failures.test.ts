@@ -4,7 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Mailer } from '@server/mail/mailer';
 import { ObjectStorage } from '@server/storage/object-storage';
 import { createTestServer, type TestServer } from '../helpers/server-harness';
-import { videoFixture, type VideoFixture } from '../helpers/video-fixture';
+import { removeVideoFixtures, videoFixture, type VideoFixture } from '../helpers/video-fixture';
 
 // When a backing service fails, the caller gets a clear 5xx and nothing half-done is kept.
 
@@ -23,6 +23,7 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   await server.close();
+  await removeVideoFixtures();
 });
 
 describe('clip storage unreachable', () => {
