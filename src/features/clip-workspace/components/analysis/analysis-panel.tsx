@@ -98,7 +98,7 @@ export function AnalysisPanel() {
         </div>
       </div>
 
-      {!busy && storedFrames === 0 && run.state !== 'failed' && !stored.isPending ? (
+      {!busy && storedFrames === 0 && run.state !== 'failed' && stored.isSuccess ? (
         <p className="mt-3 text-sm text-granite-600">
           No whole-clip analysis yet. <strong className="font-medium">Analyze whole clip</strong> runs the{' '}
           {MODEL_NAMES[ws.model]} model on {planned === ws.frameCount ? 'all' : planned} of the clip&rsquo;s{' '}
