@@ -315,7 +315,8 @@ async function call(row: Row, auth: Record<string, string>, role: DemoRole) {
 describe('role x route matrix', () => {
   it('covers every route the app registers', () => {
     const covered = new Set([...ROWS.map((r) => r.route), ...PUBLIC_ROUTES]);
-    expect(listRoutes(server.app).filter((r) => !covered.has(r))).toEqual([]);
+    const missing = listRoutes(server.app).filter((r) => !covered.has(r));
+    expect(missing, 'add a ROWS entry (expected status per role) for each of these routes').toEqual([]);
   });
 
   it('lets the analyst create nothing', () => {
