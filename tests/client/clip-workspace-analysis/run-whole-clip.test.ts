@@ -67,11 +67,16 @@ describe('whole-clip run', () => {
   it('keeps every frame analysed before Cancel', async () => {
     const controller = new AbortController();
     const { deps, posts } = fakes({ onDetect: (i) => i === 4 && controller.abort() });
+    const discarded: number[] = [];
+    deps.discard = (frame) => discarded.push(frame);
     const outcome = await runWholeClip(plan(20), deps, { signal: controller.signal, batchSize: 3 });
+    await Promise.resolve();
     // Frames 0..4 were detected (4 while Cancel came in); the loop stops before frame 5.
     const sent = posts.flatMap((p) => p.frames.map((f) => f.frameIndex));
     expect(sent).toEqual([0, 1, 2, 3, 4]);
     expect(outcome).toMatchObject({ status: 'cancelled', done: 5, stored: 5, total: 20 });
+    // Frame 5 was already being decoded when Cancel came; it is freed, not detected.
+    expect(discarded).toEqual([5]);
   });
 
   it('stops on a failed upload and says how much is stored', async () => {

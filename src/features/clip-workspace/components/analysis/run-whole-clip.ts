@@ -18,6 +18,8 @@ export interface WholeClipDeps<F> {
   postBatch(input: PostClipFramesInput, signal?: AbortSignal): Promise<PostClipFramesResponse>;
   /** Monotonic milliseconds (performance.now in the browser). */
   now(): number;
+  /** Frees a grabbed frame that will not be detected (the run stopped first). */
+  discard?(frame: F): void;
 }
 
 export interface WholeClipPlan {
@@ -170,9 +172,10 @@ export async function runWholeClip<F>(
         error,
       );
     }
+  } finally {
+    // A grab started for the next frame may still be running; its frame will not be used.
+    void next?.then((frame) => deps.discard?.(frame)).catch(() => undefined);
   }
-  // A grab started for the next frame may still be running; its result is not needed.
-  next?.catch(() => undefined);
   flush();
   await posting;
   if (postError) {

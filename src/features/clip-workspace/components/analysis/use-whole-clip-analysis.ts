@@ -83,6 +83,7 @@ export function useWholeClipAnalysis() {
             detect: (bitmap, req) => pose.detect(bitmap, req),
             postBatch: upload.postBatch,
             now: () => performance.now(),
+            discard: (bitmap) => bitmap.close(),
           },
           {
             signal: abort.signal,
