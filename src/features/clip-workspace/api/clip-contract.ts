@@ -1,33 +1,12 @@
-import type { PoseModelName, ReferenceLine } from '@shared/keypoints';
-import type { ClipDto } from '@shared/schemas/clip.schema';
+import type { ClipAnalysisDto, ClipDto, ThumbnailStripDto } from '@shared/schemas/clip.schema';
 
-// Fields the clip API is gaining (poster, thumbnail strip, snow line, model, age group, analysis).
-// Until every server returns them they are read as optional, so an older server still opens the clip.
+// The workspace's names for the clip's media and analysis fields, kept so both halves of the page
+// read them one way.
 
-export interface ClipThumbnails {
-  url: string;
-  count: number;
-  tileWidth: number;
-  tileHeight: number;
-  columns: number;
-  intervalMs: number;
-}
-
-export interface ClipAnalysisInfo {
-  frameCount: number;
-  model: PoseModelName;
-  updatedAt: string;
-}
-
-export type WorkspaceClip = ClipDto & {
-  thumbnails?: ClipThumbnails | null;
-  rotation?: number;
-  referenceLine?: ReferenceLine | null;
-  defaultModel?: PoseModelName;
-  ageGroup?: { id: string; name: string } | null;
-  analysis?: ClipAnalysisInfo | null;
-};
+export type ClipThumbnails = ThumbnailStripDto;
+export type ClipAnalysisInfo = ClipAnalysisDto;
+export type WorkspaceClip = ClipDto;
 
 export function clipExtras(clip: ClipDto): WorkspaceClip {
-  return clip as WorkspaceClip;
+  return clip;
 }

@@ -1,14 +1,10 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { ToleranceBand } from '@shared/tolerance';
+import type { ToleranceBandDto, ToleranceBandListResponse } from '@shared/schemas/tolerance.schema';
 import { api } from '@/lib/api-client';
 import { clipWorkspaceKeys } from './keys';
 
-/** A band as GET /api/tolerance-bands returns it (metric, age group, min, max, target, source). */
-export type ToleranceBandDto = ToleranceBand;
-
-export interface ToleranceBandsResponse {
-  bands: ToleranceBandDto[];
-}
+export type { ToleranceBandDto };
+export type ToleranceBandsResponse = ToleranceBandListResponse;
 
 export function getToleranceBands(ageGroupId: string): Promise<ToleranceBandsResponse> {
   return api.get<ToleranceBandsResponse>('/api/tolerance-bands', { query: { ageGroupId } });

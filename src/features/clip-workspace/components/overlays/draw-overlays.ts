@@ -12,7 +12,7 @@ import type { MetricKey } from '@shared/metrics';
 import { checkMetricBands, formatMetricValue } from '../../lib/metric-format';
 import { arcBetween, lineAcrossRect, snowLineAxes, unit, widthBar } from '../../lib/overlay-geometry';
 import type { Point, Size } from '../../lib/stage-transform';
-import type { ToleranceBandDto } from '../../api/get-tolerance-bands';
+import type { ToleranceBand } from '@shared/tolerance';
 import type { OverlayToggles, PoseFrameResult } from '../workspace-context';
 
 // Readable on snow: every stroke gets a dark casing first, then a saturated colour.
@@ -37,7 +37,7 @@ export interface OverlayScene {
   view: View;
   referenceLine: ReferenceLine | null;
   toggles: OverlayToggles;
-  bands: readonly ToleranceBandDto[];
+  bands: readonly ToleranceBand[];
   videoSize: Size;
   /** Show the snow line's handles (editing mode). */
   snowLineHandles: boolean;
