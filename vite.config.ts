@@ -11,6 +11,8 @@ export default defineConfig({
     alias: {
       '@shared': here('./shared'),
       '@': here('./src'),
+      // pose-detection's bundle imports this non-ES-module script for a runtime we never use.
+      '@mediapipe/pose': here('./shared/pose/mediapipe-pose-shim.ts'),
     },
   },
   // Model weights and wasm binaries are served from the app's own origin (never a CDN).

@@ -43,7 +43,10 @@ export interface PoseFrameResult extends PoseFrameRequest {
 export interface WorkerConfig {
   modelBase: string;
   wasmBase: string;
+  /** Tried in order; default webgl, wasm, cpu. */
   backends: string[];
+  /** Use WebGL even when the browser draws it in software (much slower than WASM there). */
+  allowSoftwareWebgl: boolean;
   /** Frames with a longer side are downscaled before detection; keypoints are scaled back. */
   maxSide: number;
 }

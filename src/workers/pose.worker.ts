@@ -20,6 +20,7 @@ let config: WorkerConfig = {
   modelBase: '/models',
   wasmBase: '/wasm/',
   backends: ['webgl', 'wasm', 'cpu'],
+  allowSoftwareWebgl: false,
   maxSide: 1280,
 };
 const detectors = new Map<PoseModelName, Promise<PoseDetector>>();
@@ -31,6 +32,31 @@ function post(message: WorkerResponse, transfer: Transferable[] = []): void {
   scope.postMessage(message, transfer);
 }
 
+/**
+ * WebGL drawn in software (SwiftShader, llvmpipe: a browser without a usable GPU) runs these models
+ * 50-100 times slower than WASM, so it is skipped unless the configuration allows it.
+ */
+function softwareWebgl(): string | null {
+  try {
+    const gl =
+      new OffscreenCanvas(1, 1).getContext('webgl2') ?? new OffscreenCanvas(1, 1).getContext('webgl');
+    if (!gl) return null;
+    const info = gl.getExtension('WEBGL_debug_renderer_info');
+    const renderer = String(gl.getParameter(info ? info.UNMASKED_RENDERER_WEBGL : gl.RENDERER));
+    gl.getExtension('WEBGL_lose_context')?.loseContext();
+    return /swiftshader|llvmpipe|softpipe|software/i.test(renderer) ? renderer : null;
+  } catch {
+    return null;
+  }
+}
+
+function backendOrder(): string[] {
+  if (config.allowSoftwareWebgl || !config.backends.includes('webgl') || softwareWebgl() === null) {
+    return config.backends;
+  }
+  return config.backends.filter((b) => b !== 'webgl');
+}
+
 function detectorFor(model: PoseModelName): Promise<PoseDetector> {
   let detector = detectors.get(model);
   if (!detector) {
@@ -39,7 +65,7 @@ function detectorFor(model: PoseModelName): Promise<PoseDetector> {
       tf,
       model,
       source: (dir) => modelUrl(dir, config.modelBase),
-      backends: config.backends,
+      backends: backendOrder(),
     });
     detector.catch(() => detectors.delete(model));
     detectors.set(model, detector);
@@ -111,8 +137,9 @@ async function handleDetect(message: Extract<WorkerRequest, { type: 'detect' }>)
       },
       backend: detector.backend,
     };
-    post({ type: 'result', id, result });
+    // Progress first: the client's queue promise may settle as soon as the last result arrives.
     if (queueId) post({ type: 'progress', queueId, id });
+    post({ type: 'result', id, result });
   } catch (error) {
     post({ type: 'error', id, message: error instanceof Error ? error.message : String(error) });
   }
