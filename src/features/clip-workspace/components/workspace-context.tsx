@@ -18,6 +18,7 @@ import { clipExtras } from '../api/clip-contract';
 import { useToleranceBands, type ToleranceBandDto } from '../api/get-tolerance-bands';
 import { useUpdateClip } from '../api/update-clip';
 import { clampFrame, frameFromMediaTime, seekTimeForFrame } from '../lib/frame-time';
+import { drawOverlays } from './overlays/draw-overlays';
 import {
   clampView,
   fitContain,
@@ -141,8 +142,22 @@ export interface WorkspaceState {
   /** While on, the snow line's two handles can be dragged on the stage. */
   snowLineEditing: boolean;
   setSnowLineEditing(on: boolean): void;
-  /** Media problems (expired link, codec) are reported here by the player. */
-  renewMedia(): Promise<unknown>;
+  /**
+   * Draws the overlays of the frame on screen (as toggled) onto any 2D canvas, e.g. a full-size still:
+   * `map` takes video pixels to that canvas, `scale` multiplies line widths and text.
+   */
+  drawOverlaysOn(
+    ctx: CanvasRenderingContext2D,
+    map: (p: [number, number]) => [number, number],
+    scale?: number,
+  ): void;
+  /**
+   * The media URL the visible player uses. It stays put when the clip is refetched (each fetch signs a
+   * fresh URL, and swapping it would reload the video); it changes only through renewMedia.
+   */
+  mediaSrc: string;
+  /** Fetches a fresh signed URL after a media error (an expired link) and switches the player to it. */
+  renewMedia(): Promise<string | null>;
 }
 
 const WorkspaceContext = createContext<WorkspaceState | null>(null);
@@ -166,11 +181,11 @@ function sizeOf(el: HTMLElement): Size {
 interface WorkspaceProviderProps {
   clip: ClipDto;
   /** Fetches a fresh signed media URL (the old one may expire while the page is open). */
-  renewMedia: () => Promise<unknown>;
+  renewMedia: () => Promise<string | null>;
   children: ReactNode;
 }
 
-export function WorkspaceProvider({ clip, renewMedia, children }: WorkspaceProviderProps) {
+export function WorkspaceProvider({ clip, renewMedia: fetchMediaUrl, children }: WorkspaceProviderProps) {
   const extras = clipExtras(clip);
   const toast = useToast();
   const updateClip = useUpdateClip(clip.id);
@@ -181,6 +196,12 @@ export function WorkspaceProvider({ clip, renewMedia, children }: WorkspaceProvi
       ? clip.frameCount
       : Math.max(1, Math.round(((clip.durationMs ?? 0) / 1000) * fps));
 
+  const [mediaSrc, setMediaSrc] = useState(clip.mediaUrl);
+  const renewMedia = useCallback(async () => {
+    const url = await fetchMediaUrl();
+    if (url) setMediaSrc(url);
+    return url;
+  }, [fetchMediaUrl]);
   const videoRef = useRef<HTMLVideoElement | null>(null);
   const [videoEl, setVideoEl] = useState<HTMLVideoElement | null>(null);
   const [stageEl, setStageEl] = useState<HTMLElement | null>(null);
@@ -418,6 +439,24 @@ export function WorkspaceProvider({ clip, renewMedia, children }: WorkspaceProvi
     };
   }, [frameKeypoints, currentFrame, clip.view, effectiveReferenceLine]);
 
+  const drawOverlaysOn = useCallback(
+    (ctx: CanvasRenderingContext2D, map: (p: [number, number]) => [number, number], scale = 1) =>
+      drawOverlays(
+        ctx,
+        {
+          pose: currentPose,
+          view: clip.view,
+          referenceLine: effectiveReferenceLine,
+          toggles: overlays,
+          bands,
+          videoSize,
+          snowLineHandles: false,
+        },
+        { map, scale },
+      ),
+    [currentPose, clip.view, effectiveReferenceLine, overlays, bands, videoSize],
+  );
+
   const value: WorkspaceState = {
     clip,
     fps,
@@ -468,6 +507,8 @@ export function WorkspaceProvider({ clip, renewMedia, children }: WorkspaceProvi
     setOverlay,
     snowLineEditing,
     setSnowLineEditing,
+    drawOverlaysOn,
+    mediaSrc,
     renewMedia,
   };
 

@@ -23,6 +23,8 @@ import { useWorkspaceKeys } from '../hooks/use-workspace-keys';
 export function ClipWorkspaceRoute() {
   const { clipId = '' } = useParams();
   const query = useWorkspaceClip(clipId);
+  const { refetch } = query;
+  const renewMedia = useCallback(async () => (await refetch()).data?.clip.mediaUrl ?? null, [refetch]);
 
   if (query.isPending) return <PageSpinner label="Loading the clip" />;
   if (query.isError)
@@ -46,7 +48,7 @@ export function ClipWorkspaceRoute() {
           </p>
         </Notice>
       ) : (
-        <WorkspaceProvider key={clip.id} clip={clip} renewMedia={() => query.refetch()}>
+        <WorkspaceProvider key={clip.id} clip={clip} renewMedia={renewMedia}>
           <Workspace />
         </WorkspaceProvider>
       )}

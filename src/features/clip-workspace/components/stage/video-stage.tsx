@@ -54,8 +54,9 @@ export function VideoStage({ overlay }: { overlay: ReactNode }) {
     // One silent retry with a fresh URL covers an expired media token; a second failure is real.
     if (!renewed.current) {
       renewed.current = true;
-      await renewMedia();
-      video.load();
+      const url = await renewMedia();
+      // Same URL back (token still valid): reload the element so it tries once more.
+      if (url === null || url === ws.mediaSrc) video.load();
       return;
     }
     setMediaError(describeMediaError(video.error));
@@ -74,8 +75,7 @@ export function VideoStage({ overlay }: { overlay: ReactNode }) {
       >
         <video
           ref={setVideoElement}
-          key={clip.mediaUrl}
-          src={clip.mediaUrl}
+          src={ws.mediaSrc}
           poster={clip.posterUrl ?? undefined}
           muted
           playsInline
