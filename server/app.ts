@@ -13,24 +13,32 @@ import { apiNotFound, createErrorHandler } from './middleware/error.middleware';
 import { createRequestLogger } from './middleware/request-logger.middleware';
 import { athleteRoutes } from './routes/athletes.routes';
 import { authRoutes } from './routes/auth.routes';
+import { clipAnalysisRoutes } from './routes/clip-analysis.routes';
+import { clipImageRoutes } from './routes/clip-images.routes';
 import { clipRoutes } from './routes/clips.routes';
 import { clubRoutes } from './routes/club.routes';
 import type { RouteContext } from './routes/context';
 import { devMailboxRoutes } from './routes/dev-mailbox.routes';
 import { healthRoutes } from './routes/health.routes';
 import { invitationRoutes } from './routes/invitations.routes';
+import { noteRoutes } from './routes/notes.routes';
 import { sessionRoutes } from './routes/sessions.routes';
 import { staticRoutes } from './routes/static.routes';
+import { toleranceBandRoutes } from './routes/tolerance-bands.routes';
 import { AccessService } from './services/access.service';
 import { AthleteService } from './services/athlete.service';
 import { AuditService } from './services/audit.service';
 import { AuthService } from './services/auth.service';
+import { ClipAnalysisService, FrameStore } from './services/clip-analysis.service';
+import { ClipImageService } from './services/clip-image.service';
 import { ClipService } from './services/clip.service';
 import { ClubService } from './services/club.service';
 import { InvitationService } from './services/invitation.service';
+import { NoteService } from './services/note.service';
 import { systemClock, type Clock } from './services/principal';
 import { SessionService } from './services/session.service';
 import { TokenService } from './services/token.service';
+import { ToleranceBandService } from './services/tolerance-band.service';
 import type { ObjectStorage } from './storage/object-storage';
 
 export interface AppDeps {
@@ -64,6 +72,19 @@ export function createApp(deps: AppDeps): Express {
   const tokens = new TokenService(deps.jwtSecret, config.accessTokenTtlMs, config.mediaTokenTtlMs, clock);
   const auth = new AuthService(dataSource, tokens, audit, clock, config.refreshTtlMs, config.bcryptRounds);
   const sessions = new SessionService(dataSource, access, audit, clock);
+  const clips = new ClipService(
+    dataSource,
+    access,
+    sessions,
+    deps.storage,
+    tokens,
+    audit,
+    clock,
+    deps.mediaQueue,
+  );
+  const toleranceBands = new ToleranceBandService(dataSource, clock);
+  const frameStore = new FrameStore(dataSource, toleranceBands, clock);
+  const analysis = new ClipAnalysisService(dataSource, access, clips, frameStore, audit, clock);
   const ctx: RouteContext = {
     config,
     dataSource,
@@ -72,7 +93,11 @@ export function createApp(deps: AppDeps): Express {
     auth,
     athletes: new AthleteService(dataSource, access, audit, clock),
     sessions,
-    clips: new ClipService(dataSource, access, sessions, deps.storage, tokens, audit, clock, deps.mediaQueue),
+    clips,
+    clipImages: new ClipImageService(clips),
+    analysis,
+    notes: new NoteService(dataSource, clips, analysis, audit, clock),
+    toleranceBands,
     invitations: new InvitationService(
       dataSource,
       access,
@@ -90,6 +115,8 @@ export function createApp(deps: AppDeps): Express {
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
   app.use(createRequestLogger(deps.logger));
+  // A batch of 500 frames of 33 keypoints is about 2 MB of JSON; every other body stays small.
+  app.use(['/api/clips/:id/frames', '/api/clips/:id/frames/:frameIndex'], express.json({ limit: '8mb' }));
   app.use(express.json({ limit: '1mb' }));
   app.use(cookieParser());
 
@@ -98,6 +125,10 @@ export function createApp(deps: AppDeps): Express {
   app.use(athleteRoutes(ctx));
   app.use(sessionRoutes(ctx));
   app.use(clipRoutes(ctx));
+  app.use(clipImageRoutes(ctx));
+  app.use(clipAnalysisRoutes(ctx));
+  app.use(noteRoutes(ctx));
+  app.use(toleranceBandRoutes(ctx));
   app.use(invitationRoutes(ctx));
   app.use(clubRoutes(ctx));
   app.use('/api', apiNotFound);

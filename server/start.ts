@@ -1,11 +1,20 @@
 import type { Server } from 'node:http';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
 import type { AddressInfo } from 'node:net';
 import { createApp } from './app';
 import { loadConfig } from './config';
 import { createLogger } from './logger';
 import { startRuntime } from './runtime';
+import { seedDemoClips } from './seed/demo-clips';
 import { seedDemoClub } from './seed/demo-seed';
+import { FrameStore } from './services/clip-analysis.service';
+import { systemClock } from './services/principal';
+import { ToleranceBandService } from './services/tolerance-band.service';
 import type { Clock } from './services/principal';
+
+/** The checkout: the demo footage and keypoints live under its fixtures/. */
+const DEMO_ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 
 export interface StartOptions {
   port?: number;
@@ -37,13 +46,32 @@ export async function startStanceline(opts: StartOptions = {}): Promise<StartedS
 
   let server: Server | undefined;
   try {
-    if (opts.seedDemo ?? true) {
-      const seeded = await seedDemoClub(runtime.dataSource, {
-        bcryptRounds: config.bcryptRounds,
-        clock: opts.clock,
-      });
-      if (seeded) logger.info({ club: seeded.clubName }, 'seeded the demo club');
+    const seeded =
+      (opts.seedDemo ?? true)
+        ? await seedDemoClub(runtime.dataSource, { bcryptRounds: config.bcryptRounds, clock: opts.clock })
+        : null;
+    if (seeded) logger.info({ club: seeded.clubName }, 'seeded the demo club');
+    const bands = new ToleranceBandService(runtime.dataSource, opts.clock ?? systemClock);
+    const added = await bands.ensureDefaultsForAllClubs();
+    if (added > 0) logger.info({ bands: added }, 'seeded common-practice tolerance bands');
+    if (seeded) {
+      const clips = await seedDemoClips(
+        {
+          dataSource: runtime.dataSource,
+          storage: runtime.storage,
+          frames: new FrameStore(runtime.dataSource, bands, opts.clock ?? systemClock),
+          logger,
+          workDir: path.join(config.dataDir, 'media-work'),
+          clock: opts.clock,
+          projectRoot: DEMO_ROOT,
+        },
+        seeded.clubId,
+      );
+      logger.info({ clips: clips.length }, 'seeded the demo clips');
     }
+    // Clips a previous run left uploaded or half processed.
+    const resumed = await runtime.mediaQueue.resume();
+    if (resumed > 0) logger.info({ clips: resumed }, 'resumed clip processing');
     // The public URL depends on the port, which is only known after listen when PORT=0.
     let publicUrl = config.publicUrl ?? '';
     const app = createApp({

@@ -32,7 +32,9 @@ async function sendMedia(ctx: RouteContext, req: Request, res: Response, target:
   }
   res.setHeader('Content-Type', target.contentType);
   res.setHeader('Cache-Control', 'private, max-age=3600');
-  res.setHeader('ETag', `"${target.clip.sha256}"`);
+  // The playable copy has other bytes than the original, so it needs its own validator.
+  const copy = target.key === target.clip.storageKey ? '' : '-playable';
+  res.setHeader('ETag', `"${target.clip.sha256}${copy}"`);
   if (range) {
     res.status(206);
     res.setHeader('Content-Range', `bytes ${range.start}-${range.end}/${size}`);
@@ -87,7 +89,10 @@ export function clipRoutes(ctx: RouteContext): Router {
     guard.authenticateMedia,
     guard.authorize('clip:read'),
     async (req, res) => {
-      await sendMedia(ctx, req, res, await ctx.clips.mediaTarget(principalOf(req), req.params.id as string));
+      // The playable copy unless ?variant=original asks for the file as uploaded.
+      const variant = req.query.variant === 'original' ? 'original' : 'playable';
+      const target = await ctx.clips.mediaTarget(principalOf(req), req.params.id as string, variant);
+      await sendMedia(ctx, req, res, target);
     },
   );
 

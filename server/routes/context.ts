@@ -2,10 +2,14 @@ import type { Config } from '../config';
 import type { AuthMiddleware } from '../middleware/auth.middleware';
 import type { AthleteService } from '../services/athlete.service';
 import type { AuthService } from '../services/auth.service';
+import type { ClipAnalysisService } from '../services/clip-analysis.service';
+import type { ClipImageService } from '../services/clip-image.service';
 import type { ClipService } from '../services/clip.service';
 import type { ClubService } from '../services/club.service';
 import type { InvitationService } from '../services/invitation.service';
+import type { NoteService } from '../services/note.service';
 import type { SessionService } from '../services/session.service';
+import type { ToleranceBandService } from '../services/tolerance-band.service';
 import type { ObjectStorage } from '../storage/object-storage';
 import type { DataSource } from 'typeorm';
 
@@ -19,6 +23,10 @@ export interface RouteContext {
   athletes: AthleteService;
   sessions: SessionService;
   clips: ClipService;
+  clipImages: ClipImageService;
+  analysis: ClipAnalysisService;
+  notes: NoteService;
+  toleranceBands: ToleranceBandService;
   invitations: InvitationService;
   club: ClubService;
 }

@@ -8,6 +8,7 @@ import { ClubRepository } from '../repositories/club.repository';
 import { SessionRepository } from '../repositories/session.repository';
 import { UserRepository } from '../repositories/user.repository';
 import { systemClock, type Clock } from '../services/principal';
+import { ToleranceBandService } from '../services/tolerance-band.service';
 import {
   DEMO_AGE_GROUPS,
   DEMO_ATHLETES,
@@ -119,6 +120,7 @@ export async function seedDemoClub(
         createdAt: now,
       });
     }
+    await new ToleranceBandService(dataSource, opts.clock ?? systemClock).ensureDefaults(manager, clubId);
     return { clubId, clubName: DEMO_CLUB_NAME };
   });
 }

@@ -25,6 +25,10 @@ export const PERMISSIONS = {
   'session:create': ['head_coach', 'coach'],
   'clip:read': ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'],
   'clip:upload': ['head_coach', 'coach'],
+  'clip:analyse': ['head_coach', 'coach'],
+  'note:read': ['head_coach', 'coach', 'analyst'],
+  'note:write': ['head_coach', 'coach'],
+  'tolerance:read': ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'],
   'invitation:create': ['head_coach', 'coach'],
   'club:members': ['head_coach'],
 } as const satisfies Record<string, readonly Role[]>;
@@ -41,6 +45,10 @@ const FORBIDDEN_MESSAGES: Record<Permission, string> = {
   'session:create': 'Only coaches and the head coach can create sessions',
   'clip:read': 'Your role cannot view clips',
   'clip:upload': 'Only coaches and the head coach can upload clips',
+  'clip:analyse': 'Only coaches and the head coach can change a clip’s analysis',
+  'note:read': 'Notes are shared with athletes and guardians only when a review is published',
+  'note:write': 'Only coaches and the head coach can write notes',
+  'tolerance:read': 'Your role cannot view tolerance bands',
   'invitation:create': 'Only coaches and the head coach can invite members',
   'club:members': 'Only the head coach can see the member list',
 };

@@ -10,6 +10,7 @@ import {
   type ToleranceBand as SharedBand,
 } from '@shared/tolerance';
 import type { AgeGroup } from '../entities/age-group.entity';
+import { ClubEntity } from '../entities/club.entity';
 import type { ToleranceBand } from '../entities/tolerance-band.entity';
 import { notFound } from '../errors';
 import { ClubRepository } from '../repositories/club.repository';
@@ -82,6 +83,15 @@ export class ToleranceBandService {
     if (!group) return [];
     const rows = await new ToleranceBandRepository(manager).list({ clubId, ageGroupId });
     return rows.map((row) => ({ band: toSharedBand(row, group.name), row }));
+  }
+
+  /** ensureDefaults for every club, at start: databases from before bands were seeded get theirs. */
+  async ensureDefaultsForAllClubs(): Promise<number> {
+    return this.dataSource.transaction(async (manager) => {
+      let added = 0;
+      for (const club of await manager.find(ClubEntity)) added += await this.ensureDefaults(manager, club.id);
+      return added;
+    });
   }
 
   /**

@@ -88,7 +88,12 @@ export const frameBatchSchema = z
 export type FrameBatchInput = z.infer<typeof frameBatchSchema>;
 
 export const frameCorrectionSchema = z
-  .object({ model: poseModelSchema, keypoints: keypointListSchema })
+  .object({
+    model: poseModelSchema,
+    keypoints: keypointListSchema,
+    /** Needed only when the frame has no stored result yet and the clip's frame rate is unknown. */
+    timeMs: z.number().min(0).optional(),
+  })
   .superRefine((body, ctx) => checkKeypointsForModel(body.model, body.keypoints, ctx, ['keypoints']));
 export type FrameCorrectionInput = z.infer<typeof frameCorrectionSchema>;
 

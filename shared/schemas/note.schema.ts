@@ -48,6 +48,8 @@ export const createNoteSchema = z.object({
   drawing: noteDrawingSchema.nullable().optional(),
 });
 export type CreateNoteInput = z.input<typeof createNoteSchema>;
+/** As the server receives it, after parsing (drawing lists filled in). */
+export type CreateNoteBody = z.infer<typeof createNoteSchema>;
 
 export const updateNoteSchema = z
   .object({
@@ -58,6 +60,7 @@ export const updateNoteSchema = z
   })
   .refine((v) => Object.values(v).some((x) => x !== undefined), 'Change at least one field');
 export type UpdateNoteInput = z.input<typeof updateNoteSchema>;
+export type UpdateNoteBody = z.infer<typeof updateNoteSchema>;
 
 export interface NoteDto {
   id: string;
