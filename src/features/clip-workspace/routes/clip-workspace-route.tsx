@@ -10,6 +10,8 @@ import { clipExtras } from '../api/clip-contract';
 import { useWorkspaceClip } from '../api/get-workspace-clip';
 import { AnalysisPanel } from '../components/analysis';
 import { CurvesPanel, TurnTable } from '../components/curves';
+import { ExportMenu } from '../components/export';
+import { DrawingLayer, NotesPanel } from '../components/notes';
 import { OverlayToolbar } from '../components/overlays/overlay-toolbar';
 import { PoseOverlay } from '../components/overlays/pose-overlay';
 import { ScrubBar } from '../components/player/scrub-bar';
@@ -88,12 +90,15 @@ function Workspace() {
       <div className="min-w-0 space-y-3">
         <OverlayToolbar />
         <VideoStage overlay={<PoseOverlay />} />
+        {/* Portals itself into the stage's overlay slot. */}
+        <DrawingLayer />
         <ScrubBar />
-        <TransportBar helpOpen={helpOpen} onHelpOpenChange={setHelpOpen} />
+        <TransportBar helpOpen={helpOpen} onHelpOpenChange={setHelpOpen} extra={<ExportMenu />} />
         <AnalysisPanel />
       </div>
       <aside className="space-y-4">
         <ReadoutsPanel />
+        <NotesPanel />
         <Notice tone="info" title="2D estimates, not medical advice">
           Angles come from one camera and depend on where it stood and how sure the pose model is of each
           joint. They are a coaching aid, not a medical or injury assessment: pain or injury goes to a

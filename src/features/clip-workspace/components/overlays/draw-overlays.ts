@@ -222,6 +222,9 @@ class Painter {
     if (label) this.label(geometry.labelAt, label, color);
   }
 
+  /** Label boxes already drawn, so a new label can step aside instead of covering one. */
+  private placed: { x: number; y: number; w: number; h: number }[] = [];
+
   label(at: Point, text: string, color: string = '#ffffff', align: 'centre' | 'left' = 'centre') {
     const { ctx, k } = this;
     ctx.save();
@@ -229,11 +232,18 @@ class Painter {
     const width = ctx.measureText(text).width;
     const padX = 5 * k;
     const h = 18 * k;
+    const w = width + 2 * padX;
     const x = align === 'centre' ? at[0] - width / 2 - padX : at[0];
-    const y = at[1] - h / 2;
+    let y = at[1] - h / 2;
+    const overlaps = (top: number) =>
+      this.placed.some((r) => x < r.x + r.w && r.x < x + w && top < r.y + r.h && r.y < top + h);
+    // Left and right joints often coincide in a side view; stack their labels downward.
+    for (let tries = 0; tries < 6 && overlaps(y); tries++) y += h + 2 * k;
+    this.placed.push({ x, y, w, h });
+    at = [at[0], y + h / 2];
     ctx.fillStyle = OVERLAY_COLORS.label;
     ctx.beginPath();
-    ctx.roundRect(x, y, width + 2 * padX, h, 4 * k);
+    ctx.roundRect(x, y, w, h, 4 * k);
     ctx.fill();
     ctx.fillStyle = color;
     ctx.textBaseline = 'middle';
