@@ -19,6 +19,12 @@ interface Ids {
   clipElsie: string;
   clipKit: string;
   clipSigne: string;
+  /** A note on Elsie's clip by the head coach, and one by the coach. */
+  noteByHead: string;
+  noteByCoach: string;
+  /** One throwaway note per role (by head, and by coach) for DELETE, so each call has its own target. */
+  doomedByHead: Record<DemoRole, string>;
+  doomedByCoach: Record<DemoRole, string>;
 }
 
 type Expect = Record<DemoRole, number>;
@@ -26,12 +32,24 @@ type Expect = Record<DemoRole, number>;
 interface Row {
   route: string;
   target: string;
-  path: (ids: Ids) => string;
+  path: (ids: Ids, role: DemoRole) => string;
   body?: (ids: Ids, role: DemoRole) => object;
   upload?: (ids: Ids) => Record<string, string>;
   range?: boolean;
   expect: Expect;
 }
+
+// Side-view keypoints of one frame (pixels): enough for the server to compute metrics.
+const FRAME = {
+  frameIndex: 0,
+  timeMs: 0,
+  keypoints: [
+    { name: 'left_shoulder', x: 80, y: 30, score: 0.9 },
+    { name: 'left_hip', x: 78, y: 60, score: 0.9 },
+    { name: 'left_knee', x: 86, y: 85, score: 0.9 },
+    { name: 'left_ankle', x: 80, y: 110, score: 0.9 },
+  ],
+};
 
 const all = (status: number): Expect => ({
   head: status,
@@ -241,6 +259,148 @@ const ROWS: Row[] = [
     path: () => '/api/club/members',
     expect: { head: 200, coach: 403, analyst: 403, athlete: 403, guardian: 403 },
   },
+  {
+    route: 'PATCH /api/clips/:id',
+    target: 'own clip',
+    path: (i) => `/api/clips/${i.clipElsie}`,
+    body: () => ({ defaultModel: 'thunder' }),
+    expect: staffOnly(200),
+  },
+  {
+    route: 'PATCH /api/clips/:id',
+    target: 'other group clip',
+    path: (i) => `/api/clips/${i.clipSigne}`,
+    body: () => ({ defaultModel: 'thunder' }),
+    expect: { ...staffOnly(200), coach: 404 },
+  },
+  {
+    route: 'GET /api/clips/:id/poster',
+    target: 'own clip',
+    path: (i) => `/api/clips/${i.clipElsie}/poster`,
+    expect: all(200),
+  },
+  {
+    route: 'GET /api/clips/:id/poster',
+    target: 'teammate clip',
+    path: (i) => `/api/clips/${i.clipKit}/poster`,
+    expect: { head: 200, coach: 200, analyst: 200, athlete: 404, guardian: 404 },
+  },
+  {
+    route: 'GET /api/clips/:id/thumbnails',
+    target: 'own clip',
+    path: (i) => `/api/clips/${i.clipElsie}/thumbnails`,
+    expect: all(200),
+  },
+  {
+    route: 'GET /api/clips/:id/thumbnails',
+    target: 'other group clip',
+    path: (i) => `/api/clips/${i.clipSigne}/thumbnails`,
+    expect: { head: 200, coach: 404, analyst: 200, athlete: 404, guardian: 404 },
+  },
+  {
+    route: 'POST /api/clips/:id/frames',
+    target: 'own clip',
+    path: (i) => `/api/clips/${i.clipElsie}/frames`,
+    body: () => ({ model: 'lightning', frames: [FRAME] }),
+    expect: staffOnly(200),
+  },
+  {
+    route: 'POST /api/clips/:id/frames',
+    target: 'other group clip',
+    path: (i) => `/api/clips/${i.clipSigne}/frames`,
+    body: () => ({ model: 'lightning', frames: [FRAME] }),
+    expect: { ...staffOnly(200), coach: 404 },
+  },
+  {
+    route: 'GET /api/clips/:id/frames',
+    target: 'own clip',
+    path: (i) => `/api/clips/${i.clipElsie}/frames?model=lightning`,
+    expect: all(200),
+  },
+  {
+    route: 'GET /api/clips/:id/frames',
+    target: 'teammate clip',
+    path: (i) => `/api/clips/${i.clipKit}/frames`,
+    expect: { head: 200, coach: 200, analyst: 200, athlete: 404, guardian: 404 },
+  },
+  {
+    route: 'PUT /api/clips/:id/frames/:frameIndex',
+    target: 'own clip',
+    path: (i) => `/api/clips/${i.clipElsie}/frames/1`,
+    body: () => ({ model: 'lightning', keypoints: FRAME.keypoints }),
+    expect: staffOnly(200),
+  },
+  {
+    route: 'PUT /api/clips/:id/frames/:frameIndex',
+    target: 'other group clip',
+    path: (i) => `/api/clips/${i.clipSigne}/frames/1`,
+    body: () => ({ model: 'lightning', keypoints: FRAME.keypoints }),
+    expect: { ...staffOnly(200), coach: 404 },
+  },
+  {
+    route: 'GET /api/tolerance-bands',
+    target: 'U14',
+    path: (i) => `/api/tolerance-bands?ageGroupId=${i.u14}`,
+    expect: all(200),
+  },
+  {
+    route: 'GET /api/clips/:id/notes',
+    target: 'own clip (notes are unpublished)',
+    path: (i) => `/api/clips/${i.clipElsie}/notes`,
+    expect: { head: 200, coach: 200, analyst: 200, athlete: 403, guardian: 403 },
+  },
+  {
+    route: 'GET /api/clips/:id/notes',
+    target: 'other group clip',
+    path: (i) => `/api/clips/${i.clipSigne}/notes`,
+    expect: { head: 200, coach: 404, analyst: 200, athlete: 403, guardian: 403 },
+  },
+  {
+    route: 'GET /api/clips/:id/notes.vtt',
+    target: 'own clip',
+    path: (i) => `/api/clips/${i.clipElsie}/notes.vtt`,
+    expect: { head: 200, coach: 200, analyst: 200, athlete: 403, guardian: 403 },
+  },
+  {
+    route: 'POST /api/clips/:id/notes',
+    target: 'own clip',
+    path: (i) => `/api/clips/${i.clipElsie}/notes`,
+    body: () => ({ timeMs: 400, frameIndex: 10, text: 'Knees closer to hip width here' }),
+    expect: staffOnly(201),
+  },
+  {
+    route: 'POST /api/clips/:id/notes',
+    target: 'other group clip',
+    path: (i) => `/api/clips/${i.clipSigne}/notes`,
+    body: () => ({ timeMs: 400, frameIndex: 10, text: 'Inside hand forward' }),
+    expect: { ...staffOnly(201), coach: 404 },
+  },
+  {
+    route: 'PATCH /api/notes/:id',
+    target: "head coach's note",
+    path: (i) => `/api/notes/${i.noteByHead}`,
+    body: () => ({ text: 'Edited: knees closer to hip width' }),
+    expect: { head: 200, coach: 403, analyst: 403, athlete: 403, guardian: 403 },
+  },
+  {
+    route: 'PATCH /api/notes/:id',
+    target: "coach's own note",
+    path: (i) => `/api/notes/${i.noteByCoach}`,
+    body: () => ({ text: 'Edited: shoulders level at the apex' }),
+    expect: staffOnly(200),
+  },
+  {
+    route: 'DELETE /api/notes/:id',
+    target: "head coach's note",
+    path: (i, role) => `/api/notes/${i.doomedByHead[role]}`,
+    expect: { head: 204, coach: 403, analyst: 403, athlete: 403, guardian: 403 },
+  },
+  {
+    route: 'DELETE /api/notes/:id',
+    target: "coach's own note",
+    path: (i, role) => `/api/notes/${i.doomedByCoach[role]}`,
+    expect: staffOnly(204),
+  },
 ];
 
 /** Routes anyone may call; their behaviour is covered in auth and invitation tests. */
@@ -285,11 +445,33 @@ beforeAll(async () => {
     if (res.status !== 201) throw new Error(`seed clip: ${res.status} ${JSON.stringify(res.body)}`);
     return res.body.clip.id as string;
   };
-  ids = {
-    ...base,
+  const clips = {
     clipElsie: await seedClip(s1, base.elsie),
     clipKit: await seedClip(s2, base.kit),
     clipSigne: await seedClip(s1, base.signe),
+  };
+  // Posters, thumbnails and frame results need processed clips.
+  await server.runtime.mediaQueue.idle();
+  const note = async (role: DemoRole, text: string) => {
+    const res = await server.http
+      .post(`/api/clips/${clips.clipElsie}/notes`)
+      .set(await server.bearer(role))
+      .send({ timeMs: 1200, frameIndex: 30, text });
+    if (res.status !== 201) throw new Error(`seed note: ${res.status} ${JSON.stringify(res.body)}`);
+    return res.body.note.id as string;
+  };
+  const doomed = async (role: DemoRole) => {
+    const out = {} as Record<DemoRole, string>;
+    for (const r of ROLES) out[r] = await note(role, `To be deleted by ${r}`);
+    return out;
+  };
+  ids = {
+    ...base,
+    ...clips,
+    noteByHead: await note('head', 'Stance wider through the apex'),
+    noteByCoach: await note('coach', 'Level shoulders at the apex'),
+    doomedByHead: await doomed('head'),
+    doomedByCoach: await doomed('coach'),
   };
 });
 afterAll(async () => {
@@ -299,11 +481,22 @@ afterAll(async () => {
 
 async function call(row: Row, auth: Record<string, string>, role: DemoRole) {
   const method = row.route.split(' ')[0];
-  const url = row.path(ids);
+  const url = row.path(ids, role);
   if (method === 'GET') {
     const req = server.http.get(url).set(auth);
     return row.range ? req.set('Range', 'bytes=0-15') : req;
   }
+  if (method === 'DELETE') return server.http.delete(url).set(auth);
+  if (method === 'PATCH')
+    return server.http
+      .patch(url)
+      .set(auth)
+      .send(row.body ? row.body(ids, role) : {});
+  if (method === 'PUT')
+    return server.http
+      .put(url)
+      .set(auth)
+      .send(row.body ? row.body(ids, role) : {});
   const req = server.http.post(url).set(auth);
   if (row.upload) {
     for (const [k, v] of Object.entries(row.upload(ids))) req.field(k, v);
