@@ -36,13 +36,23 @@ export const derivativeKeys = (clip: Pick<Clip, 'clubId' | 'id'>) => {
   };
 };
 
-/** ffprobe/ffmpeg messages name the scratch file; coaches know the file by its own name. */
-function describe(error: unknown, scratch: string, originalName: string): string {
+/** Lines of ffmpeg output that say what is wrong with the file, rather than what ffmpeg did next. */
+const TELLING = /invalid data|moov atom|no frame|not found|unsupported|unknown|truncated|corrupt|end of file|no video/i;
+
+/**
+ * One line for the coach from ffprobe/ffmpeg output: the first telling one, without decoder
+ * prefixes ("[h264 @ 0x…]"), naming the file as the coach knows it rather than the scratch copy.
+ */
+export function describeMediaError(error: unknown, scratch: string, originalName: string): string {
   const raw =
     error instanceof FfmpegError
       ? error.detail
       : String((error as { stderr?: string }).stderr || (error as Error).message || error);
-  const line = raw.trim().split('\n').filter(Boolean).slice(-1)[0] ?? 'unknown error';
+  const lines = raw
+    .split('\n')
+    .map((l) => l.replace(/^\[[^\]]*@ 0x[0-9a-f]+\]\s*/i, '').trim())
+    .filter(Boolean);
+  const line = lines.find((l) => TELLING.test(l)) ?? lines[lines.length - 1] ?? 'unknown error';
   return line.split(scratch).join(originalName).slice(0, 300);
 }
 
@@ -74,7 +84,7 @@ export async function processClip(
       probe = await probeVideo(original);
     } catch (error) {
       throw new ClipProcessingError(
-        `The file could not be read as video: ${describe(error, original, clip.originalName)}`,
+        `The file could not be read as video: ${describeMediaError(error, original, clip.originalName)}`,
       );
     }
     if (!probe) throw new ClipProcessingError('The file could not be read as video: it has no video stream');
@@ -90,7 +100,7 @@ export async function processClip(
       } catch (error) {
         if (error instanceof MediaJobAborted) throw error;
         throw new ClipProcessingError(
-          `The file could not be read as video: ${describe(error, original, clip.originalName)}`,
+          `The file could not be read as video: ${describeMediaError(error, original, clip.originalName)}`,
         );
       }
     }
@@ -105,7 +115,7 @@ export async function processClip(
     } catch (error) {
       if (error instanceof MediaJobAborted) throw error;
       throw new ClipProcessingError(
-        `The file could not be read as video: ${describe(error, playable, clip.originalName)}`,
+        `The file could not be read as video: ${describeMediaError(error, playable, clip.originalName)}`,
       );
     }
 

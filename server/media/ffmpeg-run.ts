@@ -33,7 +33,7 @@ export function runFfmpeg(
       (error, _stdout, stderr) => {
         if (!error) return resolve();
         if (opts.signal?.aborted) return reject(new MediaJobAborted('stopped while ffmpeg was running'));
-        const detail = lastLines(String(stderr), 5) || error.message;
+        const detail = lastLines(String(stderr), 40) || error.message;
         reject(new FfmpegError(`ffmpeg failed: ${detail}`, detail));
       },
     );

@@ -67,10 +67,27 @@ export async function renderVideo(
     '-t',
     String(seconds),
     ...args,
-    ...(opts.rotate ? ['-metadata:s:v:0', `rotate=${opts.rotate}`] : []),
     '-y',
     file,
   ]);
+  if (opts.rotate) {
+    // The display rotation is written on a stream copy, as phones store it beside unrotated frames.
+    const rotated = file.replace(/(\.\w+)$/, '-rotated$1');
+    await run(FFMPEG_PATH, [
+      '-hide_banner',
+      '-loglevel',
+      'error',
+      '-i',
+      file,
+      '-c',
+      'copy',
+      '-metadata:s:v:0',
+      `rotate=${opts.rotate}`,
+      '-y',
+      rotated,
+    ]);
+    return { path: rotated, width, height, fps, frames: Math.round(seconds * fps) };
+  }
   return { path: file, width, height, fps, frames: Math.round(seconds * fps) };
 }
 
