@@ -1,4 +1,4 @@
-import { useEffect, useMemo, useRef } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import type { Keypoint, KeypointName, PoseModelName } from '@shared/keypoints';
 import { errorMessage } from '@/lib/api-client';
 import { getPoseClient } from '@/lib/pose-client';
@@ -45,9 +45,14 @@ export function useFramePose() {
   // Tracking state in the detector is only valid for the next frame of the same model.
   const lastDetected = useRef<{ model: PoseModelName; frameIndex: number } | null>(null);
   const request = useRef(0);
+  const inFlight = useRef(false);
+  const rerunWanted = useRef(false);
+  const [rerun, setRerun] = useState(0);
 
   useEffect(() => {
     const key = correctionKey(model, currentFrame);
+    // Any result still on its way is for a frame no longer on screen.
+    const id = ++request.current;
     const known = corrections.get(key) ?? storedByFrame.get(currentFrame) ?? liveCache.current.get(key);
     if (known) {
       setFrameKeypoints(known);
@@ -58,22 +63,33 @@ export function useFramePose() {
     if (playing || stored.isPending || !mediaReady) return;
     const video = videoRef.current;
     if (!video || video.seeking) return;
+    // One detection at a time: scrubbing fast must not queue a detection per frame passed. When the
+    // running one ends, the effect runs again for whatever frame is then on screen.
+    if (inFlight.current) {
+      rerunWanted.current = true;
+      return;
+    }
 
-    const id = ++request.current;
+    inFlight.current = true;
     const frameIndex = currentFrame;
     setPoseStatus({ state: 'detecting', frameIndex });
     void (async () => {
       try {
+        // Grab the pixels first: the bitmap is of the frame displayed now.
+        const bitmap = await createImageBitmap(video);
         const client = getPoseClient();
         const previous = lastDetected.current;
-        if (!previous || previous.model !== model || previous.frameIndex !== frameIndex - 1)
+        if (!previous || previous.model !== model || previous.frameIndex !== frameIndex - 1) {
           await client.reset();
-        const bitmap = await createImageBitmap(video);
+        }
         const result = await client.detect(bitmap, {
           frameIndex,
           timeMs: frameStartMs(frameIndex, fps),
           model,
           view,
+          // A paused frame is read on its own: temporal smoothing would blend in the frames stepped
+          // through before it (the crop tracking of consecutive frames is kept).
+          still: true,
         });
         lastDetected.current = { model, frameIndex };
         const entry: FrameKeypoints = {
@@ -91,16 +107,23 @@ export function useFramePose() {
         setFrameKeypoints(entry);
         setPoseStatus({ state: 'idle' });
       } catch (error) {
-        if (id !== request.current) return;
         lastDetected.current = null;
+        if (id !== request.current) return;
         setPoseStatus({
           state: 'error',
           frameIndex,
           message: `pose detection failed: ${errorMessage(error)}`,
         });
+      } finally {
+        inFlight.current = false;
+        if (rerunWanted.current || id !== request.current) {
+          rerunWanted.current = false;
+          setRerun((n) => n + 1);
+        }
       }
     })();
   }, [
+    rerun,
     currentFrame,
     playing,
     mediaReady,
