@@ -9,6 +9,7 @@ import {
   turnShading,
   type CurveTurn,
 } from '@/features/clip-workspace/components/curves/curve-data';
+import { signedFixed } from '@/features/clip-workspace/components/curves/turn-table';
 
 const turn = (index: number, direction: 'left' | 'right', startMs: number, endMs: number): CurveTurn => ({
   index,
@@ -149,5 +150,13 @@ describe('flag spans', () => {
   it('finds the analysis step', () => {
     expect(frameStep([{ frameIndex: 0 }, { frameIndex: 3 }, { frameIndex: 6 }])).toBe(3);
     expect(frameStep([{ frameIndex: 4 }])).toBe(1);
+  });
+});
+
+describe('turn table numbers', () => {
+  it('never shows a negative zero', () => {
+    expect(signedFixed(-0.001, 2)).toBe('0.00');
+    expect(signedFixed(-0.006, 2)).toBe('-0.01');
+    expect(signedFixed(0.05, 2)).toBe('0.05');
   });
 });

@@ -21,10 +21,6 @@ const MODEL_NAMES = { lightning: 'Lightning', thunder: 'Thunder', blazepose: 'Bl
 const everyLabel = (n: number) =>
   n === 1 ? 'Every frame' : `Every ${n}${n === 2 ? 'nd' : n === 3 ? 'rd' : 'th'} frame`;
 
-function seconds(ms: number): string {
-  return `${(ms / 1000).toFixed(1)} s`;
-}
-
 export function AnalysisPanel() {
   const ws = useWorkspace();
   const stored = useClipFrames(ws.clip.id, ws.model);
@@ -184,9 +180,9 @@ function RunStatus({ run }: { run: AnalysisRun }) {
             <p role="status" className="text-sm text-spruce-700" data-testid="analysis-finished">
               Analysed <span className="font-mono tabular-nums">{outcome.done}</span> frames in{' '}
               <span className="font-mono tabular-nums" data-elapsed-ms={Math.round(outcome.elapsedMs)}>
-                {seconds(outcome.elapsedMs)}
+                {(outcome.elapsedMs / 1000).toFixed(1)}
               </span>{' '}
-              (<span className="font-mono tabular-nums">{Math.round(perFrame)}</span> ms a frame).
+              s (<span className="font-mono tabular-nums">{Math.round(perFrame)}</span> ms a frame).
             </p>
           ) : (
             <p role="status" className="text-sm text-granite-700">

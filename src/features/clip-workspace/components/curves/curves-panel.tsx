@@ -1,4 +1,4 @@
-import { useId, useMemo, useState } from 'react';
+import { useId, useMemo, useRef, useState, type MouseEvent } from 'react';
 import {
   CartesianGrid,
   Legend,
@@ -37,6 +37,21 @@ import {
 } from './curve-data';
 
 const CHART_HEIGHT = 300;
+const FLAG_MERGE_S = 0.25;
+
+/** Clip time (s) under the pointer, from the plot area's box (the grid) and the fixed time axis. */
+function timeAtPointer(
+  event: MouseEvent | undefined,
+  box: HTMLElement | null,
+  durationS: number,
+): number | null {
+  const grid = box?.querySelector('.recharts-cartesian-grid');
+  if (!event || !grid) return null;
+  const rect = grid.getBoundingClientRect();
+  if (rect.width <= 0) return null;
+  const f = (event.clientX - rect.left) / rect.width;
+  return Math.min(1, Math.max(0, f)) * durationS;
+}
 
 function metricLabel(metric: string): string {
   if (isMetricKey(metric)) return METRIC_DEFINITIONS[metric].label;
@@ -54,6 +69,7 @@ export function CurvesPanel() {
   const available = useMemo(() => metricsForView(ws.view), [ws.view]);
   const [chosen, setChosen] = useState<MetricKey[]>(() => defaultChartMetrics(ws.view));
   const titleId = useId();
+  const chartBox = useRef<HTMLDivElement | null>(null);
 
   const data = query.data;
   const frames = useMemo(() => data?.frames ?? [], [data]);
@@ -63,7 +79,11 @@ export function CurvesPanel() {
   const transitions = data?.series?.transitions ?? [];
   const flags = useMemo(() => data?.flags ?? [], [data]);
   const markers = useMemo(() => flagMarkers(flags, frames, chosen), [flags, frames, chosen]);
-  const spans = useMemo(() => flagSpans(flags, frameStep(frames)), [flags, frames]);
+  // Flags closer than a quarter second read as one moment.
+  const spans = useMemo(
+    () => flagSpans(flags, Math.max(frameStep(frames), Math.round(ws.fps * FLAG_MERGE_S))),
+    [flags, frames, ws.fps],
+  );
 
   const hasDeg = chosen.some((k) => METRIC_DEFINITIONS[k].unit === 'deg');
   const hasRatio = chosen.some((k) => METRIC_DEFINITIONS[k].unit !== 'deg');
@@ -125,18 +145,20 @@ export function CurvesPanel() {
       ) : (
         <>
           <TurnLegend hasTurns={shades.length > 0} view={ws.view} />
-          <div className="mt-2 cursor-crosshair" data-testid="curves-chart">
+          <div className="mt-2 cursor-crosshair" data-testid="curves-chart" ref={chartBox}>
             <ResponsiveContainer width="100%" height={CHART_HEIGHT}>
               <LineChart
                 data={rows}
                 margin={{ top: 18, right: 8, bottom: 4, left: 0 }}
-                onClick={(state) => {
-                  const index = Number(state?.activeTooltipIndex);
-                  const frame =
-                    Number.isInteger(index) && rows[index]
-                      ? rows[index].frameIndex
-                      : nearestFrame(rows, Number(state?.activeLabel));
-                  if (frame !== null && frame !== undefined) ws.seekToFrame(frame);
+                onClick={(state, event) => {
+                  // The tooltip's label is the time under the pointer; without a hover first (touch,
+                  // a quick click) it is unset, so the pointer's place over the plot area decides.
+                  const label = Number(state?.activeLabel ?? NaN);
+                  const t = Number.isFinite(label)
+                    ? label
+                    : timeAtPointer(event, chartBox.current, durationS);
+                  const frame = t === null ? null : nearestFrame(rows, t);
+                  if (frame !== null) ws.seekToFrame(frame);
                 }}
               >
                 <CartesianGrid stroke="#eceef1" strokeDasharray="3 3" />

@@ -15,7 +15,13 @@ const APEX_METRICS: Record<View, MetricKey[]> = {
 };
 
 const unitShort = (key: MetricKey) =>
-  METRIC_DEFINITIONS[key].unit === 'deg' ? '°' : METRIC_DEFINITIONS[key].unit;
+  METRIC_DEFINITIONS[key].unit === 'deg' ? '(°)' : `(${METRIC_DEFINITIONS[key].unit})`;
+
+/** Fixed decimals without a "-0.00" for values that round to zero. */
+export function signedFixed(value: number, digits: number): string {
+  const text = value.toFixed(digits);
+  return Number(text) === 0 ? (0).toFixed(digits) : text;
+}
 
 /** Flags raised inside a turn: per-turn ones (transition rise) and per-frame ones within its span. */
 export function flagsInTurn(turn: Turn, flags: readonly ClipFlagDto[]): ClipFlagDto[] {
@@ -51,36 +57,44 @@ export function TurnTable() {
         </p>
       ) : (
         <div className="mt-2 overflow-x-auto">
-          <table className="w-full text-sm">
+          <table className="w-full text-sm whitespace-nowrap">
             <caption className="sr-only">
               Turns of this clip with direction, duration and the values at each apex
             </caption>
-            <thead>
-              <tr className="border-b border-granite-200 text-left text-xs text-granite-600">
-                <th scope="col" className="py-1.5 pr-3 font-medium">
+            <thead className="text-xs text-granite-600">
+              <tr>
+                <th scope="col" rowSpan={2} className="py-1 pr-3 text-left align-bottom font-medium">
                   Turn
                 </th>
-                <th scope="col" className="py-1.5 pr-3 font-medium">
+                <th scope="col" rowSpan={2} className="py-1 pr-3 text-left align-bottom font-medium">
                   Direction
                 </th>
-                <th scope="col" className="py-1.5 pr-3 text-right font-medium">
+                <th scope="col" rowSpan={2} className="py-1 pr-3 text-right align-bottom font-medium">
                   Duration
                 </th>
-                <th scope="col" className="py-1.5 pr-3 font-medium">
+                <th scope="col" rowSpan={2} className="py-1 pr-3 text-left align-bottom font-medium">
                   Inside
                 </th>
-                {columns.map((key) => (
-                  <th key={key} scope="col" className="py-1.5 pr-3 text-right font-medium">
-                    {METRIC_DEFINITIONS[key].label} at apex{' '}
-                    <span className="text-granite-400">({unitShort(key)})</span>
-                  </th>
-                ))}
-                <th scope="col" className="py-1.5 pr-3 text-right font-medium">
+                <th
+                  scope="colgroup"
+                  colSpan={columns.length}
+                  className="border-b border-granite-100 py-1 pr-3 text-center font-medium"
+                >
+                  At the apex
+                </th>
+                <th scope="col" rowSpan={2} className="py-1 pr-3 text-right align-bottom font-medium">
                   Transition rise <span className="text-granite-400">(ratio)</span>
                 </th>
-                <th scope="col" className="py-1.5 font-medium">
+                <th scope="col" rowSpan={2} className="py-1 text-left align-bottom font-medium">
                   Flags
                 </th>
+              </tr>
+              <tr className="border-b border-granite-200">
+                {columns.map((key) => (
+                  <th key={key} scope="col" className="py-1 pr-3 text-right font-medium">
+                    {METRIC_DEFINITIONS[key].label} <span className="text-granite-400">{unitShort(key)}</span>
+                  </th>
+                ))}
               </tr>
             </thead>
             <tbody>
@@ -140,7 +154,7 @@ export function TurnTable() {
                         riseFlag && 'text-alarm-600',
                       )}
                     >
-                      {turn.transitionRise === null ? '—' : turn.transitionRise.toFixed(2)}
+                      {turn.transitionRise === null ? '—' : signedFixed(turn.transitionRise, 2)}
                       {riseFlag ? <span className="sr-only"> (outside band)</span> : null}
                     </td>
                     <td className="py-1.5">
