@@ -1,0 +1,86 @@
+import fs from 'node:fs/promises';
+import os from 'node:os';
+import path from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { ClipDto } from '@shared/schemas/clip.schema';
+import type { ClipFramesResponse } from '@shared/schemas/frames.schema';
+import {
+  DEMO_CLIP_PLAN,
+  DEMO_FOOTAGE_DIR,
+  DEMO_KEYPOINTS_DIR,
+  demoKeypointFileSchema,
+  sha256File,
+} from '@server/seed/demo-clips';
+import { DEMO_PASSWORD } from '@server/seed/demo-club';
+import { startStanceline, type StartedStanceline } from '@server/start';
+
+let dataDir: string;
+let app: StartedStanceline;
+let auth: { authorization: string };
+
+beforeAll(async () => {
+  dataDir = await fs.mkdtemp(path.join(os.tmpdir(), 'stanceline-demo-clips-'));
+  app = await startStanceline({ port: 0, dataDir, logLevel: 'silent', env: { BCRYPT_ROUNDS: '4' } });
+  const login = await fetch(`${app.url}/api/auth/login`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify({ email: 'coach@larchwood.example', password: DEMO_PASSWORD }),
+  });
+  auth = { authorization: `Bearer ${((await login.json()) as { accessToken: string }).accessToken}` };
+});
+afterAll(async () => {
+  await app.close();
+  await fs.rm(dataDir, { recursive: true, force: true });
+});
+
+async function get<T>(url: string): Promise<T> {
+  const res = await fetch(`${app.url}${url}`, { headers: auth });
+  expect(res.status, url).toBe(200);
+  return (await res.json()) as T;
+}
+
+describe('demo clips', () => {
+  it('the committed keypoints were detected in the committed footage', async () => {
+    for (const footage of new Set(DEMO_CLIP_PLAN.map((p) => p.footage))) {
+      const file = demoKeypointFileSchema.parse(
+        JSON.parse(await fs.readFile(path.join(DEMO_KEYPOINTS_DIR, `${footage}.lightning.json`), 'utf8')),
+      );
+      // Re-rendered footage needs `npx tsx server/seed/make-demo-keypoints.ts` again.
+      expect(file.sha256, footage).toBe(await sha256File(path.join(DEMO_FOOTAGE_DIR, `${footage}.mp4`)));
+      expect(file.model).toBe('lightning');
+    }
+  });
+
+  it('are ready on first start, front and side, in both sessions, with poster and thumbnails', async () => {
+    const { clips } = await get<{ clips: ClipDto[] }>('/api/clips');
+    // The coach coaches U12 and U14, which every planned demo athlete is in.
+    expect(clips).toHaveLength(DEMO_CLIP_PLAN.length);
+    expect(clips.every((c) => c.status === 'ready')).toBe(true);
+    expect(new Set(clips.map((c) => c.view))).toEqual(new Set(['front', 'side']));
+    expect(new Set(clips.map((c) => c.sessionId)).size).toBe(2);
+    for (const clip of clips) {
+      expect(clip.posterUrl).not.toBeNull();
+      expect(clip.thumbnails).not.toBeNull();
+      expect(clip.ageGroup).not.toBeNull();
+      const poster = await fetch(`${app.url}${clip.posterUrl}`);
+      expect(poster.headers.get('content-type')).toBe('image/jpeg');
+    }
+  });
+
+  it('have stored results for every frame, so curves and turns show without running a model', async () => {
+    const { clips } = await get<{ clips: ClipDto[] }>('/api/clips');
+    const front = clips.find((c) => c.view === 'front')!;
+    expect(front.analysis).toMatchObject({ model: 'lightning', frameCount: front.frameCount });
+    const read = await get<ClipFramesResponse>(`/api/clips/${front.id}/frames?model=lightning`);
+    expect(read.frames).toHaveLength(front.frameCount!);
+    // The phantom's front clip is rendered with 4 transitions (its truth file lists them).
+    const truth = JSON.parse(
+      await fs.readFile(path.join(DEMO_FOOTAGE_DIR, 'phantom-front-turns.truth.json'), 'utf8'),
+    ) as { clip: { events: { transitions: number[] } } };
+    expect(read.series!.transitions).toHaveLength(truth.clip.events.transitions.length);
+    const side = clips.find((c) => c.view === 'side')!;
+    const sideRead = await get<ClipFramesResponse>(`/api/clips/${side.id}/frames`);
+    expect(sideRead.frames).toHaveLength(side.frameCount!);
+    expect(sideRead.series!.turns).toEqual([]);
+  });
+});
