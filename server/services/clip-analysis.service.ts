@@ -219,7 +219,9 @@ export class FrameStore {
         });
       } else await repo.insertMany([row]);
       await this.replaceFrameFlags(manager, clip, body.model, ctx, [row]);
-      await this.refreshSeries(manager, clip, body.model, ctx);
+      // Turns need the whole clip (about a second for 3,000 frames): they are refreshed on the
+      // next read, so the corrected numbers come back at once.
+      this.forget(clip.id, body.model);
       await record(manager);
       return { frame: toFrameDto(row) };
     });
