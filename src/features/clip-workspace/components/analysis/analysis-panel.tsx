@@ -55,7 +55,7 @@ export function AnalysisPanel() {
             lastFrame={lastStored}
           />
         </div>
-        <div className="flex flex-wrap items-end gap-2">
+        <div className={ws.canEdit ? 'flex flex-wrap items-end gap-2' : 'hidden'}>
           <label htmlFor={selectId} className="text-sm text-granite-700">
             <span className="block text-xs font-medium text-granite-600">Frames to analyse</span>
             <select
@@ -72,7 +72,7 @@ export function AnalysisPanel() {
               ))}
             </select>
           </label>
-          {busy ? (
+          {!ws.canEdit ? null : busy ? (
             <Button
               variant="secondary"
               size="sm"
@@ -94,7 +94,14 @@ export function AnalysisPanel() {
         </div>
       </div>
 
-      {!busy && storedFrames === 0 && run.state !== 'failed' && stored.isSuccess ? (
+      {!ws.canEdit && storedFrames === 0 && stored.isSuccess ? (
+        <p className="mt-3 text-sm text-granite-600">
+          No whole-clip analysis yet. A coach of this athlete can run one; the curves and turns then appear
+          below.
+        </p>
+      ) : null}
+
+      {ws.canEdit && !busy && storedFrames === 0 && run.state !== 'failed' && stored.isSuccess ? (
         <p className="mt-3 text-sm text-granite-600">
           No whole-clip analysis yet. <strong className="font-medium">Analyze whole clip</strong> runs the{' '}
           {MODEL_NAMES[ws.model]} model on {planned === ws.frameCount ? 'all' : planned} of the clip&rsquo;s{' '}

@@ -69,7 +69,7 @@ export function useWholeClipAnalysis() {
         view: ws.view,
         referenceLine: ws.referenceLine,
       };
-      const grabber = new FrameGrabber(ws.clip.mediaUrl, ws.fps);
+      const grabber = new FrameGrabber(ws.mediaSrc, ws.fps);
       const pose = getPoseClient();
       setRun({ state: 'loading', model });
       try {
@@ -115,7 +115,7 @@ export function useWholeClipAnalysis() {
         if (controller.current === abort) controller.current = null;
       }
     },
-    [upload, ws.clip.mediaUrl, ws.fps, ws.frameCount, ws.model, ws.referenceLine, ws.view],
+    [upload, ws.mediaSrc, ws.fps, ws.frameCount, ws.model, ws.referenceLine, ws.view],
   );
 
   const cancel = useCallback(() => {

@@ -5,7 +5,6 @@ import { useToast } from '@/components/ui/toast';
 import { errorMessage } from '@/lib/api-client';
 import { useExportNotesVtt } from '../../api/export-notes-vtt';
 import { formatClipTime } from '../../lib/frame-time';
-import { drawOverlays } from '../overlays/draw-overlays';
 import { useFrameDrawings } from '../notes/use-frame-drawings';
 import { useWorkspace } from '../workspace-context';
 import { canvasToPng, composeStill } from './compose-still';
@@ -46,20 +45,7 @@ export function ExportMenu() {
     try {
       const canvas = composeStill({
         video,
-        drawOverlays: (ctx, scale) =>
-          drawOverlays(
-            ctx,
-            {
-              pose: ws.currentPose,
-              view: ws.view,
-              referenceLine: ws.referenceLine,
-              toggles: ws.overlays,
-              bands: ws.bands,
-              videoSize: ws.videoSize,
-              snowLineHandles: false,
-            },
-            { map: (p) => p, scale },
-          ),
+        drawOverlays: (ctx, scale) => ws.drawOverlaysOn(ctx, (p) => p, scale),
         drawings: draft ? [...saved, draft] : saved,
         caption: `${ws.clip.originalName} · frame ${ws.currentFrame} · ${formatClipTime(
           (ws.currentFrame / ws.fps) * 1000,

@@ -19,13 +19,11 @@ import { noteFrame } from './note-frame';
 import { isDrawingEmpty } from './drawing-geometry';
 import { DrawingTools } from './drawing-tools';
 
-const WRITERS = new Set(['coach', 'head_coach']);
-
 export function NotesPanel() {
   const ws = useWorkspace();
   const user = useUser();
   const notes = useClipNotes(ws.clip.id);
-  const canWrite = WRITERS.has(user.role);
+  const canWrite = ws.canEdit;
   const list = notes.data ?? [];
 
   return (
