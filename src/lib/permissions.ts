@@ -10,6 +10,7 @@ export type Capability =
   | 'sessions.view'
   | 'sessions.create'
   | 'clips.upload'
+  | 'clips.analyse'
   | 'club.manage';
 
 const CAPABILITIES: Record<Role, readonly Capability[]> = {
@@ -21,6 +22,7 @@ const CAPABILITIES: Record<Role, readonly Capability[]> = {
     'sessions.view',
     'sessions.create',
     'clips.upload',
+    'clips.analyse',
     'club.manage',
   ],
   coach: [
@@ -30,6 +32,7 @@ const CAPABILITIES: Record<Role, readonly Capability[]> = {
     'sessions.view',
     'sessions.create',
     'clips.upload',
+    'clips.analyse',
   ],
   analyst: ['athletes.view', 'sessions.view'],
   athlete: ['home.view'],
