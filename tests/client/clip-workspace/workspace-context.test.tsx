@@ -73,7 +73,7 @@ function renderWorkspace() {
   return render(
     <QueryClientProvider client={createQueryClient()}>
       <ToastProvider>
-        <WorkspaceProvider clip={clip} renewMedia={() => Promise.resolve(null)}>
+        <WorkspaceProvider clip={clip} renewMedia={() => Promise.resolve(null)} canEdit>
           <Probe />
         </WorkspaceProvider>
       </ToastProvider>

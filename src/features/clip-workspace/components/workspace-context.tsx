@@ -108,6 +108,8 @@ export interface WorkspaceState {
   setDrawingActive(v: boolean): void;
 
   // Fields beyond the shared interface, used by the player, stage and readouts.
+  /** The signed-in role may change the clip's analysis (snow line, corrections, runs, model choice). */
+  canEdit: boolean;
   /** Callback ref for the visible <video>; also fills videoRef. */
   setVideoElement(el: HTMLVideoElement | null): void;
   /** Callback ref for the stage box (the element the video is fitted in). */
@@ -182,10 +184,17 @@ interface WorkspaceProviderProps {
   clip: ClipDto;
   /** Fetches a fresh signed media URL (the old one may expire while the page is open). */
   renewMedia: () => Promise<string | null>;
+  /** Coaches and the head coach; others get the same views without the editing tools. */
+  canEdit: boolean;
   children: ReactNode;
 }
 
-export function WorkspaceProvider({ clip, renewMedia: fetchMediaUrl, children }: WorkspaceProviderProps) {
+export function WorkspaceProvider({
+  clip,
+  renewMedia: fetchMediaUrl,
+  canEdit,
+  children,
+}: WorkspaceProviderProps) {
   const extras = clipExtras(clip);
   const toast = useToast();
   const updateClip = useUpdateClip(clip.id);
@@ -394,12 +403,14 @@ export function WorkspaceProvider({ clip, renewMedia: fetchMediaUrl, children }:
   const setModel = useCallback(
     (next: PoseModelName) => {
       setModelState(next);
+      // A viewer may look through another model on this page; only an editor's choice is stored.
+      if (!canEdit) return;
       patchClip(
         { defaultModel: next },
         { onError: (error) => toast.error(`The model choice was not saved: ${errorMessage(error)}`) },
       );
     },
-    [patchClip, toast],
+    [canEdit, patchClip, toast],
   );
 
   const setReferenceLine = useCallback(
@@ -458,6 +469,7 @@ export function WorkspaceProvider({ clip, renewMedia: fetchMediaUrl, children }:
   );
 
   const value: WorkspaceState = {
+    canEdit,
     clip,
     fps,
     frameCount,

@@ -64,7 +64,7 @@ export function useWorkspaceKeys(options: { toggleHelp(): void }) {
           ws.resetZoom();
           break;
         case 'snow-line':
-          ws.setSnowLineEditing(!ws.snowLineEditing);
+          if (ws.canEdit) ws.setSnowLineEditing(!ws.snowLineEditing);
           break;
         case 'help':
           toggleHelp();

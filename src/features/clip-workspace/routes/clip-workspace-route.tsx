@@ -5,6 +5,8 @@ import { PageHeader } from '@/components/ui/page-header';
 import { QueryError } from '@/components/ui/query-error';
 import { PageSpinner, Spinner } from '@/components/ui/spinner';
 import { paths } from '@/config/paths';
+import { useUser } from '@/lib/auth';
+import { can } from '@/lib/permissions';
 import type { ClipDto } from '@shared/schemas/clip.schema';
 import { clipExtras } from '../api/clip-contract';
 import { useWorkspaceClip } from '../api/get-workspace-clip';
@@ -24,6 +26,7 @@ import { useWorkspaceKeys } from '../hooks/use-workspace-keys';
 
 export function ClipWorkspaceRoute() {
   const { clipId = '' } = useParams();
+  const user = useUser();
   const query = useWorkspaceClip(clipId);
   const { refetch } = query;
   const renewMedia = useCallback(async () => (await refetch()).data?.clip.mediaUrl ?? null, [refetch]);
@@ -50,7 +53,12 @@ export function ClipWorkspaceRoute() {
           </p>
         </Notice>
       ) : (
-        <WorkspaceProvider key={clip.id} clip={clip} renewMedia={renewMedia}>
+        <WorkspaceProvider
+          key={clip.id}
+          clip={clip}
+          renewMedia={renewMedia}
+          canEdit={can(user.role, 'clips.analyse')}
+        >
           <Workspace />
         </WorkspaceProvider>
       )}

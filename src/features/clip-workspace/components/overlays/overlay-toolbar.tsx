@@ -10,8 +10,16 @@ const TOGGLES: { key: OverlayKey; label: string; front?: boolean }[] = [
 
 /** Overlay switches and the snow line tool, above the stage. */
 export function OverlayToolbar() {
-  const { overlays, setOverlay, view, snowLineEditing, setSnowLineEditing, referenceLine, setReferenceLine } =
-    useWorkspace();
+  const {
+    overlays,
+    setOverlay,
+    view,
+    snowLineEditing,
+    setSnowLineEditing,
+    referenceLine,
+    setReferenceLine,
+    canEdit,
+  } = useWorkspace();
 
   return (
     <div className="flex flex-wrap items-center gap-x-4 gap-y-2">
@@ -40,30 +48,32 @@ export function OverlayToolbar() {
           );
         })}
       </fieldset>
-      <div className="ml-auto flex items-center gap-2">
-        <button
-          type="button"
-          aria-pressed={snowLineEditing}
-          onClick={() => setSnowLineEditing(!snowLineEditing)}
-          className={cn(
-            'h-8 rounded-md border px-3 text-sm font-medium',
-            snowLineEditing
-              ? 'border-glacier-700 bg-glacier-700 text-white'
-              : 'border-granite-200 bg-white text-granite-800 hover:border-glacier-300 hover:bg-glacier-50',
-          )}
-        >
-          {snowLineEditing ? 'Done with snow line' : 'Set snow line'}
-        </button>
-        {referenceLine ? (
+      {canEdit ? (
+        <div className="ml-auto flex items-center gap-2">
           <button
             type="button"
-            onClick={() => setReferenceLine(null)}
-            className="h-8 rounded-md px-2 text-sm text-glacier-700 hover:bg-glacier-50"
+            aria-pressed={snowLineEditing}
+            onClick={() => setSnowLineEditing(!snowLineEditing)}
+            className={cn(
+              'h-8 rounded-md border px-3 text-sm font-medium',
+              snowLineEditing
+                ? 'border-glacier-700 bg-glacier-700 text-white'
+                : 'border-granite-200 bg-white text-granite-800 hover:border-glacier-300 hover:bg-glacier-50',
+            )}
           >
-            Use image level
+            {snowLineEditing ? 'Done with snow line' : 'Set snow line'}
           </button>
-        ) : null}
-      </div>
+          {referenceLine ? (
+            <button
+              type="button"
+              onClick={() => setReferenceLine(null)}
+              className="h-8 rounded-md px-2 text-sm text-glacier-700 hover:bg-glacier-50"
+            >
+              Use image level
+            </button>
+          ) : null}
+        </div>
+      ) : null}
     </div>
   );
 }

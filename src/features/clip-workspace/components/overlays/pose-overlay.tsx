@@ -98,7 +98,7 @@ export function PoseOverlay() {
 
   const pointHit = (at: Point): KeypointName | null => {
     // Points move only on a still frame that has been measured.
-    if (playing || !currentPose || currentPose.keypoints.length === 0) return null;
+    if (!ws.canEdit || playing || !currentPose || currentPose.keypoints.length === 0) return null;
     const keypoints = currentPose.keypoints;
     const index = nearestPoint(
       keypoints.map((k) => videoToStage([k.x, k.y])),

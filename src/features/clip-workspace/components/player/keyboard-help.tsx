@@ -1,6 +1,7 @@
 import { useEffect, useRef } from 'react';
 import { Keyboard } from 'lucide-react';
 import { KEY_BINDINGS } from '../../lib/keyboard-map';
+import { useWorkspace } from '../workspace-context';
 
 interface KeyboardHelpProps {
   open: boolean;
@@ -9,6 +10,7 @@ interface KeyboardHelpProps {
 
 /** The key list in a popover beside the transport controls. */
 export function KeyboardHelp({ open, onOpenChange }: KeyboardHelpProps) {
+  const { canEdit } = useWorkspace();
   const boxRef = useRef<HTMLDivElement | null>(null);
 
   useEffect(() => {
@@ -48,7 +50,7 @@ export function KeyboardHelp({ open, onOpenChange }: KeyboardHelpProps) {
         >
           <p className="mb-2 text-sm font-semibold text-granite-900">Keys on this page</p>
           <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-1.5 text-sm">
-            {KEY_BINDINGS.map((binding) => (
+            {KEY_BINDINGS.filter((b) => canEdit || b.command !== 'snow-line').map((binding) => (
               <div key={binding.command} className="contents">
                 <dt>
                   <kbd className="rounded border border-granite-200 bg-granite-50 px-1.5 py-0.5 font-mono text-xs text-granite-800">
