@@ -37,7 +37,8 @@ export const derivativeKeys = (clip: Pick<Clip, 'clubId' | 'id'>) => {
 };
 
 /** Lines of ffmpeg output that say what is wrong with the file, rather than what ffmpeg did next. */
-const TELLING = /invalid data|moov atom|no frame|not found|unsupported|unknown|truncated|corrupt|end of file|no video/i;
+const TELLING =
+  /invalid data|moov atom|no frame|not found|unsupported|unknown|truncated|corrupt|end of file|no video/i;
 
 /**
  * One line for the coach from ffprobe/ffmpeg output: the first telling one, without decoder
