@@ -8,7 +8,8 @@ import type {
   UpdateNoteBody,
 } from '@shared/schemas/note.schema';
 import type { Note } from '../entities/note.entity';
-import { forbidden, notFound } from '../errors';
+import type { Clip } from '../entities/clip.entity';
+import { badRequest, forbidden, notFound } from '../errors';
 import { NoteRepository } from '../repositories/note.repository';
 import { UserRepository } from '../repositories/user.repository';
 import type { AuditService } from './audit.service';
@@ -16,6 +17,26 @@ import type { ClipAnalysisService } from './clip-analysis.service';
 import type { ClipService } from './clip.service';
 import { notesToWebVtt } from './notes-vtt';
 import type { Clock, Principal } from './principal';
+
+/** A note's frame must be one of the clip's frames (when the clip's length is known). */
+function checkFrame(clip: Clip, frameIndex: number | null | undefined): void {
+  if (frameIndex === null || frameIndex === undefined || clip.frameCount === null) return;
+  if (frameIndex >= clip.frameCount) {
+    throw badRequest(
+      'validation_failed',
+      `frameIndex: frame ${frameIndex} is past the clip's last frame (${clip.frameCount - 1})`,
+      {
+        issues: [
+          {
+            path: ['frameIndex'],
+            code: 'too_big',
+            message: `past the clip's last frame (${clip.frameCount - 1})`,
+          },
+        ],
+      },
+    );
+  }
+}
 
 function toNoteDto(note: Note, authorName: string | null): NoteDto {
   return {
@@ -67,6 +88,7 @@ export class NoteService {
 
   async create(principal: Principal, clipId: string, input: CreateNoteBody): Promise<NoteResponse> {
     const clip = await this.analysis.findManageable(principal, clipId);
+    checkFrame(clip, input.frameIndex);
     const now = this.clock.now();
     const note: Note = {
       id: randomUUID(),
@@ -95,6 +117,7 @@ export class NoteService {
 
   async update(principal: Principal, noteId: string, input: UpdateNoteBody): Promise<NoteResponse> {
     const note = await this.editable(principal, noteId);
+    checkFrame(await this.clips.findVisible(principal, note.clipId), input.frameIndex);
     const patch: Partial<Note> = { updatedAt: this.clock.now() };
     if (input.timeMs !== undefined) patch.timeMs = input.timeMs;
     if (input.frameIndex !== undefined) patch.frameIndex = input.frameIndex;

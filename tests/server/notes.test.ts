@@ -114,6 +114,8 @@ describe('notes', () => {
         'drawing.angles.0.degrees',
       ],
       [{ timeMs: 0, text: 'x'.repeat(4001) }, 'text'],
+      // 6 s at 25 fps: frames 0–149.
+      [{ timeMs: 0, frameIndex: 150, text: 'x' }, 'frameIndex'],
     ];
     for (const [body, path] of cases) {
       const res = await create('coach', body);
