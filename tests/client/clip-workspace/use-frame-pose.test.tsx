@@ -1,0 +1,137 @@
+// @vitest-environment happy-dom
+import { act, cleanup, render, screen, waitFor } from '@testing-library/react';
+import { QueryClientProvider } from '@tanstack/react-query';
+import { http, HttpResponse } from 'msw';
+import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it, vi } from 'vitest';
+import type { Keypoint } from '@shared/keypoints';
+import { ToastProvider } from '@/components/ui/toast';
+import { useWorkspace, WorkspaceProvider } from '@/features/clip-workspace/components/workspace-context';
+import { useFramePose } from '@/features/clip-workspace/hooks/use-frame-pose';
+import { configureApiClient } from '@/lib/api-client';
+import { createQueryClient } from '@/lib/react-query';
+import { clipFixture } from '../helpers/demo-data';
+import { createApiMock, ORIGIN } from '../helpers/render-app';
+
+const detect = vi.fn();
+const reset = vi.fn(() => Promise.resolve());
+vi.mock('@/lib/pose-client', () => ({ getPoseClient: () => ({ detect, reset }) }));
+
+const clip = clipFixture({ view: 'front', fps: 25, frameCount: 100, durationMs: 4000, referenceLine: null });
+const api = createApiMock();
+const point = (name: Keypoint['name'], x: number, score = 0.8): Keypoint => ({ name, x, y: 100, score });
+
+beforeAll(() => {
+  configureApiClient({ baseUrl: ORIGIN });
+  api.listen({ onUnhandledRequest: 'error' });
+  // happy-dom cannot decode video; the bitmap only has to reach the (mocked) pose client.
+  vi.stubGlobal('createImageBitmap', () => Promise.resolve({ close() {} }));
+});
+beforeEach(() => {
+  detect.mockReset();
+  reset.mockClear();
+});
+afterEach(() => {
+  cleanup();
+  api.resetHandlers();
+});
+afterAll(() => {
+  api.close();
+  vi.unstubAllGlobals();
+});
+
+function Probe() {
+  useFramePose();
+  const ws = useWorkspace();
+  return (
+    <div>
+      <video ref={ws.setVideoElement} data-testid="video" />
+      <output data-testid="origin">{ws.currentPose?.origin ?? 'none'}</output>
+      <output data-testid="shoulders">{ws.currentPose?.keypoints.map((k) => k.x).join(',') ?? ''}</output>
+    </div>
+  );
+}
+
+function framesResponse(frames: unknown[]) {
+  return http.get(`${ORIGIN}/api/clips/${clip.id}/frames`, () =>
+    HttpResponse.json({ model: 'lightning', frames, series: null, flags: [] }),
+  );
+}
+
+async function renderReady() {
+  render(
+    <QueryClientProvider client={createQueryClient()}>
+      <ToastProvider>
+        <WorkspaceProvider clip={clip} renewMedia={() => Promise.resolve(null)} canEdit>
+          <Probe />
+        </WorkspaceProvider>
+      </ToastProvider>
+    </QueryClientProvider>,
+  );
+  const video = screen.getByTestId('video') as HTMLVideoElement;
+  // The first frame is decoded: readyState HAVE_CURRENT_DATA (2).
+  Object.defineProperty(video, 'readyState', { configurable: true, get: () => 2 });
+  await act(async () => {
+    video.dispatchEvent(new Event('loadeddata'));
+  });
+}
+
+describe('pose of the frame on screen', () => {
+  it('shows the stored analysis without running the detector', async () => {
+    api.use(
+      framesResponse([
+        {
+          frameIndex: 0,
+          timeMs: 0,
+          keypoints: [point('left_shoulder', 120), point('right_shoulder', 80)],
+          metrics: {},
+          reasons: {},
+          corrected: false,
+        },
+      ]),
+    );
+    await renderReady();
+    await waitFor(() => expect(screen.getByTestId('origin').textContent).toBe('stored'));
+    expect(screen.getByTestId('shoulders').textContent).toBe('120,80');
+    expect(detect).not.toHaveBeenCalled();
+  });
+
+  it('marks points placed by hand (score 1) on a stored corrected frame', async () => {
+    api.use(
+      framesResponse([
+        {
+          frameIndex: 0,
+          timeMs: 0,
+          keypoints: [point('left_shoulder', 121, 1), point('right_shoulder', 80)],
+          metrics: {},
+          reasons: {},
+          corrected: true,
+        },
+      ]),
+    );
+    await renderReady();
+    await waitFor(() => expect(screen.getByTestId('origin').textContent).toBe('corrected'));
+  });
+
+  it('detects a still frame that has no stored result, once, without temporal smoothing', async () => {
+    api.use(framesResponse([]));
+    detect.mockResolvedValue({
+      frameIndex: 0,
+      timeMs: 0,
+      keypoints: [point('left_shoulder', 130), point('right_shoulder', 70)],
+      width: 640,
+      height: 360,
+    });
+    await renderReady();
+    await waitFor(() => expect(screen.getByTestId('origin').textContent).toBe('live'));
+    expect(screen.getByTestId('shoulders').textContent).toBe('130,70');
+    expect(detect).toHaveBeenCalledTimes(1);
+    expect(detect.mock.calls[0][1]).toMatchObject({
+      frameIndex: 0,
+      model: 'lightning',
+      view: 'front',
+      still: true,
+    });
+    // The first frame of a visit starts the detector's tracking afresh.
+    expect(reset).toHaveBeenCalledTimes(1);
+  });
+});
