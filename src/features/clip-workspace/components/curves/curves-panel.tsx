@@ -149,7 +149,7 @@ export function CurvesPanel() {
             <ResponsiveContainer width="100%" height={CHART_HEIGHT}>
               <LineChart
                 data={rows}
-                margin={{ top: 18, right: 8, bottom: 4, left: 0 }}
+                margin={{ top: 18, right: hasRatio ? 8 : 24, bottom: 4, left: 0 }}
                 onClick={(state, event) => {
                   // The tooltip's label is the time under the pointer; without a hover first (touch,
                   // a quick click) it is unset, so the pointer's place over the plot area decides.
