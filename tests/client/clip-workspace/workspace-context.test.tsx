@@ -6,6 +6,7 @@ import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import type { Keypoint, ReferenceLine } from '@shared/keypoints';
 import { ToastProvider } from '@/components/ui/toast';
 import { useWorkspace, WorkspaceProvider } from '@/features/clip-workspace/components/workspace-context';
+import { useWorkspaceKeys } from '@/features/clip-workspace/hooks/use-workspace-keys';
 import { configureApiClient } from '@/lib/api-client';
 import { createQueryClient } from '@/lib/react-query';
 import { clipFixture } from '../helpers/demo-data';
@@ -32,8 +33,10 @@ const shoulders: Keypoint[] = [
 
 function Probe() {
   const ws = useWorkspace();
+  useWorkspaceKeys({ toggleHelp: () => undefined });
   return (
     <div>
+      <textarea aria-label="note" />
       <video ref={ws.setVideoElement} data-testid="video" />
       <output data-testid="frame">{ws.currentFrame}</output>
       <output data-testid="tilt">{ws.currentPose?.metrics.shoulderTilt?.toFixed(4) ?? 'none'}</output>
@@ -89,6 +92,18 @@ describe('workspace context', () => {
     // Three steps from frame 0 aim at the middle of frame 3: (3 + 0.5) / 25 = 0.14 s.
     expect(video.currentTime).toBeCloseTo(0.14, 9);
     expect(screen.getByTestId('frame').textContent).toBe('0');
+  });
+
+  it('steps with the keys, but not while the coach types a note', () => {
+    renderWorkspace();
+    const video = screen.getByTestId('video') as HTMLVideoElement;
+    fireEvent.keyDown(screen.getByLabelText('note'), { key: 'ArrowRight' });
+    expect(video.currentTime).toBe(0);
+    // Shift + → jumps 10 frames: (10 + 0.5) / 25 = 0.42 s.
+    fireEvent.keyDown(window, { key: 'ArrowRight', shiftKey: true });
+    expect(video.currentTime).toBeCloseTo(0.42, 9);
+    fireEvent.keyDown(window, { key: 'ArrowLeft' });
+    expect(video.currentTime).toBeCloseTo(0.38, 9);
   });
 
   it('shows the frame the video reports as displayed', () => {

@@ -4,10 +4,12 @@ import { commandForKey, JUMP_FRAMES } from '../lib/keyboard-map';
 
 import { ZOOM_STEP } from '../components/stage/zoom-controls';
 
-function isTyping(target: EventTarget | null): boolean {
+/** Keys the focused control uses itself, so the page leaves them alone. */
+function controlOwnsKey(target: EventTarget | null, key: string): boolean {
   if (!(target instanceof HTMLElement)) return false;
   if (target.isContentEditable) return true;
-  // A focused slider already steps with the arrows; the page must not step a second time.
+  // A focused slider already steps with the arrows, Home and End; Space means nothing to it.
+  if (target instanceof HTMLInputElement && target.type === 'range') return key !== ' ';
   return ['INPUT', 'TEXTAREA', 'SELECT'].includes(target.tagName);
 }
 
@@ -18,7 +20,7 @@ export function useWorkspaceKeys(options: { toggleHelp(): void }) {
 
   useEffect(() => {
     const onKey = (event: KeyboardEvent) => {
-      if (event.defaultPrevented || isTyping(event.target)) return;
+      if (event.defaultPrevented || controlOwnsKey(event.target, event.key)) return;
       const command = commandForKey(event);
       if (!command) return;
       // Space on a focused button would click it as well as toggle playback.
