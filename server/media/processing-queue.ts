@@ -1,3 +1,4 @@
+import fs from 'node:fs/promises';
 import fastq, { type queueAsPromised } from 'fastq';
 import { ClipMediaRepository } from '../repositories/clip-media.repository';
 import { MediaJobAborted } from './ffmpeg-run';
@@ -30,6 +31,8 @@ export class ClipProcessingQueue {
 
   /** Picks up clips a previous run left uploaded or half processed. Returns how many were queued. */
   async resume(): Promise<number> {
+    // Scratch folders of jobs a crash interrupted; nothing of this queue is running yet.
+    if (this.queue.idle() && !this.running) await fs.rm(this.deps.workDir, { recursive: true, force: true });
     const ids = await new ClipMediaRepository(this.deps.dataSource.manager).idsWithStatus([
       'uploaded',
       'processing',

@@ -300,8 +300,11 @@ describe('media pipeline', () => {
     expect(await server.runtime.storage.exists(keys.proxy)).toBe(false);
     expect(await fs.readdir(deps.workDir)).toEqual([]);
 
+    // A crash leaves a job's scratch folder behind; the next start clears it.
+    await fs.mkdir(`${deps.workDir}/${id}-crashed`, { recursive: true });
     const second = new ClipProcessingQueue(deps);
     expect(await second.resume()).toBe(1);
+    await expect(fs.stat(`${deps.workDir}/${id}-crashed`)).rejects.toThrow(/ENOENT/);
     await second.idle();
     await second.close();
     expect(await status()).toBe('ready');
