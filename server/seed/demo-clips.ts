@@ -6,7 +6,12 @@ import type { Logger } from 'pino';
 import type { DataSource } from 'typeorm';
 import { z } from 'zod';
 import type { View } from '@shared/keypoints';
-import { keypointSchema, MAX_FRAMES_PER_BATCH, poseModelSchema } from '@shared/schemas/frames.schema';
+import {
+  frameBatchSchema,
+  keypointSchema,
+  MAX_FRAMES_PER_BATCH,
+  poseModelSchema,
+} from '@shared/schemas/frames.schema';
 import type { Clip } from '../entities/clip.entity';
 import { processClip } from '../media/clip-processor';
 import { AthleteRepository } from '../repositories/athlete.repository';
@@ -157,10 +162,11 @@ export async function seedDemoClips(deps: DemoClipDeps, clubId: string): Promise
     if (!keypoints) continue;
     // Through the same store as POST /api/clips/:id/frames: validated, measured and flagged alike.
     for (let i = 0; i < keypoints.frames.length; i += MAX_FRAMES_PER_BATCH) {
-      await deps.frames.storeBatch(ready, {
+      const batch = frameBatchSchema.parse({
         model: keypoints.model,
         frames: keypoints.frames.slice(i, i + MAX_FRAMES_PER_BATCH),
       });
+      await deps.frames.storeBatch(ready, batch);
     }
   }
   return ids;

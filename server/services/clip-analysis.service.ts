@@ -91,9 +91,9 @@ function rateOf(clip: Clip, frames: FrameResult[]): number | null {
   if (clip.fps && clip.fps > 0) return clip.fps;
   const steps: number[] = [];
   for (let i = 1; i < frames.length; i++) {
-    const frames_ = frames[i].frameIndex - frames[i - 1].frameIndex;
+    const span = frames[i].frameIndex - frames[i - 1].frameIndex;
     const ms = frames[i].timeMs - frames[i - 1].timeMs;
-    if (frames_ > 0 && ms > 0) steps.push(ms / frames_);
+    if (span > 0 && ms > 0) steps.push(ms / span);
   }
   if (steps.length === 0) return null;
   steps.sort((a, b) => a - b);
@@ -257,7 +257,9 @@ export class FrameStore {
       row.reasons = m.reasons as Record<string, string>;
       row.updatedAt = now;
       await repo.update(row.id, { metrics: row.metrics, reasons: row.reasons, updatedAt: now });
-      byModel.set(row.model, [...(byModel.get(row.model) ?? []), row]);
+      const list = byModel.get(row.model) ?? [];
+      list.push(row);
+      byModel.set(row.model, list);
     }
     await new FlagRepository(manager).deleteAll(clip.id);
     for (const [model, rows] of byModel) {
