@@ -62,7 +62,13 @@ export function useFramePose() {
     // Detection waits for a still frame; while playing only stored frames are shown.
     if (playing || stored.isPending || !mediaReady) return;
     const video = videoRef.current;
-    if (!video || video.seeking) return;
+    if (!video) return;
+    if (video.seeking) {
+      // The frame callback can report the new frame before 'seeked' fires; look again once it has.
+      const again = () => setRerun((n) => n + 1);
+      video.addEventListener('seeked', again, { once: true });
+      return () => video.removeEventListener('seeked', again);
+    }
     // One detection at a time: scrubbing fast must not queue a detection per frame passed. When the
     // running one ends, the effect runs again for whatever frame is then on screen.
     if (inFlight.current) {
