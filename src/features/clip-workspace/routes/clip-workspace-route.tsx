@@ -67,22 +67,39 @@ export function ClipWorkspaceRoute() {
 }
 
 function ClipHeader({ clip }: { clip: ClipDto }) {
+  const user = useUser();
   const ageGroup = clipExtras(clip).ageGroup?.name;
+  const linkAthletes = can(user.role, 'athletes.view');
   return (
     <PageHeader
       title={clip.originalName}
       back={
-        <Link to={paths.session.href(clip.sessionId)} className="text-glacier-700 hover:underline">
-          ← Training session
-        </Link>
+        can(user.role, 'sessions.view') ? (
+          <Link to={paths.session.href(clip.sessionId)} className="text-glacier-700 hover:underline">
+            ← Training session
+          </Link>
+        ) : undefined
       }
-      subtitle={[
-        clip.athletes.map((a) => a.name).join(', ') || 'No athlete tagged',
-        clip.view === 'front' ? 'front view' : 'side view',
-        ageGroup ? `age group ${ageGroup}` : null,
-      ]
-        .filter(Boolean)
-        .join(' · ')}
+      subtitle={
+        <>
+          {clip.athletes.length === 0
+            ? 'No athlete tagged'
+            : clip.athletes.map((athlete, i) => (
+                <span key={athlete.id}>
+                  {i > 0 ? ', ' : null}
+                  {linkAthletes ? (
+                    <Link to={paths.athlete.href(athlete.id)} className="text-glacier-700 hover:underline">
+                      {athlete.name}
+                    </Link>
+                  ) : (
+                    athlete.name
+                  )}
+                </span>
+              ))}
+          {` · ${clip.view === 'front' ? 'front view' : 'side view'}`}
+          {ageGroup ? ` · age group ${ageGroup}` : null}
+        </>
+      }
     />
   );
 }
