@@ -456,7 +456,7 @@ beforeAll(async () => {
     const res = await server.http
       .post(`/api/clips/${clips.clipElsie}/notes`)
       .set(await server.bearer(role))
-      .send({ timeMs: 1200, frameIndex: 30, text });
+      .send({ timeMs: 480, frameIndex: 12, text });
     if (res.status !== 201) throw new Error(`seed note: ${res.status} ${JSON.stringify(res.body)}`);
     return res.body.note.id as string;
   };
