@@ -380,6 +380,10 @@ describe('clip workspace in a real browser', () => {
       await page.getByText(/Measured: \d/).waitFor();
       const measured = degrees((await page.getByText(/Measured: \d/).innerText()).replace('Measured:', ''));
       expect(Math.abs(measured - 90)).toBeLessThan(1);
+      // And an arrow from the hip height out to the side, dragged tail to tip.
+      await page.getByRole('radio', { name: 'Arrow' }).click();
+      await drag(page, await stagePoint(page, [200, 300], video), await stagePoint(page, [120, 250], video));
+      await page.getByText('Drawing: 0 lines, 1 arrow, 1 angle').waitFor();
       await page.getByLabel('Note text').fill(noteText);
       await page.screenshot({ path: screenshotPath('workspace-06-drawing'), fullPage: true });
       await page.getByRole('button', { name: 'Add note' }).click();
@@ -389,6 +393,10 @@ describe('clip workspace in a real browser', () => {
       expect(notes.notes).toHaveLength(1);
       expect(notes.notes[0].frameIndex).toBe(firstApex);
       expect(notes.notes[0].drawing?.angles).toHaveLength(1);
+      expect(notes.notes[0].drawing?.arrows).toHaveLength(1);
+      // Stored in video pixels, whatever the stage size: the arrow's tip is where it was dropped.
+      const tip = notes.notes[0].drawing!.arrows[0].to;
+      expect(Math.hypot(tip[0] - 120, tip[1] - 250)).toBeLessThan(2);
 
       // Exports: a full-size PNG of the frame, and the notes as WebVTT captions.
       await page.getByRole('button', { name: 'Export' }).click();
