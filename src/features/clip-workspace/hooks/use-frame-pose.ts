@@ -1,17 +1,11 @@
 import { useEffect, useMemo, useRef, useState } from 'react';
-import type { Keypoint, KeypointName, PoseModelName } from '@shared/keypoints';
+import type { PoseModelName } from '@shared/keypoints';
 import { errorMessage } from '@/lib/api-client';
 import { getPoseClient } from '@/lib/pose-client';
 import { useClipFrames } from '../api/get-clip-frames';
 import { correctionKey, useWorkspace, type FrameKeypoints } from '../components/workspace-context';
 import { frameStartMs } from '../lib/frame-time';
-
-/** A point the coach placed by hand is stored with full confidence; that is how it is recognised later. */
-export const CORRECTED_SCORE = 1;
-
-export function correctedNames(keypoints: readonly Keypoint[]): KeypointName[] {
-  return keypoints.filter((k) => k.score === CORRECTED_SCORE).map((k) => k.name);
-}
+import { handPlacedPoints } from '../lib/point-correction';
 
 /**
  * Keeps frameKeypoints in step with the frame on screen: a correction made here wins, then the stored
@@ -26,7 +20,7 @@ export function useFramePose() {
   const storedByFrame = useMemo(() => {
     const map = new Map<number, FrameKeypoints>();
     for (const frame of stored.data?.frames ?? []) {
-      const moved = frame.corrected ? correctedNames(frame.keypoints) : [];
+      const moved = frame.corrected ? handPlacedPoints(frame.keypoints) : [];
       map.set(frame.frameIndex, {
         frameIndex: frame.frameIndex,
         timeMs: frame.timeMs,

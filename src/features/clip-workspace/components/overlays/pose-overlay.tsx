@@ -4,7 +4,7 @@ import { useToast } from '@/components/ui/toast';
 import { errorMessage } from '@/lib/api-client';
 import { cn } from '@/lib/format';
 import { usePutClipFrame } from '../../api/put-clip-frame';
-import { CORRECTED_SCORE } from '../../hooks/use-frame-pose';
+import { movePoint } from '../../lib/point-correction';
 import { nearestPoint } from '../../lib/overlay-geometry';
 import type { Point } from '../../lib/stage-transform';
 import { useWorkspace, type FrameKeypoints } from '../workspace-context';
@@ -159,14 +159,7 @@ export function PoseOverlay() {
     } else if (frameKeypoints) {
       const [x, y] = clampToVideo(stageToVideo(at));
       // Metrics follow the point at once: currentPose recomputes from these keypoints.
-      ws.applyCorrection({
-        ...frameKeypoints,
-        origin: 'corrected',
-        keypoints: frameKeypoints.keypoints.map((k) =>
-          k.name === drag.name ? { ...k, x, y, score: CORRECTED_SCORE } : k,
-        ),
-        correctedPoints: [...new Set([...frameKeypoints.correctedPoints, drag.name])],
-      });
+      ws.applyCorrection(movePoint(frameKeypoints, drag.name, [x, y]));
     }
   };
 
