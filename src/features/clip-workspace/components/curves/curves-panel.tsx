@@ -13,6 +13,7 @@ import {
   YAxis,
 } from 'recharts';
 import { Flag } from 'lucide-react';
+import type { View } from '@shared/keypoints';
 import { METRIC_DEFINITIONS, isMetricKey, type MetricKey } from '@shared/metrics';
 import { EmptyState } from '@/components/ui/empty-state';
 import { Notice } from '@/components/ui/notice';
@@ -38,6 +39,7 @@ import {
 
 const CHART_HEIGHT = 300;
 const FLAG_MERGE_S = 0.25;
+const MAX_FLAG_CHIPS = 40;
 
 /** Clip time (s) under the pointer, from the plot area's box (the grid) and the fixed time axis. */
 function timeAtPointer(
@@ -67,7 +69,12 @@ export function CurvesPanel() {
   const ws = useWorkspace();
   const query = useClipFrames(ws.clip.id, ws.model);
   const available = useMemo(() => metricsForView(ws.view), [ws.view]);
-  const [chosen, setChosen] = useState<MetricKey[]>(() => defaultChartMetrics(ws.view));
+  // A choice per view, so changing the clip's view shows that view's metrics.
+  const [chosenByView, setChosenByView] = useState<Record<View, MetricKey[]>>(() => ({
+    front: defaultChartMetrics('front'),
+    side: defaultChartMetrics('side'),
+  }));
+  const chosen = chosenByView[ws.view];
   const titleId = useId();
   const chartBox = useRef<HTMLDivElement | null>(null);
 
@@ -91,11 +98,13 @@ export function CurvesPanel() {
   const cursorS = ws.currentFrame / ws.fps;
 
   const toggle = (key: MetricKey) =>
-    setChosen((list) =>
-      list.includes(key)
+    setChosenByView((all) => {
+      const list = all[ws.view];
+      const next = list.includes(key)
         ? list.filter((k) => k !== key)
-        : available.filter((k) => k === key || list.includes(k)),
-    );
+        : available.filter((k) => k === key || list.includes(k));
+      return { ...all, [ws.view]: next };
+    });
 
   return (
     <section
@@ -301,7 +310,7 @@ function FlagList({ spans, fps, currentFrame, bandsCount, onSeek }: FlagListProp
         Outside the age-group band <span className="font-mono text-granite-600">({spans.length})</span>
       </h3>
       <ul className="mt-1 flex flex-wrap gap-1.5" aria-label="Flagged moments">
-        {spans.map((s) => (
+        {spans.slice(0, MAX_FLAG_CHIPS).map((s) => (
           <li key={s.key}>
             <button
               type="button"
@@ -321,6 +330,12 @@ function FlagList({ spans, fps, currentFrame, bandsCount, onSeek }: FlagListProp
           </li>
         ))}
       </ul>
+      {spans.length > MAX_FLAG_CHIPS ? (
+        <p className="mt-1 text-xs text-granite-600">
+          The first {MAX_FLAG_CHIPS} of {spans.length} are listed; put a metric on the chart to see all of its
+          flags.
+        </p>
+      ) : null}
     </div>
   );
 }
