@@ -1,5 +1,5 @@
 import type { PoseModelName, ReferenceLine } from '@shared/keypoints';
-import type { ClipAnalysisDto, ClipDto } from '@shared/schemas/clip.schema';
+import type { ClipAnalysisDto, ClipDto, FrameReferenceLineDto } from '@shared/schemas/clip.schema';
 import type { Athlete } from '../entities/athlete.entity';
 import type { Clip } from '../entities/clip.entity';
 import type { AnalysisInfo } from '../repositories/frame-result.repository';
@@ -12,6 +12,7 @@ export interface ClipLinks {
 
 export interface ClipExtras {
   referenceLine: ReferenceLine | null;
+  frameReferenceLines: FrameReferenceLineDto[];
   ageGroup: { id: string; name: string } | null;
   analyses: AnalysisInfo[];
 }
@@ -47,6 +48,7 @@ export function toClipDto(clip: Clip, athletes: Athlete[], links: ClipLinks, ext
     thumbnails: clip.thumbnailsKey && clip.thumbnails ? { url: links.thumbnails, ...clip.thumbnails } : null,
     rotation: clip.rotation,
     referenceLine: extras.referenceLine,
+    frameReferenceLines: extras.frameReferenceLines,
     defaultModel: clip.defaultModel,
     ageGroup: extras.ageGroup,
     analysis: pickAnalysis(clip.defaultModel, extras.analyses),

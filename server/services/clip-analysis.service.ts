@@ -1,5 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import type { DataSource, EntityManager } from 'typeorm';
+import { referenceFrame } from '@shared/geometry';
 import type { Keypoint, PoseModelName, ReferenceLine, View } from '@shared/keypoints';
 import { computeFrameMetrics, emptyFrameMetrics, type FrameMetrics, type MetricKey } from '@shared/metrics';
 import type { ClipResponse, UpdateClipInput } from '@shared/schemas/clip.schema';
@@ -41,6 +42,8 @@ import type { ToleranceBandService } from './tolerance-band.service';
 interface ClipMeasureContext {
   view: View;
   referenceLine: ReferenceLine | null;
+  /** Lines set on single frames; each replaces the clip's line for its own frame. */
+  frameLines: Map<number, ReferenceLine>;
   bands: { band: SharedBand; row: ToleranceBand }[];
 }
 
@@ -77,13 +80,46 @@ export function toFlagDto(row: Flag): FlagDto {
   };
 }
 
+/** The snow line in force on a frame: its own, else the clip's (null: the image horizontal). */
+export function lineForFrame(
+  ctx: Pick<ClipMeasureContext, 'referenceLine' | 'frameLines'>,
+  frameIndex: number,
+) {
+  return ctx.frameLines.get(frameIndex) ?? ctx.referenceLine;
+}
+
 /** Metrics of one frame exactly as the browser and the CLI compute them (shared/ metrics). */
 export function measureFrame(
   keypoints: Keypoint[],
-  ctx: Pick<ClipMeasureContext, 'view' | 'referenceLine'>,
+  ctx: Pick<ClipMeasureContext, 'view' | 'referenceLine' | 'frameLines'>,
+  frameIndex: number,
 ): FrameMetrics {
   if (keypoints.length === 0) return emptyFrameMetrics('no skier found');
-  return computeFrameMetrics({ keypoints, view: ctx.view, referenceLine: ctx.referenceLine });
+  return computeFrameMetrics({ keypoints, view: ctx.view, referenceLine: lineForFrame(ctx, frameIndex) });
+}
+
+/**
+ * The keypoints turned about the image origin so that `from` takes the direction of `to`. Every
+ * metric is measured against the snow line, so turning points and line together changes none:
+ * a frame with its own line enters the clip's series as if filmed against the clip's line.
+ */
+export function alignToLine(
+  keypoints: Keypoint[],
+  from: ReferenceLine,
+  to: ReferenceLine | null,
+): Keypoint[] {
+  const a = referenceFrame(from).along;
+  const b = referenceFrame(to).along;
+  // Angle from a to b in the y-up frame; image y points down, so the turn is applied to (x, -y).
+  const phi = Math.atan2(a.x * b.y - a.y * b.x, a.x * b.x + a.y * b.y);
+  if (phi === 0) return keypoints;
+  const cos = Math.cos(phi);
+  const sin = Math.sin(phi);
+  return keypoints.map((k) => {
+    const x = k.x;
+    const y = -k.y;
+    return { ...k, x: x * cos - y * sin, y: -(x * sin + y * cos) };
+  });
 }
 
 /** Frames per second from the stored times when the clip's rate is unknown (median step). */
@@ -140,7 +176,7 @@ export class FrameStore {
         const prior = existing.get(frame.frameIndex);
         // A coach's correction outranks any later detection of the same frame.
         if (prior?.corrected && !frame.corrected) continue;
-        const m = measureFrame(frame.keypoints, ctx);
+        const m = measureFrame(frame.keypoints, ctx, frame.frameIndex);
         const row: FrameResult = {
           id: prior?.id ?? randomUUID(),
           clipId: clip.id,
@@ -194,7 +230,7 @@ export class FrameStore {
       const timeMs = body.timeMs ?? prior?.timeMs ?? (clip.fps ? (frameIndex * 1000) / clip.fps : null);
       if (timeMs === null)
         throw badRequest('time_unknown', 'Send timeMs: the clip’s frame rate is not known');
-      const m = measureFrame(body.keypoints, ctx);
+      const m = measureFrame(body.keypoints, ctx, frameIndex);
       const row: FrameResult = {
         id: prior?.id ?? randomUUID(),
         clipId: clip.id,
@@ -252,7 +288,7 @@ export class FrameStore {
     const all = await repo.listByClip(clip.id);
     const byModel = new Map<PoseModelName, FrameResult[]>();
     for (const row of all) {
-      const m = measureFrame(row.keypoints, ctx);
+      const m = measureFrame(row.keypoints, ctx, row.frameIndex);
       row.metrics = m.metrics;
       row.reasons = m.reasons as Record<string, string>;
       row.updatedAt = now;
@@ -279,7 +315,7 @@ export class FrameStore {
     }
   }
 
-  private checkFrameRange(clip: Clip, frames: { frameIndex: number; path: (string | number)[] }[]): void {
+  checkFrameRange(clip: Clip, frames: { frameIndex: number; path: (string | number)[] }[]): void {
     if (clip.frameCount === null) return;
     const count = clip.frameCount;
     const issues = frames
@@ -303,7 +339,9 @@ export class FrameStore {
   }
 
   private async measureContext(manager: EntityManager, clip: Clip): Promise<ClipMeasureContext> {
-    const referenceLine = await new ReferenceLineRepository(manager).forClip(clip.id);
+    const lines = new ReferenceLineRepository(manager);
+    const referenceLine = await lines.forClip(clip.id);
+    const frameLines = await lines.forFrames(clip.id);
     const tagged = (await new ClipRepository(manager).athleteIdsByClip([clip.id])).get(clip.id) ?? [];
     const [first] = await new AthleteRepository(manager).findByIds(tagged.slice(0, 1));
     const bands = first ? await this.bands.forAgeGroup(manager, clip.clubId, first.ageGroupId) : [];
@@ -311,6 +349,7 @@ export class FrameStore {
     return {
       view: clip.view,
       referenceLine,
+      frameLines,
       bands: bands.filter((b) => b.row.view === 'both' || b.row.view === clip.view),
     };
   }
@@ -376,7 +415,11 @@ export class FrameStore {
     let result: SeriesResult | null = null;
     if (frames.length > 0 && fps) {
       result = analyzeSeries(
-        frames.map((f) => ({ frameIndex: f.frameIndex, timeMs: f.timeMs, keypoints: f.keypoints })),
+        frames.map((f) => {
+          const own = ctx.frameLines.get(f.frameIndex);
+          const keypoints = own ? alignToLine(f.keypoints, own, ctx.referenceLine) : f.keypoints;
+          return { frameIndex: f.frameIndex, timeMs: f.timeMs, keypoints };
+        }),
         { view: ctx.view, referenceLine: ctx.referenceLine, fps },
       );
     }
@@ -407,7 +450,14 @@ export class FrameStore {
   private stampOf(clip: Clip, frames: FrameResult[], ctx: ClipMeasureContext): string {
     let latest = 0;
     for (const f of frames) latest = Math.max(latest, f.updatedAt.getTime());
-    return JSON.stringify([frames.length, latest, ctx.view, ctx.referenceLine, clip.fps]);
+    return JSON.stringify([
+      frames.length,
+      latest,
+      ctx.view,
+      ctx.referenceLine,
+      [...ctx.frameLines],
+      clip.fps,
+    ]);
   }
 
   private remember(clipId: string, model: PoseModelName, stamp: string, series: ClipSeriesDto | null): void {
@@ -483,6 +533,22 @@ export class ClipAnalysisService {
     await this.dataSource.transaction(async (manager) => {
       const lines = new ReferenceLineRepository(manager);
       const before = { view: clip.view, line: await lines.forClip(clip.id) };
+      if (input.frameReferenceLines) {
+        this.frames.checkFrameRange(
+          clip,
+          input.frameReferenceLines.map((f, i) => ({
+            frameIndex: f.frameIndex,
+            path: ['frameReferenceLines', i, 'frameIndex'],
+          })),
+        );
+        for (const f of input.frameReferenceLines) {
+          await lines.setForFrame(clip.id, f.frameIndex, f.referenceLine, {
+            id: randomUUID(),
+            userId: principal.user.id,
+            at: now,
+          });
+        }
+      }
       const patch: Partial<Clip> = {};
       if (input.view !== undefined) patch.view = input.view;
       if (input.defaultModel !== undefined) patch.defaultModel = input.defaultModel;
@@ -497,7 +563,9 @@ export class ClipAnalysisService {
       const updated: Clip = { ...clip, ...patch };
       const line = input.referenceLine !== undefined ? input.referenceLine : before.line;
       const measuresChanged =
-        updated.view !== before.view || JSON.stringify(line) !== JSON.stringify(before.line);
+        updated.view !== before.view ||
+        JSON.stringify(line) !== JSON.stringify(before.line) ||
+        input.frameReferenceLines !== undefined;
       if (measuresChanged) await this.frames.recomputeClip(manager, updated, now);
       await this.audit.record(manager, {
         clubId: clip.clubId,

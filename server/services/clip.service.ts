@@ -120,6 +120,7 @@ export class ClipService {
     );
     const ids = clips.map((c) => c.id);
     const lines = await new ReferenceLineRepository(manager).forClips(ids);
+    const frameLines = await new ReferenceLineRepository(manager).framesForClips(ids);
     const analyses = await new FrameResultRepository(manager).analysisByClip(ids);
     return clips.map((clip) => {
       const tagged = shown(tags.get(clip.id) ?? [])
@@ -143,6 +144,7 @@ export class ClipService {
         },
         {
           referenceLine: lines.get(clip.id) ?? null,
+          frameReferenceLines: frameLines.get(clip.id) ?? [],
           ageGroup: group ? { id: group.id, name: group.name } : null,
           analyses: analyses.get(clip.id) ?? [],
         },

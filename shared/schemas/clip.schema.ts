@@ -50,6 +50,8 @@ export interface ClipDto {
   rotation: number;
   /** Snow line in the playable video's pixel space; null means the image horizontal. */
   referenceLine: ReferenceLine | null;
+  /** Snow lines set on single frames (a camera that panned); each holds for its frame only. */
+  frameReferenceLines: FrameReferenceLineDto[];
   defaultModel: PoseModelName;
   /** Age group of the first tagged athlete: its tolerance bands apply to the clip. */
   ageGroup: { id: string; name: string } | null;
@@ -65,6 +67,11 @@ export interface ThumbnailStripDto {
   tileHeight: number;
   columns: number;
   intervalMs: number;
+}
+
+export interface FrameReferenceLineDto {
+  frameIndex: number;
+  referenceLine: ReferenceLine;
 }
 
 export interface ClipAnalysisDto {
@@ -94,6 +101,17 @@ export const updateClipSchema = z
       .optional(),
     /** null puts the snow line back to the image horizontal. */
     referenceLine: referenceLineSchema.nullable().optional(),
+    /** Lines for single frames, over the clip's line; null removes a frame's own line. */
+    frameReferenceLines: z
+      .array(
+        z.object({
+          frameIndex: z.number().int('frameIndex is a whole number').min(0),
+          referenceLine: referenceLineSchema.nullable(),
+        }),
+      )
+      .min(1)
+      .max(1000)
+      .optional(),
   })
   .refine((v) => Object.values(v).some((x) => x !== undefined), 'Change at least one setting');
 export type UpdateClipInput = z.input<typeof updateClipSchema>;

@@ -348,6 +348,62 @@ describe('snow line and view', () => {
     expect(tiltFlags((await readFrames(front.id)).flags, 5)).toHaveLength(1);
   });
 
+  it('a frame’s own snow line holds for that frame only, over the clip’s line', async () => {
+    const set = await server.http
+      .patch(`/api/clips/${front.id}`)
+      .set(await coach())
+      .send({
+        frameReferenceLines: [
+          {
+            frameIndex: 5,
+            referenceLine: [
+              [0, 100],
+              [40, 90],
+            ],
+          },
+        ],
+      });
+    expect(set.status, JSON.stringify(set.body)).toBe(200);
+    expect(set.body.clip.frameReferenceLines).toEqual([
+      {
+        frameIndex: 5,
+        referenceLine: [
+          [0, 100],
+          [40, 90],
+        ],
+      },
+    ]);
+    let frames = await readFrames(front.id);
+    expect(frames.frames.find((f) => f.frameIndex === 5)!.metrics.shoulderTilt).toBeCloseTo(0, 9);
+    expect(frames.frames.find((f) => f.frameIndex === 4)!.metrics.shoulderTilt).toBeCloseTo(TILT_DEG, 6);
+    expect(tiltFlags(frames.flags, 5)).toEqual([]);
+
+    const cleared = await server.http
+      .patch(`/api/clips/${front.id}`)
+      .set(await coach())
+      .send({ frameReferenceLines: [{ frameIndex: 5, referenceLine: null }] });
+    expect(cleared.body.clip.frameReferenceLines).toEqual([]);
+    frames = await readFrames(front.id);
+    expect(frames.frames.find((f) => f.frameIndex === 5)!.metrics.shoulderTilt).toBeCloseTo(TILT_DEG, 6);
+
+    const past = await server.http
+      .patch(`/api/clips/${front.id}`)
+      .set(await coach())
+      .send({
+        frameReferenceLines: [
+          {
+            frameIndex: SECONDS * FPS,
+            referenceLine: [
+              [0, 0],
+              [10, 0],
+            ],
+          },
+        ],
+      });
+    expect(past.status).toBe(400);
+    expect(past.body.error.details.issues[0].path).toEqual(['frameReferenceLines', 0, 'frameIndex']);
+  });
+
   it('keeps the default model', async () => {
     const res = await server.http
       .patch(`/api/clips/${front.id}`)
@@ -403,6 +459,47 @@ describe('whole clip: series, turns and transition flags', () => {
     expect(again).toEqual(first);
     // Another model's results are kept apart.
     expect((await readFrames(second.id, 'lightning')).frames).toEqual([]);
+  });
+
+  it('frames filmed with a tilted camera, each with its own snow line, give the same turns', async () => {
+    // The same skier with every point and the snow line turned 12° about the image origin
+    // (y-up rotation, x' = x·cos − y·sin, y' = x·sin + y·cos): every angle is measured against
+    // the line, so the series must not change.
+    const theta = (12 * Math.PI) / 180;
+    const turn = (x: number, y: number): [number, number] => {
+      const [X, Y] = [x, -y];
+      return [X * Math.cos(theta) - Y * Math.sin(theta), -(X * Math.sin(theta) + Y * Math.cos(theta))];
+    };
+    const tilted = frames.map((f) => ({
+      ...f,
+      keypoints: f.keypoints.map((k) => {
+        const [x, y] = turn(k.x, k.y);
+        return { ...k, x, y };
+      }),
+    }));
+    const video = await renderVideo('h264-mp4', { seconds: SECONDS, fps: FPS });
+    const clip = await settled(
+      server,
+      (await uploadClip(server, video.path, { sessionId, athleteIds: elsie, view: 'front' })).id,
+    );
+    expect((await postFrames(clip.id, { model: 'thunder', frames: tilted })).status).toBe(200);
+    const line = [turn(0, 0), turn(100, 0)];
+    const patched = await server.http
+      .patch(`/api/clips/${clip.id}`)
+      .set(await coach())
+      .send({ frameReferenceLines: tilted.map((f) => ({ frameIndex: f.frameIndex, referenceLine: line })) });
+    expect(patched.status, JSON.stringify(patched.body).slice(0, 300)).toBe(200);
+
+    const upright = (await readFrames(second.id, 'thunder')).series!;
+    const leaning = (await readFrames(clip.id, 'thunder')).series!;
+    expect(leaning.turns.map((t) => [t.direction, t.apexFrame, t.endFrame])).toEqual(
+      upright.turns.map((t) => [t.direction, t.apexFrame, t.endFrame]),
+    );
+    leaning.turns.forEach((t, i) => {
+      expect(t.apexValues.inclination!).toBeCloseTo(upright.turns[i].apexValues.inclination!, 6);
+      if (t.transitionRise !== null)
+        expect(t.transitionRise).toBeCloseTo(upright.turns[i].transitionRise!, 6);
+    });
   });
 
   it('the analysts and athletes may read but not write', async () => {
