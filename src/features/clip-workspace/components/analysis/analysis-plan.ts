@@ -1,7 +1,5 @@
 import type { PoseModelName } from '@shared/keypoints';
 
-/** Most frames one POST /api/clips/:id/frames may carry (API contract). */
-export const MAX_FRAMES_PER_BATCH = 500;
 /** Frames sent per batch while analysing: small enough that Cancel keeps nearly all finished work. */
 export const ANALYSIS_BATCH_SIZE = 30;
 

@@ -1,7 +1,8 @@
 import type { Keypoint, PoseModelName, ReferenceLine, View } from '@shared/keypoints';
+import { MAX_FRAMES_PER_BATCH } from '@shared/schemas/frames.schema';
 import type { FrameUpload, PostClipFramesInput, PostClipFramesResponse } from '../../api/post-clip-frames';
 import { frameStartMs } from '../../lib/frame-time';
-import { ANALYSIS_BATCH_SIZE, chunk, EtaEstimator, MAX_FRAMES_PER_BATCH } from './analysis-plan';
+import { ANALYSIS_BATCH_SIZE, chunk, EtaEstimator } from './analysis-plan';
 
 export interface DetectRequest {
   frameIndex: number;
