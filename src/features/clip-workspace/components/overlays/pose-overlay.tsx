@@ -202,6 +202,8 @@ export function PoseOverlay() {
             ? 'cursor-move'
             : 'cursor-default';
 
+  // data-snow-handles and data-points say where the handles and joints are on the stage, so browser
+  // tests can drag them like a coach would.
   return (
     <canvas
       ref={canvasRef}

@@ -62,8 +62,8 @@ export function KeyboardHelp({ open, onOpenChange }: KeyboardHelpProps) {
             ))}
           </dl>
           <p className="mt-2 text-xs text-granite-400">
-            Ctrl + wheel (or a pinch) over the frame zooms at the pointer; drag the zoomed frame to pan; drag
-            a joint to correct it.
+            Ctrl + wheel (or a pinch) over the frame zooms at the pointer; drag the zoomed frame to pan.
+            {canEdit ? ' On a paused frame, drag a misplaced joint to correct it.' : null}
           </p>
         </div>
       ) : null}
