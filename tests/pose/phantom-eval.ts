@@ -105,3 +105,13 @@ export function summarise(model: PoseModelName, evals: FrameEvaluation[]): Summa
   }
   return { model, frames: evals.length, found: evals.filter((e) => e.found).length, joints, metrics };
 }
+
+/** Pooled body-joint errors and found share over frames (the quantities SET_LIMITS bounds). */
+export function pooledErrors(evals: FrameEvaluation[]): { median: number; p90: number; found: number } {
+  const errors = evals.flatMap((e) => Object.values(e.jointError).filter((v): v is number => v !== null));
+  return {
+    median: quantile(errors, 0.5),
+    p90: quantile(errors, 0.9),
+    found: evals.filter((e) => e.found).length / Math.max(1, evals.length),
+  };
+}

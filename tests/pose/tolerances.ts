@@ -1,6 +1,8 @@
-// Tolerances the detector tests hold the models to on the phantom cases (tests/pose/phantom-cases.ts).
-// Set from the phantom accuracy report (docs/accuracy.md) with headroom over the worst case seen
-// there, so a real regression (wrong mapping, scale, left/right, backend) fails and model noise does not.
+// What the pose tests hold the models to. Per frame (tests/pose/phantom-cases.ts, Node and browser):
+// joint and metric tolerances with headroom over the worst case seen on those six frames. Over a set
+// (SET_LIMITS): the pooled joint error and the share of frames found, from the phantom accuracy
+// report (docs/accuracy.md prints its own figures against these limits). Tight enough that a wrong
+// mapping, scale, left/right, crop or backend fails; loose enough that model noise does not.
 import type { MetricKey } from '@shared/metrics';
 import type { BodyJoint } from './phantom-eval';
 
@@ -62,3 +64,23 @@ export const METRIC_TOLERANCE: MetricTolerance[] = [
 
 /** Browser (worker) and Node keypoints for the same frame and model, in torso lengths. */
 export const BROWSER_NODE_AGREEMENT = 0.05;
+
+export interface SetLimits {
+  /** Pooled over all body joints of the front-toward and side frames, in torso lengths. */
+  medianError: number;
+  p90Error: number;
+  /** Share of those frames where the model found the skier. */
+  minFound: number;
+}
+
+/**
+ * Report figures on 300 such frames (docs/accuracy.md, "Limits"): Lightning median 0.068, p90 0.198,
+ * found 92 %; Thunder 0.073, 0.220, 92 %; BlazePose 0.059, 0.140, 85 %. Limits are those plus about a
+ * quarter on the errors and minus about seven points on found, so the 48-frame sample in
+ * tests/pose/phantom-set.test.ts (which lands within a few hundredths of the full set) passes.
+ */
+export const SET_LIMITS: Record<'lightning' | 'thunder' | 'blazepose', SetLimits> = {
+  lightning: { medianError: 0.085, p90Error: 0.25, minFound: 0.85 },
+  thunder: { medianError: 0.095, p90Error: 0.28, minFound: 0.85 },
+  blazepose: { medianError: 0.075, p90Error: 0.18, minFound: 0.78 },
+};
