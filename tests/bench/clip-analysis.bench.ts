@@ -94,7 +94,7 @@ try {
     .put(`/api/clips/${clip.id}/frames/1500`)
     .set(auth)
     .send({ model: 'lightning', keypoints: frames[1500].keypoints });
-  line('PUT one corrected frame (turns recomputed)', performance.now() - start);
+  line('PUT one corrected frame (turns wait for the next read)', performance.now() - start);
 } finally {
   await server.close();
   await removeRenderedVideos();
