@@ -68,6 +68,16 @@ function Probe() {
       >
         line
       </button>
+      <button
+        onClick={() =>
+          ws.setFrameReferenceLine(ws.currentFrame, [
+            [0, 200],
+            [100, 190],
+          ])
+        }
+      >
+        frame line
+      </button>
     </div>
   );
 }
@@ -147,5 +157,44 @@ describe('workspace context', () => {
       expect(screen.getByRole('alert').textContent).toContain('The snow line was not saved'),
     );
     expect(screen.getByTestId('line').textContent).toBe('[[0,200],[100,190]]');
+  });
+
+  it('uses a frame’s own snow line on that frame only and saves it as such', async () => {
+    const bodies: unknown[] = [];
+    api.use(
+      http.patch(`${ORIGIN}/api/clips/${clip.id}`, async ({ request }) => {
+        bodies.push(await request.json());
+        return HttpResponse.json({ clip });
+      }),
+    );
+    renderWorkspace();
+    const video = screen.getByTestId('video') as HTMLVideoElement;
+    fireEvent.click(screen.getByText('pose'));
+    fireEvent.click(screen.getByText('frame line'));
+    // Same worked example as above: −atan 0.1 = −5.7106° on frame 0.
+    expect(screen.getByTestId('tilt').textContent).toBe('-5.7106');
+    await waitFor(() =>
+      expect(bodies).toEqual([
+        {
+          frameReferenceLines: [
+            {
+              frameIndex: 0,
+              referenceLine: [
+                [0, 200],
+                [100, 190],
+              ],
+            },
+          ],
+        },
+      ]),
+    );
+    // On frame 1 the clip's line (the image level) applies again.
+    fireEvent.click(screen.getByText('step'));
+    act(() => {
+      video.dispatchEvent(new Event('seeked'));
+    });
+    expect(screen.getByTestId('frame').textContent).toBe('1');
+    fireEvent.click(screen.getByText('pose'));
+    expect(screen.getByTestId('tilt').textContent).toBe('0.0000');
   });
 });

@@ -8,6 +8,7 @@ export interface UpdateClipInput {
   view?: View;
   defaultModel?: PoseModelName;
   referenceLine?: ReferenceLine | null;
+  frameReferenceLines?: { frameIndex: number; referenceLine: ReferenceLine | null }[];
 }
 
 export function updateClip(clipId: string, input: UpdateClipInput): Promise<ClipResponse> {
@@ -21,7 +22,7 @@ export function useUpdateClip(clipId: string) {
     onSuccess: async (data, input) => {
       queryClient.setQueryData(clipWorkspaceKeys.clip(clipId), data);
       // The server recomputes stored metrics and flags when the view or snow line changes.
-      if (input.view !== undefined || input.referenceLine !== undefined) {
+      if (input.view !== undefined || input.referenceLine !== undefined || input.frameReferenceLines) {
         await queryClient.invalidateQueries({ queryKey: clipWorkspaceKeys.framesAll(clipId) });
       }
     },

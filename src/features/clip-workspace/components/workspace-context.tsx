@@ -93,8 +93,12 @@ export interface WorkspaceState {
   setReferenceLine(line: ReferenceLine | null): void;
   /** A line being dragged: metrics follow it at once, nothing is saved. Null ends the preview. */
   previewReferenceLine(line: ReferenceLine | null): void;
-  /** The line the numbers on screen use: the preview while dragging, else referenceLine. */
+  /** The line the numbers on screen use: the preview while dragging, else the frame's own, else the clip's. */
   effectiveReferenceLine: ReferenceLine | null;
+  /** Lines set on single frames; each replaces the clip's line for its own frame. */
+  frameReferenceLines: ReadonlyMap<number, ReferenceLine>;
+  /** Sets (or, with null, removes) one frame's own snow line; persists via PATCH frameReferenceLines. */
+  setFrameReferenceLine(frameIndex: number, line: ReferenceLine | null): void;
   bands: ToleranceBandDto[];
   /** Live result for currentFrame (or the stored/corrected one). */
   currentPose: PoseFrameResult | null;
@@ -144,6 +148,9 @@ export interface WorkspaceState {
   /** While on, the snow line's two handles can be dragged on the stage. */
   snowLineEditing: boolean;
   setSnowLineEditing(on: boolean): void;
+  /** What a dragged snow line is saved for: the whole clip, or only the frame on screen. */
+  snowLineScope: 'clip' | 'frame';
+  setSnowLineScope(scope: 'clip' | 'frame'): void;
   /**
    * Draws the overlays of the frame on screen (as toggled) onto any 2D canvas, e.g. a full-size still:
    * `map` takes video pixels to that canvas, `scale` multiplies line widths and text.
@@ -228,8 +235,10 @@ export function WorkspaceProvider({
   const [playbackRate, setRate] = useState(1);
   const [model, setModelState] = useState<PoseModelName>(extras.defaultModel ?? 'lightning');
   const [referenceLine, setReferenceLineState] = useState<ReferenceLine | null>(extras.referenceLine ?? null);
+  const [frameReferenceLines, setFrameLines] = useState<ReadonlyMap<number, ReferenceLine>>(
+    () => new Map((clip.frameReferenceLines ?? []).map((f) => [f.frameIndex, f.referenceLine])),
+  );
   const [linePreview, previewReferenceLine] = useState<ReferenceLine | null>(null);
-  const effectiveReferenceLine = linePreview ?? referenceLine;
   const [drawingActive, setDrawingActive] = useState(false);
   const [frameKeypoints, setFrameKeypoints] = useState<FrameKeypoints | null>(null);
   const [poseStatus, setPoseStatus] = useState<PoseStatus>({ state: 'idle' });
@@ -240,6 +249,7 @@ export function WorkspaceProvider({
     setFrameKeypoints(next);
   }, []);
   const [snowLineEditing, setSnowLineEditing] = useState(false);
+  const [snowLineScope, setSnowLineScope] = useState<'clip' | 'frame'>('clip');
   const setOverlay = useCallback(
     (key: OverlayKey, on: boolean) => setOverlays((all) => ({ ...all, [key]: on })),
     [],
@@ -430,6 +440,28 @@ export function WorkspaceProvider({
     [patchClip, toast],
   );
 
+  const setFrameReferenceLine = useCallback(
+    (frameIndex: number, line: ReferenceLine | null) => {
+      setFrameLines((all) => {
+        const next = new Map(all);
+        if (line) next.set(frameIndex, line);
+        else next.delete(frameIndex);
+        return next;
+      });
+      patchClip(
+        { frameReferenceLines: [{ frameIndex, referenceLine: line }] },
+        {
+          onError: (error) =>
+            toast.error(
+              `The snow line of frame ${frameIndex} was not saved: ${errorMessage(error)}. It is used on this page only; move a handle to try again.`,
+            ),
+        },
+      );
+    },
+    [patchClip, toast],
+  );
+  const effectiveReferenceLine = linePreview ?? frameReferenceLines.get(currentFrame) ?? referenceLine;
+
   const bandsQuery = useToleranceBands(extras.ageGroup?.id ?? null);
   const bands = useMemo(() => bandsQuery.data?.bands ?? [], [bandsQuery.data]);
 
@@ -487,6 +519,8 @@ export function WorkspaceProvider({
     setReferenceLine,
     previewReferenceLine,
     effectiveReferenceLine,
+    frameReferenceLines,
+    setFrameReferenceLine,
     bands,
     currentPose,
     videoToStage,
@@ -519,6 +553,8 @@ export function WorkspaceProvider({
     setOverlay,
     snowLineEditing,
     setSnowLineEditing,
+    snowLineScope,
+    setSnowLineScope,
     drawOverlaysOn,
     mediaSrc,
     renewMedia,

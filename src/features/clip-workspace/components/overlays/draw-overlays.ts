@@ -41,6 +41,8 @@ export interface OverlayScene {
   videoSize: Size;
   /** Show the snow line's handles (editing mode). */
   snowLineHandles: boolean;
+  /** The line shown is the frame's own, not the clip's. */
+  snowLineOwnFrame?: boolean;
   /** A point under the pointer or being dragged. */
   activePoint?: KeypointName | null;
 }
@@ -271,7 +273,9 @@ function drawSnowLine(p: Painter, scene: OverlayScene) {
   if (across) p.line(across[0], across[1], OVERLAY_COLORS.snowLine, 1.5, [10, 6]);
   if (scene.snowLineHandles) {
     for (const handle of line) p.point(handle, OVERLAY_COLORS.snowLine, 7, 'disc');
-    p.label([line[0][0], line[0][1]], 'snow line', OVERLAY_COLORS.snowLine, 'left');
+    const name = scene.snowLineOwnFrame ? 'snow line, this frame' : 'snow line';
+    const at = p.map(line[0]);
+    p.label([at[0] + 12 * p.k, at[1] - 18 * p.k], name, OVERLAY_COLORS.snowLine, 'left');
   }
 }
 

@@ -19,7 +19,12 @@ export function OverlayToolbar() {
     referenceLine,
     setReferenceLine,
     canEdit,
+    currentFrame,
+    frameReferenceLines,
+    setFrameReferenceLine,
+    setSnowLineScope,
   } = useWorkspace();
+  const ownLine = frameReferenceLines.has(currentFrame);
 
   return (
     <div className="flex flex-wrap items-center gap-x-4 gap-y-2">
@@ -53,7 +58,11 @@ export function OverlayToolbar() {
           <button
             type="button"
             aria-pressed={snowLineEditing}
-            onClick={() => setSnowLineEditing(!snowLineEditing)}
+            onClick={() => {
+              // A frame with its own line opens on that line; otherwise the clip's line is edited.
+              if (!snowLineEditing) setSnowLineScope(ownLine ? 'frame' : 'clip');
+              setSnowLineEditing(!snowLineEditing);
+            }}
             className={cn(
               'h-8 rounded-md border px-3 text-sm font-medium',
               snowLineEditing
@@ -63,7 +72,18 @@ export function OverlayToolbar() {
           >
             {snowLineEditing ? 'Done with snow line' : 'Set snow line'}
           </button>
-          {referenceLine ? (
+          {ownLine ? (
+            <button
+              type="button"
+              onClick={() => {
+                setFrameReferenceLine(currentFrame, null);
+                setSnowLineScope('clip');
+              }}
+              className="h-8 rounded-md px-2 text-sm text-glacier-700 hover:bg-glacier-50"
+            >
+              Clip’s line on this frame
+            </button>
+          ) : referenceLine ? (
             <button
               type="button"
               onClick={() => setReferenceLine(null)}

@@ -34,7 +34,7 @@ export function PoseOverlay() {
     overlays,
     view,
     bands,
-    referenceLine,
+    effectiveReferenceLine,
     snowLineEditing,
     playing,
     drawingActive,
@@ -47,7 +47,8 @@ export function PoseOverlay() {
   const [activePoint, setActivePoint] = useState<KeypointName | null>(null);
   const [draftLine, setDraftLine] = useState<ReferenceLine | null>(null);
 
-  const shownLine = draftLine ?? referenceLine;
+  const shownLine = draftLine ?? effectiveReferenceLine;
+  const ownFrameLine = ws.frameReferenceLines.has(ws.currentFrame);
 
   useEffect(() => {
     const canvas = canvasRef.current;
@@ -69,6 +70,7 @@ export function PoseOverlay() {
         bands,
         videoSize,
         snowLineHandles: snowLineEditing,
+        snowLineOwnFrame: ownFrameLine,
         activePoint,
       },
       { map: videoToStage },
@@ -81,6 +83,7 @@ export function PoseOverlay() {
     bands,
     videoSize,
     snowLineEditing,
+    ownFrameLine,
     activePoint,
     stageSize,
     videoToStage,
@@ -173,7 +176,8 @@ export function PoseOverlay() {
       if (Math.hypot(a[0] - b[0], a[1] - b[1]) < 4) {
         toast.error('The two snow-line handles are on top of each other; drag them apart.');
       } else {
-        ws.setReferenceLine(draftLine);
+        if (ws.snowLineScope === 'frame') ws.setFrameReferenceLine(ws.currentFrame, draftLine);
+        else ws.setReferenceLine(draftLine);
       }
       ws.previewReferenceLine(null);
       setDraftLine(null);

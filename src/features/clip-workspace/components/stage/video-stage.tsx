@@ -3,6 +3,7 @@ import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
 import { cn } from '@/lib/format';
 import { cssTransform } from '../../lib/stage-transform';
+import { SnowLineBanner } from './snow-line-banner';
 import { ZoomControls } from './zoom-controls';
 import { useWorkspace } from '../workspace-context';
 
@@ -90,13 +91,7 @@ export function VideoStage({ overlay }: { overlay: ReactNode }) {
           onError={(event) => void handleError(event.currentTarget)}
         />
         {overlay}
-        {ws.snowLineEditing ? (
-          <p className="pointer-events-none absolute inset-x-0 top-0 bg-glacier-950/75 px-3 py-1.5 text-xs text-white">
-            Drag the two round handles onto the snow surface (
-            {ws.view === 'front' ? 'across the hill' : 'along the slope'}). Every tilt and lean is then
-            measured against that line.
-          </p>
-        ) : null}
+        {ws.snowLineEditing ? <SnowLineBanner /> : null}
         <ZoomControls />
         <div
           ref={ws.setStageOverlaySlot}
