@@ -311,6 +311,9 @@ ${tables}
   per still; frames of a clip after the first use the tracked region and run once.
 - **Front-view knees** are placed less well than side-view knees (the knee bends toward the camera and
   only a light patch on the pants marks it), which shows in knee separation and knee angulation.
+- **Small skiers**: BlazePose's person detector misses many skiers below about a third of the frame
+  height (overview, last column), where MoveNet still finds most; prefer MoveNet for wide shots, or
+  crop to the skier.
 - **A real photograph** (\`tests/pose/photo.test.ts\`, the public-domain astronaut portrait): both MoveNet
   models put the face within a few pixels and the shoulders within the annotation's uncertainty;
   BlazePose finds the face but puts both shoulders on the suit's neck ring.
