@@ -131,7 +131,7 @@ describe('pose of the frame on screen', () => {
       view: 'front',
       still: true,
     });
-    // The first frame of a visit starts the detector's tracking afresh.
+    // Each paused frame is read afresh, whatever was detected before it.
     expect(reset).toHaveBeenCalledTimes(1);
   });
 });

@@ -1,5 +1,4 @@
 import { useEffect, useMemo, useRef, useState } from 'react';
-import type { PoseModelName } from '@shared/keypoints';
 import { errorMessage } from '@/lib/api-client';
 import { getPoseClient } from '@/lib/pose-client';
 import { useClipFrames } from '../api/get-clip-frames';
@@ -36,8 +35,6 @@ export function useFramePose() {
   }, [stored.data, model, videoSize.width, videoSize.height]);
 
   const liveCache = useRef(new Map<string, FrameKeypoints>());
-  // Tracking state in the detector is only valid for the next frame of the same model.
-  const lastDetected = useRef<{ model: PoseModelName; frameIndex: number } | null>(null);
   const request = useRef(0);
   const inFlight = useRef(false);
   const rerunWanted = useRef(false);
@@ -78,20 +75,17 @@ export function useFramePose() {
         // Grab the pixels first: the bitmap is of the frame displayed now.
         const bitmap = await createImageBitmap(video);
         const client = getPoseClient();
-        const previous = lastDetected.current;
-        if (!previous || previous.model !== model || previous.frameIndex !== frameIndex - 1) {
-          await client.reset();
-        }
+        // Each paused frame is read afresh (whole-frame search, then a refined look at the skier), so
+        // a frame shows the same numbers however the coach arrived at it.
+        await client.reset();
         const result = await client.detect(bitmap, {
           frameIndex,
           timeMs: frameStartMs(frameIndex, fps),
           model,
           view,
-          // A paused frame is read on its own: temporal smoothing would blend in the frames stepped
-          // through before it (the crop tracking of consecutive frames is kept).
+          // No temporal smoothing: it would blend in the frames stepped through before this one.
           still: true,
         });
-        lastDetected.current = { model, frameIndex };
         const entry: FrameKeypoints = {
           frameIndex,
           timeMs: result.timeMs,
@@ -107,7 +101,6 @@ export function useFramePose() {
         setFrameKeypoints(entry);
         setPoseStatus({ state: 'idle' });
       } catch (error) {
-        lastDetected.current = null;
         if (id !== request.current) return;
         setPoseStatus({
           state: 'error',

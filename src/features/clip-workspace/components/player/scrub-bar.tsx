@@ -8,7 +8,7 @@ const BAR_HEIGHT = 44;
 
 /** A frame slider laid over the clip's thumbnail strip; hovering previews the frame under the pointer. */
 export function ScrubBar() {
-  const { clip, fps, frameCount, currentFrame, seekToFrame } = useWorkspace();
+  const { clip, fps, frameCount, currentFrame, seekToFrame, frameReferenceLines } = useWorkspace();
   const strip = clipExtras(clip).thumbnails ?? null;
   const barRef = useRef<HTMLDivElement | null>(null);
   const [barWidth, setBarWidth] = useState(0);
@@ -73,6 +73,15 @@ export function ScrubBar() {
           className="pointer-events-none absolute inset-y-0 left-0 bg-glacier-400/25"
           style={{ width: `${position * 100}%` }}
         />
+        {[...frameReferenceLines.keys()].map((frame) => (
+          <div
+            key={frame}
+            aria-hidden="true"
+            title={`Frame ${frame} has its own snow line`}
+            className="pointer-events-none absolute bottom-0 h-1.5 w-1 -translate-x-1/2 rounded-t-sm bg-glacier-200"
+            style={{ left: `${lastFrame > 0 ? (frame / lastFrame) * 100 : 0}%` }}
+          />
+        ))}
         <div
           aria-hidden="true"
           className="pointer-events-none absolute inset-y-0 w-0.5 -translate-x-1/2 bg-signal-400 shadow-[0_0_0_1px_rgba(17,36,58,0.8)]"

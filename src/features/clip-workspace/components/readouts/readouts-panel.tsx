@@ -48,6 +48,17 @@ function StatusLine({ pose, status }: { pose: PoseFrameResult | null; status: Po
   );
 }
 
+/** Which snow line the tilts and leans are measured against on this frame. */
+function LineInForce() {
+  const { frameReferenceLines, currentFrame, referenceLine } = useWorkspace();
+  const text = frameReferenceLines.has(currentFrame)
+    ? 'this frame’s own snow line'
+    : referenceLine
+      ? 'the clip’s snow line'
+      : 'the image level (no snow line set)';
+  return <p className="text-xs text-granite-400">Tilts and leans against {text}</p>;
+}
+
 function MetricRow({ definition, pose }: { definition: MetricDefinition; pose: PoseFrameResult | null }) {
   const { bands, clip } = useWorkspace();
   const value = pose?.metrics[definition.key] ?? null;
@@ -134,6 +145,7 @@ export function ReadoutsPanel() {
           </label>
         </div>
         <StatusLine pose={currentPose} status={poseStatus} />
+        <LineInForce />
       </header>
       <ul>
         {definitions.map((definition) => (
