@@ -41,3 +41,19 @@ export function mapKeypoints(raw: readonly RawKeypoint[], scaleX = 1, scaleY = 1
 export function scaleKeypoints(keypoints: readonly Keypoint[], scaleX: number, scaleY: number): Keypoint[] {
   return keypoints.map((k) => ({ ...k, x: k.x * scaleX, y: k.y * scaleY }));
 }
+
+/**
+ * Swaps the skier's left and right labels. From behind, the models read the skier as facing the
+ * camera and swap the sides on most frames (docs/accuracy.md); a clip marked "filmed from behind"
+ * runs its keypoints through this before any metric.
+ */
+export function swapLeftRight(keypoints: readonly Keypoint[]): Keypoint[] {
+  return keypoints.map((k) => {
+    const name = k.name.startsWith('left_')
+      ? `right_${k.name.slice(5)}`
+      : k.name.startsWith('right_')
+        ? `left_${k.name.slice(6)}`
+        : k.name;
+    return { ...k, name: name as Keypoint['name'] };
+  });
+}

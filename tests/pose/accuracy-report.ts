@@ -305,7 +305,9 @@ ${tables}
 - **From behind, left and right get swapped** on most frames: without a face the models read the figure
   as facing the camera. Front-view metrics are signed by the skier's own left, so a swapped frame
   flips their sign. A clip filmed from behind needs the labels swapped (a per-clip "filmed from behind"
-  setting) before its metrics mean anything.
+  setting) before its metrics mean anything; \`swapLeftRight\` in \`shared/pose/keypoint-mapping.ts\` does
+  that, and on the phantom's frames from behind it brings Lightning's median joint error from 0.74 to
+  0.07 torso lengths (\`tests/pose/phantom-set.test.ts\`).
 - **Cold-start refinement** (\`refineColdStart\`, on by default) runs a second pass on the region the
   first pass found; the table above shows what it does to the error of a still. It costs a second pass
   per still; frames of a clip after the first use the tracked region and run once.

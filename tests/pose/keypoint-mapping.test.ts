@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import * as tf from '@tensorflow/tfjs-core';
 import { BLAZEPOSE33_NAMES, COCO17_NAMES } from '@shared/keypoints';
-import { mapKeypoints, scaleKeypoints } from '@shared/pose/keypoint-mapping';
+import { mapKeypoints, scaleKeypoints, swapLeftRight } from '@shared/pose/keypoint-mapping';
 import { selectBackend } from '@shared/pose/pose-detector';
 
 const raw = (n: number) => Array.from({ length: n }, (_, i) => ({ x: i, y: 2 * i, score: 0.5 }));
@@ -29,6 +29,19 @@ describe('keypoint mapping', () => {
     expect(mapped.find((k) => k.name === 'nose')).toEqual({ name: 'nose', x: 0, y: 0, score: 0.5 });
     expect(mapped.find((k) => k.name === 'left_eye')).toEqual({ name: 'left_eye', x: 2, y: 6, score: 0.5 });
     expect(scaleKeypoints(mapped, 0.5, 2)[1]).toEqual({ name: 'left_eye', x: 1, y: 12, score: 0.5 });
+  });
+});
+
+describe('swapLeftRight', () => {
+  it('exchanges every left/right pair and keeps the middle points', () => {
+    const mapped = mapKeypoints(raw(33));
+    const swapped = swapLeftRight(mapped);
+    expect(swapped.map((k) => k.name).sort()).toEqual([...BLAZEPOSE33_NAMES].sort());
+    const at = (list: typeof mapped, name: string) => list.find((k) => k.name === name);
+    expect(at(swapped, 'right_heel')).toMatchObject({ x: at(mapped, 'left_heel')!.x });
+    expect(at(swapped, 'left_eye_inner')).toMatchObject({ x: at(mapped, 'right_eye_inner')!.x });
+    expect(at(swapped, 'nose')).toEqual(at(mapped, 'nose'));
+    expect(swapLeftRight(swapped)).toEqual(mapped);
   });
 });
 
