@@ -21,7 +21,7 @@ export interface PoseFrameRequest {
   model: PoseModelName;
   view: View;
   referenceLine?: ReferenceLine | null;
-  /** A still image rather than a clip frame: no temporal smoothing. */
+  /** A still image rather than a clip frame: tracking reset before it, no temporal smoothing. */
   still?: boolean;
 }
 

@@ -104,6 +104,8 @@ async function handleDetect(message: Extract<WorkerRequest, { type: 'detect' }>)
     const sourceHeight = bitmap.height;
     const pixels = pixelsOf(bitmap);
     bitmap.close();
+    // A still is unrelated to whatever came before: no tracking state carried into it.
+    if (req.still) detector.reset();
     const found = await detector.detect(
       { ...pixels, channels: 4 },
       { timeMs: req.still ? null : req.timeMs },
@@ -143,6 +145,8 @@ async function handleDetect(message: Extract<WorkerRequest, { type: 'detect' }>)
     post({ type: 'result', id, result });
   } catch (error) {
     post({ type: 'error', id, message: error instanceof Error ? error.message : String(error) });
+  } finally {
+    bitmap.close();
   }
 }
 
