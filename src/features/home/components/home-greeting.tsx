@@ -9,7 +9,14 @@ const SUBTITLES: Record<UserDto['role'], string> = {
   guardian: 'Clips of your child from training, read-only.',
 };
 
+function subtitleFor(user: UserDto): string {
+  if (user.role === 'guardian' && user.childAthleteIds.length > 1) {
+    return 'Clips of your children from training, read-only.';
+  }
+  return SUBTITLES[user.role];
+}
+
 export function HomeGreeting({ user, title }: { user: UserDto; title: string }) {
   const first = user.name.split(' ')[0];
-  return <PageHeader title={title} subtitle={`Hello ${first}. ${SUBTITLES[user.role]}`} />;
+  return <PageHeader title={title} subtitle={`Hello ${first}. ${subtitleFor(user)}`} />;
 }
