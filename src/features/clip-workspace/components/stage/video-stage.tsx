@@ -7,12 +7,17 @@ import { SnowLineBanner } from './snow-line-banner';
 import { ZoomControls } from './zoom-controls';
 import { useWorkspace } from '../workspace-context';
 
+// MediaError codes (HTML standard), spelled out so the stage does not need the MediaError global.
+const MEDIA_ERR_NETWORK = 2;
+const MEDIA_ERR_DECODE = 3;
+const MEDIA_ERR_SRC_NOT_SUPPORTED = 4;
+
 function describeMediaError(error: MediaError | null): string {
   switch (error?.code) {
-    case MediaError.MEDIA_ERR_NETWORK:
+    case MEDIA_ERR_NETWORK:
       return 'The video stopped loading. Check your connection.';
-    case MediaError.MEDIA_ERR_DECODE:
-    case MediaError.MEDIA_ERR_SRC_NOT_SUPPORTED:
+    case MEDIA_ERR_DECODE:
+    case MEDIA_ERR_SRC_NOT_SUPPORTED:
       return 'This browser cannot play the clip as it was filmed. The server makes a playable copy after upload; if this stays, upload the clip again.';
     default:
       return 'The video could not be played.';
@@ -86,6 +91,8 @@ export function VideoStage({ overlay }: { overlay: ReactNode }) {
           style={{ transform: cssTransform(viewTransform) }}
           onLoadedMetadata={(event) => {
             if (resumeAt.current > 0) event.currentTarget.currentTime = resumeAt.current;
+            // A link that loaded may expire later in a long review: allow one more silent renewal.
+            renewed.current = false;
             setMediaError(null);
           }}
           onError={(event) => void handleError(event.currentTarget)}
