@@ -35,17 +35,29 @@ export function suggestView(keypoints: Keypoint[]): { view: View; confidence: nu
  * ahead of the ears and, with BlazePose, foot tips ahead of heels. Confidence is the mean cosine
  * of those cues with the line (1 = all point straight along it); null when there is no cue.
  */
+/** Smallest mean cue (cosine against the snow line), and smallest cue length as a share of the
+ * figure's size, that still count as a facing direction. */
+const MIN_FACING_CUE = 0.01;
+
 export function detectFacing(
   keypoints: Keypoint[],
   referenceLine?: ReferenceLine | null,
 ): { facing: Facing; confidence: number } | null {
   const p = new PosePoints(keypoints);
   const frame = referenceFrame(referenceLine);
+  // A cue is a direction; points that (almost) coincide give a direction made of noise, so cues
+  // shorter than a small share of the figure's size are left out (relative, so scale does not matter).
+  const present = keypoints.filter((k) => p.has(k.name)).map((k) => p.record(k.name).point);
+  const xs = present.map((q) => q.x);
+  const ys = present.map((q) => q.y);
+  const figureSize = present.length
+    ? Math.hypot(Math.max(...xs) - Math.min(...xs), Math.max(...ys) - Math.min(...ys))
+    : 0;
   const cues: number[] = [];
   const cue = (from: Vec2, to: Vec2) => {
     const d = sub(to, from);
     const n = norm(d);
-    if (n > 0) cues.push(dot(d, frame.along) / n);
+    if (n > MIN_FACING_CUE * figureSize && n > 0) cues.push(dot(d, frame.along) / n);
   };
   const ears = (['left_ear', 'right_ear'] as const).filter((n) => p.has(n)).map((n) => p.record(n).point);
   if (p.has('nose') && ears.length > 0) cue(mean(ears)!, p.record('nose').point);
@@ -56,6 +68,8 @@ export function detectFacing(
   }
   if (cues.length === 0) return null;
   const combined = cues.reduce((a, b) => a + b, 0) / cues.length;
-  if (combined === 0) return null;
+  // Nose straight above the ears (or feet pointing at the camera) says nothing about facing; a dead
+  // band also keeps rounding noise from deciding a mirrored image differently.
+  if (Math.abs(combined) < MIN_FACING_CUE) return null;
   return { facing: combined > 0 ? 'right' : 'left', confidence: Math.abs(combined) };
 }

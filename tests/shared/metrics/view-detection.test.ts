@@ -43,4 +43,18 @@ describe('detectFacing', () => {
     expect(detectFacing(toKeypoints({ left_hip: [0, 0] }))).toBeNull();
     expect(detectFacing(toKeypoints(FRONT_POSE))).toBeNull();
   });
+
+  it('gives no facing, in the image or its mirror, when the nose is only rounding noise off the ears', () => {
+    // Found by the facing property test: ears at x = 0.1 and 0.2, nose at 0.15 + 1e-15 in a 640-wide
+    // image. The cue is a rounding error, so neither the image nor its mirror may claim a direction.
+    const pose: Pose = {
+      ...onlyCoco(SIDE_POSE),
+      left_ear: [0.1, 10],
+      right_ear: [0.2, 10],
+      nose: [0.15 + 1e-15, 10],
+    };
+    expect(detectFacing(toKeypoints(pose))).toBeNull();
+    const mirrored = Object.fromEntries(Object.entries(pose).map(([n, [x, y]]) => [n, [640 - x, y]])) as Pose;
+    expect(detectFacing(toKeypoints(mirrored))).toBeNull();
+  });
 });
