@@ -5,7 +5,7 @@ import { parseArgs } from 'node:util';
 import { POSE_MODELS, VIEWS, type PoseModelName, type View } from '@shared/keypoints';
 import { GeometryInputError } from '@shared/geometry';
 import { KeypointFileError, parseKeypointFile } from './keypoint-file';
-import { loadMediaModule, PosePipelineMissingError } from './media-input';
+import { loadMediaModule } from './media-input';
 import { reportFrame, toJsonLine, toTable, type FrameReport } from './frame-report';
 
 const USAGE = `usage: npm run -s analyze -- [--model lightning|thunder|blazepose] [--view front|side] [--every N] [--json] FILE...
@@ -110,10 +110,7 @@ async function main(argv: string[]): Promise<number> {
       }
     } catch (error) {
       failures++;
-      const known =
-        error instanceof KeypointFileError ||
-        error instanceof PosePipelineMissingError ||
-        error instanceof GeometryInputError;
+      const known = error instanceof KeypointFileError || error instanceof GeometryInputError;
       const message = known
         ? (error as Error).message
         : `unexpected error: ${(error as Error)?.message ?? String(error)}`;

@@ -1,5 +1,4 @@
 import { spawnSync } from 'node:child_process';
-import { existsSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { METRIC_KEYS } from '@shared/metrics';
@@ -139,23 +138,11 @@ describe('analyze on bad input', () => {
     expect(r.stderr).toContain('usage:');
   });
 
-  it.skipIf(existsSync(`${root}server/pose/analyze-media.ts`))(
-    'says images and videos need the pose pipeline while it is not installed',
-    () => {
-      const r = analyze('--json', 'fixtures/clip.mp4');
-      expect(r.code).toBe(1);
-      expect(r.stderr).toContain('images and videos need the pose pipeline');
-    },
-  );
-
-  it.runIf(existsSync(`${root}server/pose/analyze-media.ts`))(
-    "passes the pose pipeline's own input errors on clearly",
-    () => {
-      const r = analyze('--json', 'fixtures/keypoints/no-such-clip.mp4');
-      expect(r.code).toBe(1);
-      expect(r.stdout).toBe('');
-      expect(r.stderr).toMatch(/^analyze: fixtures\/keypoints\/no-such-clip\.mp4: \S/);
-      expect(r.stderr).not.toMatch(/\n\s+at /);
-    },
-  );
+  it("passes the pose pipeline's own input errors on clearly", () => {
+    const r = analyze('--json', 'fixtures/keypoints/no-such-clip.mp4');
+    expect(r.code).toBe(1);
+    expect(r.stdout).toBe('');
+    expect(r.stderr).toMatch(/^analyze: fixtures\/keypoints\/no-such-clip\.mp4: \S/);
+    expect(r.stderr).not.toMatch(/\n\s+at /);
+  });
 });
