@@ -2,6 +2,7 @@
 // `map`, so the same code draws on the zoomed stage and on a full-size still.
 
 import {
+  COCO17_NAMES,
   DEFAULT_CONFIDENCE_FLOOR,
   type Keypoint,
   type KeypointName,
@@ -82,23 +83,7 @@ const BONES: [KeypointName, KeypointName, Side][] = [
 
 // Points drawn as joints; BlazePose's face and hand extras stay off to keep the figure legible.
 const JOINTS: ReadonlySet<KeypointName> = new Set<KeypointName>([
-  'nose',
-  'left_eye',
-  'right_eye',
-  'left_ear',
-  'right_ear',
-  'left_shoulder',
-  'right_shoulder',
-  'left_elbow',
-  'right_elbow',
-  'left_wrist',
-  'right_wrist',
-  'left_hip',
-  'right_hip',
-  'left_knee',
-  'right_knee',
-  'left_ankle',
-  'right_ankle',
+  ...COCO17_NAMES,
   'left_heel',
   'right_heel',
   'left_foot_index',
@@ -116,21 +101,7 @@ class Painter {
   ) {}
 
   line(a: Point, b: Point, color: string, width: number, dash: number[] = []) {
-    const { ctx } = this;
-    const [p, q] = [this.map(a), this.map(b)];
-    ctx.save();
-    ctx.lineCap = 'round';
-    ctx.setLineDash(dash.map((d) => d * this.k));
-    ctx.strokeStyle = OVERLAY_COLORS.casing;
-    ctx.lineWidth = (width + 2.5) * this.k;
-    ctx.beginPath();
-    ctx.moveTo(p[0], p[1]);
-    ctx.lineTo(q[0], q[1]);
-    ctx.stroke();
-    ctx.strokeStyle = color;
-    ctx.lineWidth = width * this.k;
-    ctx.stroke();
-    ctx.restore();
+    this.screenLine(this.map(a), this.map(b), color, width, dash);
   }
 
   /** A line from a screen-space start in a screen direction: used for reference strokes of fixed length. */
