@@ -25,6 +25,8 @@ export interface StartOptions {
   /** Settings as environment variables (see server/config.ts), over process.env. */
   env?: Record<string, string>;
   clock?: Clock;
+  /** Folder holding dist/, models/ and node_modules/ (default: the checkout); benchmarks serve other builds. */
+  projectRoot?: string;
 }
 
 export interface StartedStanceline {
@@ -85,6 +87,7 @@ export async function startStanceline(opts: StartOptions = {}): Promise<StartedS
       publicUrl: () => publicUrl,
       logger,
       clock: opts.clock,
+      projectRoot: opts.projectRoot,
     });
     server = await new Promise<Server>((resolve, reject) => {
       const s = app.listen(config.port, config.host, () => resolve(s));

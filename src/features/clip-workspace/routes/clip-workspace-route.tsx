@@ -7,6 +7,7 @@ import { PageSpinner, Spinner } from '@/components/ui/spinner';
 import { paths } from '@/config/paths';
 import { useUser } from '@/lib/auth';
 import { can } from '@/lib/permissions';
+import { RenderProbe } from '@/lib/render-probe';
 import type { ClipDto } from '@shared/schemas/clip.schema';
 import { clipExtras } from '../api/clip-contract';
 import { useWorkspaceClip } from '../api/get-workspace-clip';
@@ -111,29 +112,37 @@ function Workspace() {
   useFramePose();
 
   return (
-    <div className="grid gap-6 xl:grid-cols-[minmax(0,1fr)_23rem]">
-      <div className="min-w-0 space-y-3">
-        <OverlayToolbar />
-        <VideoStage overlay={<PoseOverlay />} />
-        {/* Portals itself into the stage's overlay slot. */}
-        <DrawingLayer />
-        <ScrubBar />
-        <TransportBar helpOpen={helpOpen} onHelpOpenChange={setHelpOpen} extra={<ExportMenu />} />
-        <AnalysisPanel />
+    <RenderProbe id="page">
+      <div className="grid gap-6 xl:grid-cols-[minmax(0,1fr)_23rem]">
+        <div className="min-w-0 space-y-3">
+          <OverlayToolbar />
+          <VideoStage overlay={<PoseOverlay />} />
+          {/* Portals itself into the stage's overlay slot. */}
+          <DrawingLayer />
+          <ScrubBar />
+          <TransportBar helpOpen={helpOpen} onHelpOpenChange={setHelpOpen} extra={<ExportMenu />} />
+          <AnalysisPanel />
+        </div>
+        <aside className="space-y-4">
+          <RenderProbe id="readouts">
+            <ReadoutsPanel />
+          </RenderProbe>
+          <RenderProbe id="notes">
+            <NotesPanel />
+          </RenderProbe>
+          <Notice tone="info" title="2D estimates, not medical advice">
+            Angles come from one camera and depend on where it stood and how sure the pose model is of each
+            joint. They are a coaching aid, not a medical or injury assessment: pain or injury goes to a
+            licensed professional. Defer to certified coaching standards and local rules.
+          </Notice>
+        </aside>
+        <div className="min-w-0 space-y-4 xl:col-span-2">
+          <RenderProbe id="chart">
+            <CurvesPanel />
+          </RenderProbe>
+          <TurnTable />
+        </div>
       </div>
-      <aside className="space-y-4">
-        <ReadoutsPanel />
-        <NotesPanel />
-        <Notice tone="info" title="2D estimates, not medical advice">
-          Angles come from one camera and depend on where it stood and how sure the pose model is of each
-          joint. They are a coaching aid, not a medical or injury assessment: pain or injury goes to a
-          licensed professional. Defer to certified coaching standards and local rules.
-        </Notice>
-      </aside>
-      <div className="min-w-0 space-y-4 xl:col-span-2">
-        <CurvesPanel />
-        <TurnTable />
-      </div>
-    </div>
+    </RenderProbe>
   );
 }

@@ -1,0 +1,23 @@
+import { median } from 'mathjs/number';
+
+/** A stored frame's place in the clip: its index and its presentation time in milliseconds. */
+export interface TimedFrame {
+  frameIndex: number;
+  timeMs: number;
+}
+
+/**
+ * Frames per second from the frames' own times, for a clip whose container gave no rate: the median
+ * time per frame over consecutive stored frames (gaps between analysed frames divide out, a dropped
+ * or doubled timestamp does not move a median). Null when no two frames tell a rate.
+ */
+export function estimateFrameRate(frames: readonly TimedFrame[]): number | null {
+  const msPerFrame: number[] = [];
+  for (let i = 1; i < frames.length; i++) {
+    const span = frames[i].frameIndex - frames[i - 1].frameIndex;
+    const ms = frames[i].timeMs - frames[i - 1].timeMs;
+    if (span > 0 && ms > 0) msPerFrame.push(ms / span);
+  }
+  if (msPerFrame.length === 0) return null;
+  return 1000 / median(msPerFrame);
+}
