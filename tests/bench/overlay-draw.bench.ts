@@ -6,7 +6,7 @@ import { createCanvas } from '@napi-rs/canvas';
 import type { Keypoint, KeypointName, View } from '@shared/keypoints';
 import { computeFrameMetrics } from '@shared/metrics';
 import { drawOverlays } from '@/features/clip-workspace/components/overlays/draw-overlays';
-import type { PoseFrameResult } from '@/features/clip-workspace/components/workspace-context';
+import type { PoseFrameResult } from '@/features/clip-workspace/components/stage/analysis-context';
 
 const RUNS = 400;
 

@@ -7,7 +7,8 @@ import { afterAll, afterEach, beforeAll, describe, expect, it, vi } from 'vitest
 import type { NoteDto } from '@shared/schemas/note.schema';
 import { ToastProvider } from '@/components/ui/toast';
 import { NotesPanel } from '@/features/clip-workspace/components/notes';
-import { useWorkspace, WorkspaceProvider } from '@/features/clip-workspace/components/workspace-context';
+import { ClipStageProvider } from '@/features/clip-workspace/components/stage/clip-stage';
+import { useStageProbe } from '../helpers/stage-probe';
 import { configureApiClient } from '@/lib/api-client';
 import { createQueryClient } from '@/lib/react-query';
 import { clipFixture } from '../helpers/demo-data';
@@ -78,7 +79,7 @@ function handlers(options: { failCreate?: boolean } = {}) {
 }
 
 function Player() {
-  const ws = useWorkspace();
+  const ws = useStageProbe();
   return <video ref={ws.setVideoElement} data-testid="video" />;
 }
 
@@ -86,10 +87,10 @@ function renderPanel() {
   render(
     <QueryClientProvider client={createQueryClient()}>
       <ToastProvider>
-        <WorkspaceProvider clip={clip} renewMedia={() => Promise.resolve(null)} canEdit>
+        <ClipStageProvider clip={clip} renewMedia={() => Promise.resolve(null)} readOnly={false}>
           <Player />
           <NotesPanel />
-        </WorkspaceProvider>
+        </ClipStageProvider>
       </ToastProvider>
     </QueryClientProvider>,
   );

@@ -7,7 +7,7 @@ import {
   OVERLAY_COLORS,
   type OverlayScene,
 } from '@/features/clip-workspace/components/overlays/draw-overlays';
-import type { PoseFrameResult } from '@/features/clip-workspace/components/workspace-context';
+import type { PoseFrameResult } from '@/features/clip-workspace/components/stage/analysis-context';
 
 // A standing figure drawn on a 200×200 canvas with the identity mapping, then read back pixel by pixel.
 // Joints are discs 9 px across, so their centre pixel carries the fill colour exactly.

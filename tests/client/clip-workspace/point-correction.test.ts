@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import type { FrameKeypoints } from '@/features/clip-workspace/components/workspace-context';
+import type { FrameKeypoints } from '@/features/clip-workspace/components/stage/analysis-context';
 import {
   handPlacedPoints,
   movePoint,

@@ -6,7 +6,8 @@ import { afterAll, afterEach, beforeAll, describe, expect, it, vi } from 'vitest
 import type { Keypoint } from '@shared/keypoints';
 import { ToastProvider } from '@/components/ui/toast';
 import { PoseOverlay } from '@/features/clip-workspace/components/overlays/pose-overlay';
-import { useWorkspace, WorkspaceProvider } from '@/features/clip-workspace/components/workspace-context';
+import { ClipStageProvider } from '@/features/clip-workspace/components/stage/clip-stage';
+import { useStageProbe } from '../helpers/stage-probe';
 import { useFramePose } from '@/features/clip-workspace/hooks/use-frame-pose';
 import { configureApiClient } from '@/lib/api-client';
 import { createQueryClient } from '@/lib/react-query';
@@ -42,7 +43,7 @@ afterAll(() => api.close());
 
 function Readout() {
   useFramePose();
-  const ws = useWorkspace();
+  const ws = useStageProbe();
   return (
     <>
       <video ref={ws.setVideoElement} />
@@ -71,10 +72,10 @@ async function renderOverlay(canEdit: boolean) {
   render(
     <QueryClientProvider client={createQueryClient()}>
       <ToastProvider>
-        <WorkspaceProvider clip={clip} renewMedia={() => Promise.resolve(null)} canEdit={canEdit}>
+        <ClipStageProvider clip={clip} renewMedia={() => Promise.resolve(null)} readOnly={!canEdit}>
           <Readout />
           <PoseOverlay />
-        </WorkspaceProvider>
+        </ClipStageProvider>
       </ToastProvider>
     </QueryClientProvider>,
   );

@@ -5,7 +5,8 @@ import { http, HttpResponse } from 'msw';
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it, vi } from 'vitest';
 import type { Keypoint } from '@shared/keypoints';
 import { ToastProvider } from '@/components/ui/toast';
-import { useWorkspace, WorkspaceProvider } from '@/features/clip-workspace/components/workspace-context';
+import { ClipStageProvider } from '@/features/clip-workspace/components/stage/clip-stage';
+import { useStageProbe } from '../helpers/stage-probe';
 import { useFramePose } from '@/features/clip-workspace/hooks/use-frame-pose';
 import { configureApiClient } from '@/lib/api-client';
 import { createQueryClient } from '@/lib/react-query';
@@ -41,7 +42,7 @@ afterAll(() => {
 
 function Probe() {
   useFramePose();
-  const ws = useWorkspace();
+  const ws = useStageProbe();
   return (
     <div>
       <video ref={ws.setVideoElement} data-testid="video" />
@@ -61,9 +62,9 @@ async function renderReady() {
   render(
     <QueryClientProvider client={createQueryClient()}>
       <ToastProvider>
-        <WorkspaceProvider clip={clip} renewMedia={() => Promise.resolve(null)} canEdit>
+        <ClipStageProvider clip={clip} renewMedia={() => Promise.resolve(null)} readOnly={false}>
           <Probe />
-        </WorkspaceProvider>
+        </ClipStageProvider>
       </ToastProvider>
     </QueryClientProvider>,
   );

@@ -4,7 +4,7 @@ import { QueryClientProvider } from '@tanstack/react-query';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { ToastProvider } from '@/components/ui/toast';
 import { VideoStage } from '@/features/clip-workspace/components/stage/video-stage';
-import { WorkspaceProvider } from '@/features/clip-workspace/components/workspace-context';
+import { ClipStageProvider } from '@/features/clip-workspace/components/stage/clip-stage';
 import { createQueryClient } from '@/lib/react-query';
 import { clipFixture } from '../helpers/demo-data';
 
@@ -22,9 +22,9 @@ function renderStage(renewMedia: () => Promise<string | null>) {
   render(
     <QueryClientProvider client={createQueryClient()}>
       <ToastProvider>
-        <WorkspaceProvider clip={clip} renewMedia={renewMedia} canEdit>
+        <ClipStageProvider clip={clip} renewMedia={renewMedia} readOnly={false}>
           <VideoStage overlay={null} />
-        </WorkspaceProvider>
+        </ClipStageProvider>
       </ToastProvider>
     </QueryClientProvider>,
   );

@@ -5,7 +5,8 @@ import { http, HttpResponse } from 'msw';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import type { Keypoint, ReferenceLine } from '@shared/keypoints';
 import { ToastProvider } from '@/components/ui/toast';
-import { useWorkspace, WorkspaceProvider } from '@/features/clip-workspace/components/workspace-context';
+import { ClipStageProvider } from '@/features/clip-workspace/components/stage/clip-stage';
+import { useStageProbe } from '../helpers/stage-probe';
 import { useWorkspaceKeys } from '@/features/clip-workspace/hooks/use-workspace-keys';
 import { configureApiClient } from '@/lib/api-client';
 import { createQueryClient } from '@/lib/react-query';
@@ -32,7 +33,7 @@ const shoulders: Keypoint[] = [
 ];
 
 function Probe() {
-  const ws = useWorkspace();
+  const ws = useStageProbe();
   useWorkspaceKeys({ toggleHelp: () => undefined });
   return (
     <div>
@@ -86,9 +87,9 @@ function renderWorkspace() {
   return render(
     <QueryClientProvider client={createQueryClient()}>
       <ToastProvider>
-        <WorkspaceProvider clip={clip} renewMedia={() => Promise.resolve(null)} canEdit>
+        <ClipStageProvider clip={clip} renewMedia={() => Promise.resolve(null)} readOnly={false}>
           <Probe />
-        </WorkspaceProvider>
+        </ClipStageProvider>
       </ToastProvider>
     </QueryClientProvider>,
   );

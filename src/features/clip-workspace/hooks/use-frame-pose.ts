@@ -2,7 +2,8 @@ import { useEffect, useMemo, useRef, useState } from 'react';
 import { errorMessage } from '@/lib/api-client';
 import { getPoseClient } from '@/lib/pose-client';
 import { useClipFrames } from '../api/get-clip-frames';
-import { correctionKey, useWorkspace, type FrameKeypoints } from '../components/workspace-context';
+import { correctionKey, useAnalysis, type FrameKeypoints } from '../components/stage/analysis-context';
+import { useStage, useStageClock } from '../components/stage/stage-context';
 import { frameStartMs } from '../lib/frame-time';
 import { handPlacedPoints } from '../lib/point-correction';
 
@@ -12,9 +13,13 @@ import { handPlacedPoints } from '../lib/point-correction';
  * playback is paused. Live results are cached per model and frame, so stepping back costs nothing.
  */
 export function useFramePose() {
-  const ws = useWorkspace();
-  const { clip, currentFrame, playing, mediaReady, model, view, fps, videoRef, videoSize } = ws;
-  const { setFrameKeypoints, setPoseStatus, corrections } = ws;
+  const { clip, fps, videoRef, videoSize, clock } = useStage();
+  const { model, setFrameKeypoints, setPoseStatus, corrections } = useAnalysis();
+  const view = clip.view;
+  // This hook follows every frame; it runs in a leaf of the stage, so only that leaf re-renders.
+  const currentFrame = useStageClock((s) => s.frame);
+  const playing = useStageClock((s) => s.playing);
+  const mediaReady = useStageClock((s) => s.mediaReady);
   const stored = useClipFrames(clip.id, model);
   const storedByFrame = useMemo(() => {
     const map = new Map<number, FrameKeypoints>();
@@ -39,6 +44,22 @@ export function useFramePose() {
   const inFlight = useRef(false);
   const rerunWanted = useRef(false);
   const [rerun, setRerun] = useState(0);
+
+  // Known keypoints go in the moment the clock moves, in the same task as the new frame, so what shows
+  // the pose renders once per frame with it rather than once without and once with.
+  useEffect(
+    () =>
+      clock.subscribe(() => {
+        const frame = clock.get().frame;
+        const key = correctionKey(model, frame);
+        const known = corrections.get(key) ?? storedByFrame.get(frame) ?? liveCache.current.get(key);
+        if (known) {
+          setFrameKeypoints(known);
+          setPoseStatus({ state: 'idle' });
+        }
+      }),
+    [clock, model, corrections, storedByFrame, setFrameKeypoints, setPoseStatus],
+  );
 
   useEffect(() => {
     const key = correctionKey(model, currentFrame);

@@ -1,5 +1,6 @@
 import { useEffect } from 'react';
-import { PLAYBACK_RATES, useWorkspace } from '../components/workspace-context';
+import { useAnnotations } from '../components/stage/annotations-context';
+import { PLAYBACK_RATES, useStage } from '../components/stage/stage-context';
 import { commandForKey, JUMP_FRAMES } from '../lib/keyboard-map';
 
 import { ZOOM_STEP } from '../components/stage/zoom-controls';
@@ -15,7 +16,8 @@ function controlOwnsKey(target: EventTarget | null, key: string): boolean {
 
 /** Page-wide keys of the workspace (see lib/keyboard-map.ts). */
 export function useWorkspaceKeys(options: { toggleHelp(): void }) {
-  const ws = useWorkspace();
+  const stage = useStage();
+  const annotations = useAnnotations();
   const { toggleHelp } = options;
 
   useEffect(() => {
@@ -25,7 +27,10 @@ export function useWorkspaceKeys(options: { toggleHelp(): void }) {
       if (!command) return;
       // Space on a focused button would click it as well as toggle playback.
       event.preventDefault();
-      const rateIndex = PLAYBACK_RATES.indexOf(ws.playbackRate as (typeof PLAYBACK_RATES)[number]);
+      const ws = { ...stage, ...annotations };
+      const rateIndex = PLAYBACK_RATES.indexOf(
+        stage.clock.get().playbackRate as (typeof PLAYBACK_RATES)[number],
+      );
       switch (command) {
         case 'toggle-play':
           ws.togglePlay();
@@ -75,5 +80,5 @@ export function useWorkspaceKeys(options: { toggleHelp(): void }) {
     };
     window.addEventListener('keydown', onKey);
     return () => window.removeEventListener('keydown', onKey);
-  }, [ws, toggleHelp]);
+  }, [stage, annotations, toggleHelp]);
 }

@@ -1,5 +1,5 @@
 import type { KeypointName } from '@shared/keypoints';
-import type { FrameKeypoints } from '../components/workspace-context';
+import type { FrameKeypoints } from '../components/stage/analysis-context';
 
 /** A point the coach placed by hand is stored with full confidence; that is how it is recognised later. */
 export const CORRECTED_SCORE = 1;

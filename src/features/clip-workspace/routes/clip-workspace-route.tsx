@@ -14,15 +14,12 @@ import { useWorkspaceClip } from '../api/get-workspace-clip';
 import { AnalysisPanel } from '../components/analysis';
 import { CurvesPanel, TurnTable } from '../components/curves';
 import { ExportMenu } from '../components/export';
-import { DrawingLayer, NotesPanel } from '../components/notes';
+import { NotesPanel } from '../components/notes';
 import { OverlayToolbar } from '../components/overlays/overlay-toolbar';
-import { PoseOverlay } from '../components/overlays/pose-overlay';
 import { ScrubBar } from '../components/player/scrub-bar';
 import { ReadoutsPanel } from '../components/readouts/readouts-panel';
 import { TransportBar } from '../components/player/transport-bar';
-import { VideoStage } from '../components/stage/video-stage';
-import { WorkspaceProvider } from '../components/workspace-context';
-import { useFramePose } from '../hooks/use-frame-pose';
+import { ClipStageProvider, StageView } from '../components/stage/clip-stage';
 import { useWorkspaceKeys } from '../hooks/use-workspace-keys';
 
 export function ClipWorkspaceRoute() {
@@ -54,14 +51,14 @@ export function ClipWorkspaceRoute() {
           </p>
         </Notice>
       ) : (
-        <WorkspaceProvider
+        <ClipStageProvider
           key={clip.id}
           clip={clip}
           renewMedia={renewMedia}
-          canEdit={can(user.role, 'clips.analyse')}
+          readOnly={!can(user.role, 'clips.analyse')}
         >
           <Workspace />
-        </WorkspaceProvider>
+        </ClipStageProvider>
       )}
     </>
   );
@@ -109,16 +106,13 @@ function Workspace() {
   const [helpOpen, setHelpOpen] = useState(false);
   const toggleHelp = useCallback(() => setHelpOpen((open) => !open), []);
   useWorkspaceKeys({ toggleHelp });
-  useFramePose();
 
   return (
     <RenderProbe id="page">
       <div className="grid gap-6 xl:grid-cols-[minmax(0,1fr)_23rem]">
         <div className="min-w-0 space-y-3">
           <OverlayToolbar />
-          <VideoStage overlay={<PoseOverlay />} />
-          {/* Portals itself into the stage's overlay slot. */}
-          <DrawingLayer />
+          <StageView />
           <ScrubBar />
           <TransportBar helpOpen={helpOpen} onHelpOpenChange={setHelpOpen} extra={<ExportMenu />} />
           <AnalysisPanel />

@@ -6,7 +6,8 @@ import { ProgressBar } from '@/components/ui/progress-bar';
 import { formatDateTime } from '@/lib/format';
 import { clipExtras } from '../../api/clip-contract';
 import { useClipFrames } from '../../api/get-clip-frames';
-import { useWorkspace } from '../workspace-context';
+import { useAnalysis } from '../stage/analysis-context';
+import { useStage } from '../stage/stage-context';
 import {
   EVERY_NTH_CHOICES,
   formatRoughDuration,
@@ -22,16 +23,17 @@ const everyLabel = (n: number) =>
   n === 1 ? 'Every frame' : `Every ${n}${n === 2 ? 'nd' : n === 3 ? 'rd' : 'th'} frame`;
 
 export function AnalysisPanel() {
-  const ws = useWorkspace();
-  const stored = useClipFrames(ws.clip.id, ws.model);
+  const { clip, frameCount, canEdit } = useStage();
+  const { model } = useAnalysis();
+  const stored = useClipFrames(clip.id, model);
   const { run, start, cancel } = useWholeClipAnalysis();
   const [everyNth, setEveryNth] = useState(1);
   const selectId = useId();
 
   const busy = run.state === 'loading' || run.state === 'running' || run.state === 'cancelling';
-  const planned = framesToAnalyze(ws.frameCount, everyNth).length;
-  const measured = rememberedMsPerFrame(ws.model);
-  const estimate = formatRoughDuration(roughDurationMs(planned, ws.model, measured));
+  const planned = framesToAnalyze(frameCount, everyNth).length;
+  const measured = rememberedMsPerFrame(model);
+  const estimate = formatRoughDuration(roughDurationMs(planned, model, measured));
   const storedFrames = stored.data?.frames.length ?? 0;
   const lastStored = stored.data?.frames.length
     ? Math.max(...stored.data.frames.map((f) => f.frameIndex))
@@ -50,12 +52,12 @@ export function AnalysisPanel() {
           <StoredSummary
             loading={stored.isPending}
             storedFrames={storedFrames}
-            frameCount={ws.frameCount}
-            model={MODEL_NAMES[ws.model]}
+            frameCount={frameCount}
+            model={MODEL_NAMES[model]}
             lastFrame={lastStored}
           />
         </div>
-        <div className={ws.canEdit ? 'flex flex-wrap items-end gap-2' : 'hidden'}>
+        <div className={canEdit ? 'flex flex-wrap items-end gap-2' : 'hidden'}>
           <label htmlFor={selectId} className="text-sm text-granite-700">
             <span className="block text-xs font-medium text-granite-600">Frames to analyse</span>
             <select
@@ -72,7 +74,7 @@ export function AnalysisPanel() {
               ))}
             </select>
           </label>
-          {!ws.canEdit ? null : busy ? (
+          {!canEdit ? null : busy ? (
             <Button
               variant="secondary"
               size="sm"
@@ -94,18 +96,18 @@ export function AnalysisPanel() {
         </div>
       </div>
 
-      {!ws.canEdit && storedFrames === 0 && stored.isSuccess ? (
+      {!canEdit && storedFrames === 0 && stored.isSuccess ? (
         <p className="mt-3 text-sm text-granite-600">
           No whole-clip analysis yet. A coach of this athlete can run one; the curves and turns then appear
           below.
         </p>
       ) : null}
 
-      {ws.canEdit && !busy && storedFrames === 0 && run.state !== 'failed' && stored.isSuccess ? (
+      {canEdit && !busy && storedFrames === 0 && run.state !== 'failed' && stored.isSuccess ? (
         <p className="mt-3 text-sm text-granite-600">
           No whole-clip analysis yet. <strong className="font-medium">Analyze whole clip</strong> runs the{' '}
-          {MODEL_NAMES[ws.model]} model on {planned === ws.frameCount ? 'all' : planned} of the clip&rsquo;s{' '}
-          {ws.frameCount} frames on this computer, stores the points and draws the curves and turns below:{' '}
+          {MODEL_NAMES[model]} model on {planned === frameCount ? 'all' : planned} of the clip&rsquo;s{' '}
+          {frameCount} frames on this computer, stores the points and draws the curves and turns below:{' '}
           {estimate}
           {measured ? ' at the pace of the last run here' : ''}. You can cancel at any time and keep what is
           done.
@@ -133,8 +135,8 @@ function StoredSummary(props: {
   model: string;
   lastFrame: number | null;
 }) {
-  const ws = useWorkspace();
-  const info = clipExtras(ws.clip).analysis;
+  const { clip } = useStage();
+  const info = clipExtras(clip).analysis;
   if (props.loading) return <p className="text-sm text-granite-600">Looking for stored results…</p>;
   if (props.storedFrames === 0) return <p className="text-sm text-granite-600">Model: {props.model}</p>;
   return (

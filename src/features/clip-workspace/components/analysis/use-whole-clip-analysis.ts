@@ -2,7 +2,9 @@ import { useCallback, useEffect, useRef, useState } from 'react';
 import type { PoseModelName } from '@shared/keypoints';
 import { getPoseClient } from '@/lib/pose-client';
 import { useAnalysisUpload } from '../../api/post-clip-frames';
-import { useWorkspace } from '../workspace-context';
+import { useAnalysis } from '../stage/analysis-context';
+import { useAnnotations } from '../stage/annotations-context';
+import { useStage } from '../stage/stage-context';
 import { framesToAnalyze } from './analysis-plan';
 import { FrameGrabber } from './frame-grabber';
 import {
@@ -48,8 +50,10 @@ function describe(error: unknown): string {
 
 /** Whole-clip analysis of the workspace's clip with the workspace's model, view and snow line. */
 export function useWholeClipAnalysis() {
-  const ws = useWorkspace();
-  const upload = useAnalysisUpload(ws.clip.id);
+  const { clip, fps, frameCount, mediaSrc } = useStage();
+  const { model: chosenModel } = useAnalysis();
+  const { referenceLine } = useAnnotations();
+  const upload = useAnalysisUpload(clip.id);
   const [run, setRun] = useState<AnalysisRun>({ state: 'idle' });
   const controller = useRef<AbortController | null>(null);
 
@@ -61,15 +65,15 @@ export function useWholeClipAnalysis() {
       controller.current?.abort();
       const abort = new AbortController();
       controller.current = abort;
-      const model = ws.model;
+      const model = chosenModel;
       const plan = {
-        frames: framesToAnalyze(ws.frameCount, everyNth),
-        fps: ws.fps,
+        frames: framesToAnalyze(frameCount, everyNth),
+        fps: fps,
         model,
-        view: ws.view,
-        referenceLine: ws.referenceLine,
+        view: clip.view,
+        referenceLine: referenceLine,
       };
-      const grabber = new FrameGrabber(ws.mediaSrc, ws.fps);
+      const grabber = new FrameGrabber(mediaSrc, fps);
       const pose = getPoseClient();
       setRun({ state: 'loading', model });
       try {
@@ -115,7 +119,7 @@ export function useWholeClipAnalysis() {
         if (controller.current === abort) controller.current = null;
       }
     },
-    [upload, ws.mediaSrc, ws.fps, ws.frameCount, ws.model, ws.referenceLine, ws.view],
+    [upload, mediaSrc, fps, frameCount, chosenModel, referenceLine, clip.view],
   );
 
   const cancel = useCallback(() => {

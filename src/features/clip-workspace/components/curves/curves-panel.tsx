@@ -1,4 +1,4 @@
-import { useId, useMemo, useRef, useState, type MouseEvent } from 'react';
+import { useEffect, useId, useMemo, useRef, useState, type MouseEvent, type RefObject } from 'react';
 import {
   CartesianGrid,
   Legend,
@@ -22,7 +22,8 @@ import { cn } from '@/lib/format';
 import { useClipFrames } from '../../api/get-clip-frames';
 import { formatClipTime } from '../../lib/frame-time';
 import { formatMetricValue } from '../../lib/metric-format';
-import { useWorkspace } from '../workspace-context';
+import { useAnalysis } from '../stage/analysis-context';
+import { useStage, useStageClock } from '../stage/stage-context';
 import { CURSOR_COLOR, FLAG_COLOR, SERIES_STYLES, TURN_FILL, TURN_FILL_OPACITY } from './curve-colors';
 import {
   axisFor,
@@ -65,16 +66,23 @@ function metricValue(metric: string, value: number): string {
   return isMetricKey(metric) ? formatMetricValue(value, METRIC_DEFINITIONS[metric].unit) : value.toFixed(2);
 }
 
+/**
+ * The clip's curves. Nothing here reads the frame on screen: while the clip plays, the cursor moves by
+ * itself (FrameCursor) and the flag list re-renders only when the frame enters or leaves a flag.
+ */
 export function CurvesPanel() {
-  const ws = useWorkspace();
-  const query = useClipFrames(ws.clip.id, ws.model);
-  const available = useMemo(() => metricsForView(ws.view), [ws.view]);
+  const stage = useStage();
+  const { model, bands } = useAnalysis();
+  const { clip, fps, frameCount, seekToFrame } = stage;
+  const view = clip.view;
+  const query = useClipFrames(clip.id, model);
+  const available = useMemo(() => metricsForView(view), [view]);
   // A choice per view, so changing the clip's view shows that view's metrics.
   const [chosenByView, setChosenByView] = useState<Record<View, MetricKey[]>>(() => ({
     front: defaultChartMetrics('front'),
     side: defaultChartMetrics('side'),
   }));
-  const chosen = chosenByView[ws.view];
+  const chosen = chosenByView[view];
   const titleId = useId();
   const chartBox = useRef<HTMLDivElement | null>(null);
 
@@ -88,22 +96,21 @@ export function CurvesPanel() {
   const markers = useMemo(() => flagMarkers(flags, frames, chosen), [flags, frames, chosen]);
   // Flags closer than a quarter second read as one moment.
   const spans = useMemo(
-    () => flagSpans(flags, Math.max(frameStep(frames), Math.round(ws.fps * FLAG_MERGE_S))),
-    [flags, frames, ws.fps],
+    () => flagSpans(flags, Math.max(frameStep(frames), Math.round(fps * FLAG_MERGE_S))),
+    [flags, frames, fps],
   );
 
   const hasDeg = chosen.some((k) => METRIC_DEFINITIONS[k].unit === 'deg');
   const hasRatio = chosen.some((k) => METRIC_DEFINITIONS[k].unit !== 'deg');
-  const durationS = ws.frameCount / ws.fps;
-  const cursorS = ws.currentFrame / ws.fps;
+  const durationS = frameCount / fps;
 
   const toggle = (key: MetricKey) =>
     setChosenByView((all) => {
-      const list = all[ws.view];
+      const list = all[view];
       const next = list.includes(key)
         ? list.filter((k) => k !== key)
         : available.filter((k) => k === key || list.includes(k));
-      return { ...all, [ws.view]: next };
+      return { ...all, [view]: next };
     });
 
   return (
@@ -153,8 +160,8 @@ export function CurvesPanel() {
         </div>
       ) : (
         <>
-          <TurnLegend hasTurns={shades.length > 0} view={ws.view} />
-          <div className="mt-2 cursor-crosshair" data-testid="curves-chart" ref={chartBox}>
+          <TurnLegend hasTurns={shades.length > 0} view={view} />
+          <div className="relative mt-2 cursor-crosshair" data-testid="curves-chart" ref={chartBox}>
             <ResponsiveContainer width="100%" height={CHART_HEIGHT}>
               <LineChart
                 data={rows}
@@ -167,7 +174,7 @@ export function CurvesPanel() {
                     ? label
                     : timeAtPointer(event, chartBox.current, durationS);
                   const frame = t === null ? null : nearestFrame(rows, t);
-                  if (frame !== null) ws.seekToFrame(frame);
+                  if (frame !== null) seekToFrame(frame);
                 }}
               >
                 <CartesianGrid stroke="#eceef1" strokeDasharray="3 3" />
@@ -254,7 +261,6 @@ export function CurvesPanel() {
                     ifOverflow="extendDomain"
                   />
                 ))}
-                <ReferenceLine yAxisId="deg" x={cursorS} stroke={CURSOR_COLOR} strokeWidth={1.5} />
                 <Tooltip
                   isAnimationActive={false}
                   labelFormatter={(t) =>
@@ -274,14 +280,9 @@ export function CurvesPanel() {
                 <Legend wrapperStyle={{ fontSize: 12 }} />
               </LineChart>
             </ResponsiveContainer>
+            <FrameCursor box={chartBox} durationS={durationS} fps={fps} />
           </div>
-          <FlagList
-            spans={spans}
-            fps={ws.fps}
-            currentFrame={ws.currentFrame}
-            bandsCount={ws.bands.length}
-            onSeek={ws.seekToFrame}
-          />
+          <FlagList spans={spans} fps={fps} bandsCount={bands.length} onSeek={seekToFrame} />
         </>
       )}
     </section>
@@ -291,12 +292,15 @@ export function CurvesPanel() {
 interface FlagListProps {
   spans: FlagSpan[];
   fps: number;
-  currentFrame: number;
   bandsCount: number;
   onSeek(frameIndex: number): void;
 }
 
-function FlagList({ spans, fps, currentFrame, bandsCount, onSeek }: FlagListProps) {
+function FlagList({ spans, fps, bandsCount, onSeek }: FlagListProps) {
+  // The flag holding the frame on screen; the list re-renders only when that changes.
+  const activeKey = useStageClock(
+    (s) => spans.find((span) => s.frame >= span.firstFrame && s.frame <= span.lastFrame)?.key ?? null,
+  );
   if (spans.length === 0) {
     return (
       <p className="mt-2 text-sm text-spruce-700">
@@ -317,7 +321,7 @@ function FlagList({ spans, fps, currentFrame, bandsCount, onSeek }: FlagListProp
               onClick={() => onSeek(s.worstFrame)}
               className={cn(
                 'inline-flex items-center gap-1 rounded border border-alarm-500/40 bg-alarm-500/5 px-2 py-0.5 text-xs text-granite-800 hover:bg-alarm-500/10',
-                currentFrame >= s.firstFrame && currentFrame <= s.lastFrame && 'ring-2 ring-alarm-500/50',
+                s.key === activeKey && 'ring-2 ring-alarm-500/50',
               )}
             >
               <Flag aria-hidden="true" className="h-3 w-3 text-alarm-600" />
@@ -374,5 +378,62 @@ function TurnLegend({ hasTurns, view }: { hasTurns: boolean; view: 'front' | 'si
         <span aria-hidden="true" className="inline-block h-3 border-l-2 border-glacier-950" /> frame on screen
       </span>
     </p>
+  );
+}
+
+/**
+ * The frame-on-screen line over the chart, moved by a clock subscription that writes its position
+ * straight to the element: the chart itself never re-renders for it. The plot area is the chart's grid.
+ */
+interface FrameCursorProps {
+  box: RefObject<HTMLDivElement | null>;
+  durationS: number;
+  fps: number;
+}
+
+function FrameCursor({ box, durationS, fps }: FrameCursorProps) {
+  const { clock } = useStage();
+  const lineRef = useRef<HTMLDivElement | null>(null);
+
+  useEffect(() => {
+    let retry = 0;
+    let tries = 0;
+    const place = () => {
+      const line = lineRef.current;
+      const grid = box.current?.querySelector('.recharts-cartesian-grid');
+      const outer = box.current?.getBoundingClientRect();
+      if (!line || !outer || durationS <= 0) return;
+      // The chart draws its grid a moment after it mounts (it measures its box first).
+      if (!grid) {
+        if (tries++ < 120) retry = requestAnimationFrame(place);
+        return;
+      }
+      const plot = grid.getBoundingClientRect();
+      const f = Math.min(1, Math.max(0, clock.get().frame / fps / durationS));
+      line.style.left = `${plot.left - outer.left + f * plot.width}px`;
+      line.style.top = `${plot.top - outer.top}px`;
+      line.style.height = `${plot.height}px`;
+      line.style.visibility = 'visible';
+    };
+    place();
+    const stop = clock.subscribe(place);
+    // The plot area moves when the chart is resized or its axes change width.
+    const observer = new ResizeObserver(place);
+    if (box.current) observer.observe(box.current);
+    return () => {
+      stop();
+      observer.disconnect();
+      cancelAnimationFrame(retry);
+    };
+  }, [box, clock, durationS, fps]);
+
+  return (
+    <div
+      ref={lineRef}
+      data-testid="curves-cursor"
+      aria-hidden="true"
+      className="pointer-events-none absolute w-0 border-l-[1.5px]"
+      style={{ borderColor: CURSOR_COLOR, visibility: 'hidden' }}
+    />
   );
 }

@@ -6,7 +6,8 @@ import type { Turn } from '@shared/series';
 import { cn } from '@/lib/format';
 import { useClipFrames, type ClipFlagDto } from '../../api/get-clip-frames';
 import { formatMetricValue } from '../../lib/metric-format';
-import { useWorkspace } from '../workspace-context';
+import { useAnalysis } from '../stage/analysis-context';
+import { useStage, useStageClock } from '../stage/stage-context';
 
 /** Apex columns per view: what a coach compares turn to turn. */
 const APEX_METRICS: Record<View, MetricKey[]> = {
@@ -36,11 +37,16 @@ export function flagsInTurn(turn: Turn, flags: readonly ClipFlagDto[]): ClipFlag
 }
 
 export function TurnTable() {
-  const ws = useWorkspace();
-  const query = useClipFrames(ws.clip.id, ws.model);
+  const { clip, seekToFrame } = useStage();
+  const { model } = useAnalysis();
+  const query = useClipFrames(clip.id, model);
   const turns = useMemo(() => query.data?.series?.turns ?? [], [query.data]);
   const flags = useMemo(() => query.data?.flags ?? [], [query.data]);
-  const columns = APEX_METRICS[ws.view];
+  const columns = APEX_METRICS[clip.view];
+  // The turn holding the frame on screen: the table re-renders when the frame enters another turn.
+  const currentTurn = useStageClock(
+    (s) => turns.find((t) => s.frame >= t.startFrame && s.frame < t.endFrame)?.index ?? null,
+  );
 
   if (!query.data || query.data.frames.length === 0) return null;
 
@@ -51,7 +57,7 @@ export function TurnTable() {
       </h2>
       {turns.length === 0 ? (
         <p className="mt-1 text-sm text-granite-600">
-          {ws.view === 'side'
+          {clip.view === 'side'
             ? 'Turns are found from inclination, which a front view shows. This clip is filmed from the side.'
             : 'No turns were found: the inclination never swung past 3° to each side.'}
         </p>
@@ -100,7 +106,7 @@ export function TurnTable() {
             <tbody>
               {turns.map((turn) => {
                 const own = flagsInTurn(turn, flags);
-                const here = ws.currentFrame >= turn.startFrame && ws.currentFrame < turn.endFrame;
+                const here = turn.index === currentTurn;
                 const name = `${turn.direction === 'left' ? 'L' : 'R'}${turn.index + 1}`;
                 const riseFlag = own.find((f) => f.metric === 'transitionRise');
                 return (
@@ -114,7 +120,7 @@ export function TurnTable() {
                         type="button"
                         className="font-mono text-glacier-700 hover:underline"
                         aria-label={`Go to the apex of turn ${name}`}
-                        onClick={() => ws.seekToFrame(turn.apexFrame)}
+                        onClick={() => seekToFrame(turn.apexFrame)}
                       >
                         {name}
                       </button>

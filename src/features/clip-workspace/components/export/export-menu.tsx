@@ -6,13 +6,17 @@ import { errorMessage } from '@/lib/api-client';
 import { useExportNotesVtt } from '../../api/export-notes-vtt';
 import { formatClipTime } from '../../lib/frame-time';
 import { useFrameDrawings } from '../notes/use-frame-drawings';
-import { useWorkspace } from '../workspace-context';
+import { useDrawOverlaysOn } from '../overlays/use-draw-overlays-on';
+import { useStage, useStageFrame } from '../stage/stage-context';
 import { canvasToPng, composeStill } from './compose-still';
 import { saveBlob, stillFileName } from './save-file';
 
 /** Still image of the frame with overlays and drawings, and the notes as WebVTT captions. */
 export function ExportMenu() {
-  const ws = useWorkspace();
+  const ws = useStage();
+  const drawOverlaysOn = useDrawOverlaysOn();
+  // The menu names the frame a still would show.
+  const currentFrame = useStageFrame();
   const toast = useToast();
   const { saved, draft } = useFrameDrawings();
   const vtt = useExportNotesVtt(ws.clip.id, saveBlob);
@@ -45,13 +49,13 @@ export function ExportMenu() {
     try {
       const canvas = composeStill({
         video,
-        drawOverlays: (ctx, scale) => ws.drawOverlaysOn(ctx, (p) => p, scale),
+        drawOverlays: (ctx, scale) => drawOverlaysOn(ctx, (p) => p, scale),
         drawings: draft ? [...saved, draft] : saved,
-        caption: `${ws.clip.originalName} · frame ${ws.currentFrame} · ${formatClipTime(
-          (ws.currentFrame / ws.fps) * 1000,
+        caption: `${ws.clip.originalName} · frame ${currentFrame} · ${formatClipTime(
+          (currentFrame / ws.fps) * 1000,
         )} · Stanceline, 2D estimate`,
       });
-      saveBlob(await canvasToPng(canvas), stillFileName(ws.clip.originalName, ws.currentFrame));
+      saveBlob(await canvasToPng(canvas), stillFileName(ws.clip.originalName, currentFrame));
     } catch (error) {
       toast.error(`The still was not saved: ${errorMessage(error)}`);
     } finally {
@@ -98,7 +102,7 @@ export function ExportMenu() {
             <span>
               Still image (PNG)
               <span className="block text-xs text-granite-600">
-                Frame {ws.currentFrame} at full size with overlays and drawings
+                Frame {currentFrame} at full size with overlays and drawings
               </span>
             </span>
           </button>

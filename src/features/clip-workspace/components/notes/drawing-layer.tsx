@@ -1,6 +1,7 @@
 import { useEffect, useRef, type PointerEvent as ReactPointerEvent } from 'react';
 import { createPortal } from 'react-dom';
-import { useWorkspace } from '../workspace-context';
+import { useAnnotations } from '../stage/annotations-context';
+import { useStage, useStageFrame } from '../stage/stage-context';
 import { drawDrawing } from './draw-drawing';
 import { drawingDraft, useDrawingDraft, type DraftElement } from './drawing-draft';
 import { manualAngleDegrees, type Drawing, type VideoPoint } from './drawing-geometry';
@@ -30,11 +31,13 @@ function activeAsDrawing(active: DraftElement | null, color: string): Drawing | 
  * show on their frame; while drawing mode is on, the pointer draws the draft note's drawing.
  */
 export function DrawingLayer() {
-  const ws = useWorkspace();
+  const ws = useStage();
+  const { drawingActive } = useAnnotations();
+  const currentFrame = useStageFrame();
   const draft = useDrawingDraft();
   const { saved, draft: draftDrawing } = useFrameDrawings();
   const canvasRef = useRef<HTMLCanvasElement | null>(null);
-  const { stageSize, videoToStage, stageToVideo, drawingActive, currentFrame } = ws;
+  const { stageSize, videoToStage, stageToVideo } = ws;
 
   useEffect(() => {
     if (drawingDraft.get().clipId !== ws.clip.id) drawingDraft.reset(ws.clip.id);

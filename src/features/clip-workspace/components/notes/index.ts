@@ -1,2 +1,1 @@
 export { NotesPanel } from './notes-panel';
-export { DrawingLayer } from './drawing-layer';

@@ -13,17 +13,17 @@ import { useDeleteNote } from '../../api/delete-note';
 import { useClipNotes, type NoteDto } from '../../api/get-clip-notes';
 import { useUpdateNote } from '../../api/update-note';
 import { formatClipTime, frameStartMs } from '../../lib/frame-time';
-import { useWorkspace } from '../workspace-context';
+import { useAnnotations } from '../stage/annotations-context';
+import { useStage, useStageClock } from '../stage/stage-context';
 import { drawingDraft, useDrawingDraft } from './drawing-draft';
 import { noteFrame } from './note-frame';
 import { isDrawingEmpty } from './drawing-geometry';
 import { DrawingTools } from './drawing-tools';
 
 export function NotesPanel() {
-  const ws = useWorkspace();
+  const { clip, canEdit: canWrite } = useStage();
   const user = useUser();
-  const notes = useClipNotes(ws.clip.id);
-  const canWrite = ws.canEdit;
+  const notes = useClipNotes(clip.id);
   const list = notes.data ?? [];
 
   return (
@@ -59,14 +59,14 @@ export function NotesPanel() {
 }
 
 function NoteComposer() {
-  const ws = useWorkspace();
+  const { clip, fps, clock, pause, seekToFrame } = useStage();
+  const { drawingActive, setDrawingActive } = useAnnotations();
   const toast = useToast();
-  const create = useCreateNote(ws.clip.id);
+  const create = useCreateNote(clip.id);
   const draft = useDrawingDraft();
   const [text, setText] = useState('');
   const [problem, setProblem] = useState<string | null>(null);
   const textId = useId();
-  const { drawingActive, setDrawingActive, clip } = ws;
 
   useEffect(() => {
     if (draft.clipId !== clip.id) drawingDraft.reset(clip.id);
@@ -74,15 +74,20 @@ function NoteComposer() {
   // Leaving the page ends drawing mode so the overlay takes the pointer again.
   useEffect(() => () => setDrawingActive(false), [setDrawingActive]);
 
+  // While the clip plays, the note goes to the frame where it stops: the label waits for a pause
+  // instead of re-rendering the panel on every frame.
+  const pausedFrame = useStageClock((s) => (s.playing ? null : s.frame));
+  const onDraftFrame = useStageClock((s) => s.frame === draft.frameIndex);
   const hasDrawing = !isDrawingEmpty(draft.drawing);
-  const frame = hasDrawing && draft.frameIndex !== null ? draft.frameIndex : ws.currentFrame;
-  const offFrame = hasDrawing && draft.frameIndex !== null && draft.frameIndex !== ws.currentFrame;
+  const shownFrame = hasDrawing && draft.frameIndex !== null ? draft.frameIndex : pausedFrame;
+  const offFrame = hasDrawing && draft.frameIndex !== null && !onDraftFrame;
 
   const submit = (event: FormEvent) => {
     event.preventDefault();
+    const frame = shownFrame ?? clock.get().frame;
     const parsed = createNoteSchema.safeParse({
       frameIndex: frame,
-      timeMs: Math.round(frameStartMs(frame, ws.fps) * 1000) / 1000,
+      timeMs: Math.round(frameStartMs(frame, fps) * 1000) / 1000,
       text,
       ...(hasDrawing ? { drawing: draft.drawing } : {}),
     });
@@ -96,7 +101,7 @@ function NoteComposer() {
         setText('');
         drawingDraft.reset(clip.id);
         setDrawingActive(false);
-        toast.success(`Note added at ${formatClipTime(frameStartMs(frame, ws.fps))}.`);
+        toast.success(`Note added at ${formatClipTime(frameStartMs(frame, fps))}.`);
       },
       // The text and drawing stay in the form, so nothing is lost on a failed save.
       onError: (error) => setProblem(`The note was not saved: ${errorMessage(error)}`),
@@ -111,7 +116,9 @@ function NoteComposer() {
       >
         Note text
         <span className="font-mono text-xs font-normal text-granite-600 tabular-nums">
-          at {formatClipTime(frameStartMs(frame, ws.fps))} · frame {frame}
+          {shownFrame === null
+            ? 'at the frame where you pause'
+            : `at ${formatClipTime(frameStartMs(shownFrame, fps))} · frame ${shownFrame}`}
         </span>
       </label>
       <textarea
@@ -130,7 +137,7 @@ function NoteComposer() {
           aria-pressed={drawingActive}
           icon={<PenTool aria-hidden="true" className="h-4 w-4" />}
           onClick={() => {
-            if (!drawingActive) ws.pause();
+            if (!drawingActive) pause();
             setDrawingActive(!drawingActive);
           }}
         >
@@ -148,7 +155,7 @@ function NoteComposer() {
       {offFrame ? (
         <p className="flex flex-wrap items-center gap-2 rounded-md bg-signal-400/15 px-2 py-1.5 text-xs text-granite-800">
           The drawing belongs to frame {draft.frameIndex}; the note will be pinned there.
-          <Button variant="quiet" size="sm" onClick={() => ws.seekToFrame(draft.frameIndex ?? 0)}>
+          <Button variant="quiet" size="sm" onClick={() => seekToFrame(draft.frameIndex ?? 0)}>
             Go to frame {draft.frameIndex}
           </Button>
         </p>
@@ -164,16 +171,17 @@ function NoteComposer() {
 }
 
 function NoteItem({ note, own }: { note: NoteDto; own: boolean }) {
-  const ws = useWorkspace();
+  const { clip, fps, frameCount, seekToFrame } = useStage();
   const toast = useToast();
-  const update = useUpdateNote(ws.clip.id);
-  const remove = useDeleteNote(ws.clip.id);
+  const update = useUpdateNote(clip.id);
+  const remove = useDeleteNote(clip.id);
   const [editing, setEditing] = useState(false);
   const [confirming, setConfirming] = useState(false);
   const [text, setText] = useState(note.text);
   const [problem, setProblem] = useState<string | null>(null);
-  const frame = noteFrame(note, ws.fps, ws.frameCount);
-  const here = ws.currentFrame === frame;
+  const frame = noteFrame(note, fps, frameCount);
+  // Flips when the clip reaches or leaves the note's frame, not on every frame in between.
+  const here = useStageClock((s) => s.frame === frame);
   const drawn = !isDrawingEmpty(note.drawing);
 
   const save = () => {
@@ -204,7 +212,7 @@ function NoteItem({ note, own }: { note: NoteDto; own: boolean }) {
     >
       <button
         type="button"
-        onClick={() => ws.seekToFrame(frame)}
+        onClick={() => seekToFrame(frame)}
         className="block w-full text-left"
         aria-label={`Go to ${formatClipTime(note.timeMs)}, frame ${frame}: ${note.text}`}
       >

@@ -14,7 +14,8 @@ import { checkMetricBands, formatMetricValue } from '../../lib/metric-format';
 import { arcBetween, lineAcrossRect, snowLineAxes, unit, widthBar } from '../../lib/overlay-geometry';
 import type { Point, Size } from '../../lib/stage-transform';
 import type { ToleranceBand } from '@shared/tolerance';
-import type { OverlayToggles, PoseFrameResult } from '../workspace-context';
+import type { PoseFrameResult } from '../stage/analysis-context';
+import type { OverlayToggles } from '../stage/annotations-context';
 
 // Readable on snow: every stroke gets a dark casing first, then a saturated colour.
 export const OVERLAY_COLORS = {

@@ -1,5 +1,6 @@
 import { cn } from '@/lib/format';
-import { useWorkspace, type OverlayKey } from '../workspace-context';
+import { useAnnotations, useFrameHasOwnLine, type OverlayKey } from '../stage/annotations-context';
+import { useStage } from '../stage/stage-context';
 
 const TOGGLES: { key: OverlayKey; label: string; front?: boolean }[] = [
   { key: 'skeleton', label: 'Skeleton' },
@@ -10,21 +11,19 @@ const TOGGLES: { key: OverlayKey; label: string; front?: boolean }[] = [
 
 /** Overlay switches and the snow line tool, above the stage. */
 export function OverlayToolbar() {
+  const { clip, canEdit, clock } = useStage();
+  const view = clip.view;
   const {
     overlays,
     setOverlay,
-    view,
     snowLineEditing,
     setSnowLineEditing,
     referenceLine,
     setReferenceLine,
-    canEdit,
-    currentFrame,
-    frameReferenceLines,
     setFrameReferenceLine,
     setSnowLineScope,
-  } = useWorkspace();
-  const ownLine = frameReferenceLines.has(currentFrame);
+  } = useAnnotations();
+  const ownLine = useFrameHasOwnLine();
 
   return (
     <div className="flex flex-wrap items-center gap-x-4 gap-y-2">
@@ -76,7 +75,7 @@ export function OverlayToolbar() {
             <button
               type="button"
               onClick={() => {
-                setFrameReferenceLine(currentFrame, null);
+                setFrameReferenceLine(clock.get().frame, null);
                 setSnowLineScope('clip');
               }}
               className="h-8 rounded-md px-2 text-sm text-glacier-700 hover:bg-glacier-50"

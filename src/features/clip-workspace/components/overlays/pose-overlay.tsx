@@ -7,7 +7,14 @@ import { usePutClipFrame } from '../../api/put-clip-frame';
 import { movePoint } from '../../lib/point-correction';
 import { nearestPoint } from '../../lib/overlay-geometry';
 import type { Point } from '../../lib/stage-transform';
-import { useWorkspace, type FrameKeypoints } from '../workspace-context';
+import {
+  useAnalysis,
+  useCurrentPose,
+  useFramePoseState,
+  type FrameKeypoints,
+} from '../stage/analysis-context';
+import { useAnnotations, useEffectiveReferenceLine, useFrameHasOwnLine } from '../stage/annotations-context';
+import { useStage, useStageClock } from '../stage/stage-context';
 import { defaultSnowLine, drawOverlays } from './draw-overlays';
 
 /** How close (CSS pixels) the pointer must come to grab a keypoint or a handle. */
@@ -23,24 +30,19 @@ type Drag =
  * pointer for three jobs: dragging a snow-line handle, dragging a misplaced keypoint, panning.
  */
 export function PoseOverlay() {
-  const ws = useWorkspace();
-  const {
-    currentPose,
-    frameKeypoints,
-    stageSize,
-    videoSize,
-    videoToStage,
-    stageToVideo,
-    overlays,
-    view,
-    bands,
-    effectiveReferenceLine,
-    snowLineEditing,
-    playing,
-    drawingActive,
-  } = ws;
+  // The overlay shows the frame, so it follows the frame; the page around it does not.
+  const stage = useStage();
+  const annotations = useAnnotations();
+  const { bands, applyCorrection } = useAnalysis();
+  const currentPose = useCurrentPose();
+  const { frameKeypoints } = useFramePoseState();
+  const effectiveReferenceLine = useEffectiveReferenceLine();
+  const playing = useStageClock((s) => s.playing);
+  const { stageSize, videoSize, videoToStage, stageToVideo, canEdit, clock } = stage;
+  const view = stage.clip.view;
+  const { overlays, snowLineEditing, drawingActive } = annotations;
   const toast = useToast();
-  const putFrame = usePutClipFrame(ws.clip.id);
+  const putFrame = usePutClipFrame(stage.clip.id);
   const canvasRef = useRef<HTMLCanvasElement | null>(null);
   const [drag, setDrag] = useState<Drag | null>(null);
   const [hover, setHover] = useState<'point' | 'handle' | null>(null);
@@ -48,7 +50,7 @@ export function PoseOverlay() {
   const [draftLine, setDraftLine] = useState<ReferenceLine | null>(null);
 
   const shownLine = draftLine ?? effectiveReferenceLine;
-  const ownFrameLine = ws.frameReferenceLines.has(ws.currentFrame);
+  const ownFrameLine = useFrameHasOwnLine();
 
   useEffect(() => {
     const canvas = canvasRef.current;
@@ -101,7 +103,7 @@ export function PoseOverlay() {
 
   const pointHit = (at: Point): KeypointName | null => {
     // Points move only on a still frame that has been measured.
-    if (!ws.canEdit || playing || !currentPose || currentPose.keypoints.length === 0) return null;
+    if (!canEdit || playing || !currentPose || currentPose.keypoints.length === 0) return null;
     const keypoints = currentPose.keypoints;
     const index = nearestPoint(
       keypoints.map((k) => videoToStage([k.x, k.y])),
@@ -135,7 +137,7 @@ export function PoseOverlay() {
       event.currentTarget.setPointerCapture(event.pointerId);
       return;
     }
-    if (ws.viewTransform.zoom > 1) {
+    if (stage.viewTransform.zoom > 1) {
       setDrag({ kind: 'pan', last: at });
       event.currentTarget.setPointerCapture(event.pointerId);
     }
@@ -151,18 +153,19 @@ export function PoseOverlay() {
       return;
     }
     if (drag.kind === 'pan') {
-      ws.panBy(at[0] - drag.last[0], at[1] - drag.last[1]);
+      stage.panBy(at[0] - drag.last[0], at[1] - drag.last[1]);
       setDrag({ kind: 'pan', last: at });
     } else if (drag.kind === 'handle') {
       const line = draftLine ?? defaultSnowLine(videoSize);
       const moved = clampToVideo(stageToVideo(at));
       const next: ReferenceLine = drag.index === 0 ? [moved, line[1]] : [line[0], moved];
       setDraftLine(next);
-      if (Math.hypot(next[0][0] - next[1][0], next[0][1] - next[1][1]) >= 4) ws.previewReferenceLine(next);
+      if (Math.hypot(next[0][0] - next[1][0], next[0][1] - next[1][1]) >= 4)
+        annotations.previewReferenceLine(next);
     } else if (frameKeypoints) {
       const [x, y] = clampToVideo(stageToVideo(at));
       // Metrics follow the point at once: currentPose recomputes from these keypoints.
-      ws.applyCorrection(movePoint(frameKeypoints, drag.name, [x, y]));
+      applyCorrection(movePoint(frameKeypoints, drag.name, [x, y]));
     }
   };
 
@@ -176,10 +179,11 @@ export function PoseOverlay() {
       if (Math.hypot(a[0] - b[0], a[1] - b[1]) < 4) {
         toast.error('The two snow-line handles are on top of each other; drag them apart.');
       } else {
-        if (ws.snowLineScope === 'frame') ws.setFrameReferenceLine(ws.currentFrame, draftLine);
-        else ws.setReferenceLine(draftLine);
+        if (annotations.snowLineScope === 'frame')
+          annotations.setFrameReferenceLine(clock.get().frame, draftLine);
+        else annotations.setReferenceLine(draftLine);
       }
-      ws.previewReferenceLine(null);
+      annotations.previewReferenceLine(null);
       setDraftLine(null);
     } else if (drag.kind === 'point' && frameKeypoints && frameKeypoints !== drag.start) {
       const saved = frameKeypoints;
@@ -202,7 +206,7 @@ export function PoseOverlay() {
         ? 'cursor-grabbing'
         : hover
           ? 'cursor-grab'
-          : ws.viewTransform.zoom > 1
+          : stage.viewTransform.zoom > 1
             ? 'cursor-move'
             : 'cursor-default';
 

@@ -1,7 +1,7 @@
 import { useEffect, useRef } from 'react';
 import { Keyboard } from 'lucide-react';
 import { KEY_BINDINGS } from '../../lib/keyboard-map';
-import { useWorkspace } from '../workspace-context';
+import { useStage } from '../stage/stage-context';
 
 interface KeyboardHelpProps {
   open: boolean;
@@ -10,7 +10,7 @@ interface KeyboardHelpProps {
 
 /** The key list in a popover beside the transport controls. */
 export function KeyboardHelp({ open, onOpenChange }: KeyboardHelpProps) {
-  const { canEdit } = useWorkspace();
+  const { canEdit } = useStage();
   const boxRef = useRef<HTMLDivElement | null>(null);
 
   useEffect(() => {

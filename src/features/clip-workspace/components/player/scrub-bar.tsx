@@ -2,13 +2,17 @@ import { useEffect, useRef, useState } from 'react';
 import { clipExtras } from '../../api/clip-contract';
 import { formatClipTime, frameStartMs } from '../../lib/frame-time';
 import { stripSlots, tileForTime } from '../../lib/thumbnail-strip';
-import { useWorkspace } from '../workspace-context';
+import { useAnnotations } from '../stage/annotations-context';
+import { useStage, useStageFrame } from '../stage/stage-context';
 
 const BAR_HEIGHT = 44;
 
 /** A frame slider laid over the clip's thumbnail strip; hovering previews the frame under the pointer. */
 export function ScrubBar() {
-  const { clip, fps, frameCount, currentFrame, seekToFrame, frameReferenceLines } = useWorkspace();
+  const { clip, fps, frameCount, seekToFrame } = useStage();
+  const { frameReferenceLines } = useAnnotations();
+  // The slider shows the frame on screen, so it follows every frame.
+  const currentFrame = useStageFrame();
   const strip = clipExtras(clip).thumbnails ?? null;
   const barRef = useRef<HTMLDivElement | null>(null);
   const [barWidth, setBarWidth] = useState(0);
@@ -122,7 +126,7 @@ function HoverPreview({
   frame: number;
   timeMs: number;
 }) {
-  const { clip } = useWorkspace();
+  const { clip } = useStage();
   const strip = clipExtras(clip).thumbnails;
   if (!strip) return null;
   const width = 160;

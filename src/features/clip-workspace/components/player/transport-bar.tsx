@@ -2,7 +2,7 @@ import type { ReactNode } from 'react';
 import { ChevronLeft, ChevronRight, Pause, Play } from 'lucide-react';
 import { cn } from '@/lib/format';
 import { formatClipTime, frameStartMs } from '../../lib/frame-time';
-import { PLAYBACK_RATES, useWorkspace } from '../workspace-context';
+import { PLAYBACK_RATES, useStage, useStageClock, useStageFrame } from '../stage/stage-context';
 import { KeyboardHelp } from './keyboard-help';
 
 function IconButton({
@@ -46,13 +46,17 @@ interface TransportBarProps {
 
 /** Play/pause, exact frame steps, speed, the frame clock and zoom. */
 export function TransportBar({ helpOpen, onHelpOpenChange, extra }: TransportBarProps) {
-  const ws = useWorkspace();
-  const { currentFrame, frameCount, fps, playing } = ws;
+  const ws = useStage();
+  const { frameCount } = ws;
+  const playing = useStageClock((s) => s.playing);
+  const playbackRate = useStageClock((s) => s.playbackRate);
+  const atStart = useStageClock((s) => s.frame <= 0);
+  const atEnd = useStageClock((s) => s.frame >= frameCount - 1);
 
   return (
     <div className="flex flex-wrap items-center gap-x-4 gap-y-2">
       <div className="flex items-center gap-1.5">
-        <IconButton label="Previous frame" onClick={() => ws.stepFrames(-1)} disabled={currentFrame <= 0}>
+        <IconButton label="Previous frame" onClick={() => ws.stepFrames(-1)} disabled={atStart}>
           <ChevronLeft aria-hidden="true" className="h-5 w-5" />
         </IconButton>
         {playing ? (
@@ -64,11 +68,7 @@ export function TransportBar({ helpOpen, onHelpOpenChange, extra }: TransportBar
             <Play aria-hidden="true" className="h-5 w-5" />
           </IconButton>
         )}
-        <IconButton
-          label="Next frame"
-          onClick={() => ws.stepFrames(1)}
-          disabled={currentFrame >= frameCount - 1}
-        >
+        <IconButton label="Next frame" onClick={() => ws.stepFrames(1)} disabled={atEnd}>
           <ChevronRight aria-hidden="true" className="h-5 w-5" />
         </IconButton>
       </div>
@@ -82,11 +82,11 @@ export function TransportBar({ helpOpen, onHelpOpenChange, extra }: TransportBar
           <button
             key={rate}
             type="button"
-            aria-pressed={ws.playbackRate === rate}
+            aria-pressed={playbackRate === rate}
             onClick={() => ws.setPlaybackRate(rate)}
             className={cn(
               'rounded px-2 py-1 font-mono text-xs tabular-nums',
-              ws.playbackRate === rate ? 'bg-glacier-700 text-white' : 'text-granite-600 hover:bg-glacier-50',
+              playbackRate === rate ? 'bg-glacier-700 text-white' : 'text-granite-600 hover:bg-glacier-50',
             )}
           >
             {rate}×
@@ -94,19 +94,28 @@ export function TransportBar({ helpOpen, onHelpOpenChange, extra }: TransportBar
         ))}
       </div>
 
-      <p className="font-mono text-sm text-granite-800 tabular-nums" aria-live="off">
-        <span className="text-granite-400">frame </span>
-        <span data-testid="current-frame">{currentFrame}</span>
-        <span className="text-granite-400"> / {frameCount - 1}</span>
-        <span className="mx-2 text-granite-200">|</span>
-        <span data-testid="current-time">{formatClipTime(frameStartMs(currentFrame, fps))}</span>
-        <span className="ml-2 text-xs text-granite-400">{Number(fps.toFixed(3))} fps</span>
-      </p>
+      <FrameClock />
 
       <div className="ml-auto flex items-center gap-1.5">
         <KeyboardHelp open={helpOpen} onOpenChange={onHelpOpenChange} />
         {extra}
       </div>
     </div>
+  );
+}
+
+/** Frame number and clip time of the frame on screen: the one part of the bar that changes per frame. */
+function FrameClock() {
+  const { frameCount, fps } = useStage();
+  const currentFrame = useStageFrame();
+  return (
+    <p className="font-mono text-sm text-granite-800 tabular-nums" aria-live="off">
+      <span className="text-granite-400">frame </span>
+      <span data-testid="current-frame">{currentFrame}</span>
+      <span className="text-granite-400"> / {frameCount - 1}</span>
+      <span className="mx-2 text-granite-200">|</span>
+      <span data-testid="current-time">{formatClipTime(frameStartMs(currentFrame, fps))}</span>
+      <span className="ml-2 text-xs text-granite-400">{Number(fps.toFixed(3))} fps</span>
+    </p>
   );
 }

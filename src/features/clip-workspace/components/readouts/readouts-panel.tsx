@@ -10,7 +10,15 @@ import {
   formatBandRange,
   formatMetricValue,
 } from '../../lib/metric-format';
-import { useWorkspace, type PoseFrameResult, type PoseStatus } from '../workspace-context';
+import {
+  useAnalysis,
+  useCurrentPose,
+  useFramePoseState,
+  type PoseFrameResult,
+  type PoseStatus,
+} from '../stage/analysis-context';
+import { useAnnotations, useFrameHasOwnLine } from '../stage/annotations-context';
+import { useStage } from '../stage/stage-context';
 
 const MODEL_SHORT: Record<PoseModelName, string> = {
   lightning: 'Lightning (fast)',
@@ -50,8 +58,8 @@ function StatusLine({ pose, status }: { pose: PoseFrameResult | null; status: Po
 
 /** Which snow line the tilts and leans are measured against on this frame. */
 function LineInForce() {
-  const { frameReferenceLines, currentFrame, referenceLine } = useWorkspace();
-  const text = frameReferenceLines.has(currentFrame)
+  const { referenceLine } = useAnnotations();
+  const text = useFrameHasOwnLine()
     ? 'this frame’s own snow line'
     : referenceLine
       ? 'the clip’s snow line'
@@ -60,7 +68,8 @@ function LineInForce() {
 }
 
 function MetricRow({ definition, pose }: { definition: MetricDefinition; pose: PoseFrameResult | null }) {
-  const { bands, clip } = useWorkspace();
+  const { bands } = useAnalysis();
+  const { clip } = useStage();
   const value = pose?.metrics[definition.key] ?? null;
   const confidence = pose?.confidence[definition.key];
   const check = value === null ? null : checkMetricBands(definition.key, value, bands);
@@ -121,7 +130,10 @@ function MetricRow({ definition, pose }: { definition: MetricDefinition; pose: P
 
 /** Every metric of the clip's view for the frame on screen, with units, confidence and band marks. */
 export function ReadoutsPanel() {
-  const { view, currentPose, poseStatus, model, setModel } = useWorkspace();
+  const { view } = useStage().clip;
+  const { model, setModel } = useAnalysis();
+  const currentPose = useCurrentPose();
+  const { poseStatus } = useFramePoseState();
   const definitions = METRIC_KEYS.map((key) => METRIC_DEFINITIONS[key]).filter((d) => d.views.includes(view));
 
   return (

@@ -1,9 +1,12 @@
 import { cn } from '@/lib/format';
-import { useWorkspace } from '../workspace-context';
+import { useAnnotations } from './annotations-context';
+import { useStage, useStageFrame } from './stage-context';
 
 /** Across the top of the stage while the snow line is edited: what to do, and what the line is for. */
 export function SnowLineBanner() {
-  const { view, currentFrame, snowLineScope, setSnowLineScope } = useWorkspace();
+  const { view } = useStage().clip;
+  const currentFrame = useStageFrame();
+  const { snowLineScope, setSnowLineScope } = useAnnotations();
   return (
     <div className="pointer-events-none absolute inset-x-0 top-0 flex flex-wrap items-center gap-x-3 gap-y-1 bg-glacier-950/75 px-3 py-1.5 text-xs text-white">
       <p className="min-w-0 flex-1">

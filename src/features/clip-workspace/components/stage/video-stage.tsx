@@ -5,7 +5,8 @@ import { cn } from '@/lib/format';
 import { cssTransform } from '../../lib/stage-transform';
 import { SnowLineBanner } from './snow-line-banner';
 import { ZoomControls } from './zoom-controls';
-import { useWorkspace } from '../workspace-context';
+import { useAnnotations } from './annotations-context';
+import { useStage } from './stage-context';
 
 // MediaError codes (HTML standard), spelled out so the stage does not need the MediaError global.
 const MEDIA_ERR_NETWORK = 2;
@@ -31,7 +32,8 @@ const WHEEL_ZOOM_STEP = 1.15;
  * and the drawing slot on top in the untransformed box (they draw through videoToStage).
  */
 export function VideoStage({ overlay }: { overlay: ReactNode }) {
-  const ws = useWorkspace();
+  const ws = useStage();
+  const { snowLineEditing, drawingActive } = useAnnotations();
   const { clip, videoSize, setStageElement, setVideoElement, zoomAt, viewTransform, renewMedia } = ws;
   const boxRef = useRef<HTMLDivElement | null>(null);
   const renewed = useRef(false);
@@ -98,12 +100,12 @@ export function VideoStage({ overlay }: { overlay: ReactNode }) {
           onError={(event) => void handleError(event.currentTarget)}
         />
         {overlay}
-        {ws.snowLineEditing ? <SnowLineBanner /> : null}
+        {snowLineEditing ? <SnowLineBanner /> : null}
         <ZoomControls />
         <div
           ref={ws.setStageOverlaySlot}
           data-testid="stage-overlay-slot"
-          className={cn('absolute inset-0', !ws.drawingActive && 'pointer-events-none')}
+          className={cn('absolute inset-0', !drawingActive && 'pointer-events-none')}
         />
       </div>
       {mediaError ? (

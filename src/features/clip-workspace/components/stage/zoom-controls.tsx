@@ -1,6 +1,6 @@
 import type { ReactNode } from 'react';
 import { Maximize, Minus, Plus } from 'lucide-react';
-import { useWorkspace } from '../workspace-context';
+import { useStage } from './stage-context';
 
 export const ZOOM_STEP = 1.25;
 
@@ -31,7 +31,7 @@ function ZoomButton({
 
 /** Zoom buttons floating in the stage's corner, out of the way of the skier. */
 export function ZoomControls() {
-  const { viewTransform, zoomAt, resetZoom } = useWorkspace();
+  const { viewTransform, zoomAt, resetZoom } = useStage();
   return (
     <div
       role="group"
