@@ -29,7 +29,8 @@ import { AccessService } from './services/access.service';
 import { AthleteService } from './services/athlete.service';
 import { AuditService } from './services/audit.service';
 import { AuthService } from './services/auth.service';
-import { ClipAnalysisService, FrameStore } from './services/clip-analysis.service';
+import { ClipAnalysisService } from './services/clip-analysis.service';
+import { FrameStore } from './services/frame-store';
 import { ClipImageService } from './services/clip-image.service';
 import { ClipService } from './services/clip.service';
 import { ClubService } from './services/club.service';
@@ -40,6 +41,7 @@ import { SessionService } from './services/session.service';
 import { TokenService } from './services/token.service';
 import { ToleranceBandService } from './services/tolerance-band.service';
 import type { ObjectStorage } from './storage/object-storage';
+import { UnitOfWork } from './repositories/unit-of-work';
 
 export interface AppDeps {
   config: Config;
@@ -67,39 +69,32 @@ export function createApp(deps: AppDeps): Express {
   const clock = deps.clock ?? systemClock;
   const publicUrl = deps.publicUrl;
   const publicUrlNow = typeof publicUrl === 'function' ? publicUrl : () => publicUrl;
-  const access = new AccessService(dataSource);
+  // One unit of work hands every service its repositories.
+  const uow = new UnitOfWork(dataSource);
+  const access = new AccessService(uow);
   const audit = new AuditService(clock);
   const tokens = new TokenService(deps.jwtSecret, config.accessTokenTtlMs, config.mediaTokenTtlMs, clock);
-  const auth = new AuthService(dataSource, tokens, audit, clock, config.refreshTtlMs, config.bcryptRounds);
-  const sessions = new SessionService(dataSource, access, audit, clock);
-  const clips = new ClipService(
-    dataSource,
-    access,
-    sessions,
-    deps.storage,
-    tokens,
-    audit,
-    clock,
-    deps.mediaQueue,
-  );
-  const toleranceBands = new ToleranceBandService(dataSource, clock);
-  const frameStore = new FrameStore(dataSource, toleranceBands, clock);
-  const analysis = new ClipAnalysisService(dataSource, access, clips, frameStore, audit, clock);
+  const auth = new AuthService(uow, tokens, audit, clock, config.refreshTtlMs, config.bcryptRounds);
+  const sessions = new SessionService(uow, access, audit, clock);
+  const clips = new ClipService(uow, access, sessions, deps.storage, tokens, audit, clock, deps.mediaQueue);
+  const toleranceBands = new ToleranceBandService(uow, clock);
+  const frameStore = new FrameStore(uow, toleranceBands, clock);
+  const analysis = new ClipAnalysisService(uow, access, clips, frameStore, audit, clock);
   const ctx: RouteContext = {
     config,
     dataSource,
     storage: deps.storage,
     guard: createAuthMiddleware({ secret: deps.jwtSecret, auth, access, tokens }),
     auth,
-    athletes: new AthleteService(dataSource, access, audit, clock),
+    athletes: new AthleteService(uow, access, audit, clock),
     sessions,
     clips,
     clipImages: new ClipImageService(clips),
     analysis,
-    notes: new NoteService(dataSource, clips, analysis, audit, clock),
+    notes: new NoteService(uow, clips, analysis, audit, clock),
     toleranceBands,
     invitations: new InvitationService(
-      dataSource,
+      uow,
       access,
       auth,
       audit,
@@ -108,7 +103,7 @@ export function createApp(deps: AppDeps): Express {
       publicUrlNow,
       config.invitationTtlMs,
     ),
-    club: new ClubService(dataSource, clock),
+    club: new ClubService(uow, clock),
   };
 
   const app = express();

@@ -8,7 +8,8 @@ import { createLogger } from './logger';
 import { startRuntime } from './runtime';
 import { seedDemoClips } from './seed/demo-clips';
 import { seedDemoClub } from './seed/demo-seed';
-import { FrameStore } from './services/clip-analysis.service';
+import { FrameStore } from './services/frame-store';
+import { UnitOfWork } from './repositories/unit-of-work';
 import { systemClock } from './services/principal';
 import { ToleranceBandService } from './services/tolerance-band.service';
 import type { Clock } from './services/principal';
@@ -53,7 +54,7 @@ export async function startStanceline(opts: StartOptions = {}): Promise<StartedS
         ? await seedDemoClub(runtime.dataSource, { bcryptRounds: config.bcryptRounds, clock: opts.clock })
         : null;
     if (seeded) logger.info({ club: seeded.clubName }, 'seeded the demo club');
-    const bands = new ToleranceBandService(runtime.dataSource, opts.clock ?? systemClock);
+    const bands = new ToleranceBandService(new UnitOfWork(runtime.dataSource), opts.clock ?? systemClock);
     const added = await bands.ensureDefaultsForAllClubs();
     if (added > 0) logger.info({ bands: added }, 'seeded common-practice tolerance bands');
     if (seeded) {
@@ -61,7 +62,7 @@ export async function startStanceline(opts: StartOptions = {}): Promise<StartedS
         {
           dataSource: runtime.dataSource,
           storage: runtime.storage,
-          frames: new FrameStore(runtime.dataSource, bands, opts.clock ?? systemClock),
+          frames: new FrameStore(new UnitOfWork(runtime.dataSource), bands, opts.clock ?? systemClock),
           logger,
           workDir: path.join(config.dataDir, 'media-work'),
           clock: opts.clock,

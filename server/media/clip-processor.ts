@@ -1,3 +1,4 @@
+import { repositoriesFor } from '../repositories/unit-of-work';
 import { createWriteStream } from 'node:fs';
 import fs from 'node:fs/promises';
 import path from 'node:path';
@@ -5,8 +6,6 @@ import { pipeline } from 'node:stream/promises';
 import type { Logger } from 'pino';
 import type { DataSource } from 'typeorm';
 import type { Clip } from '../entities/clip.entity';
-import { ClipMediaRepository } from '../repositories/clip-media.repository';
-import { ClipRepository } from '../repositories/clip.repository';
 import type { ObjectStorage } from '../storage/object-storage';
 import { FfmpegError, MediaJobAborted } from './ffmpeg-run';
 import { makePoster } from './poster';
@@ -67,9 +66,9 @@ export async function processClip(
   clipId: string,
   signal: AbortSignal,
 ): Promise<void> {
-  const clip = await new ClipRepository(deps.dataSource.manager).findById(clipId);
+  const clip = await repositoriesFor(deps.dataSource.manager).clips.findById(clipId);
   if (!clip || (clip.status !== 'uploaded' && clip.status !== 'processing')) return;
-  const clips = new ClipMediaRepository(deps.dataSource.manager);
+  const clips = repositoriesFor(deps.dataSource.manager).clipMedia;
   await clips.update(clip.id, { status: 'processing', failureReason: null });
 
   await fs.mkdir(deps.workDir, { recursive: true });

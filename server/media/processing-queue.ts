@@ -1,6 +1,6 @@
+import { repositoriesFor } from '../repositories/unit-of-work';
 import fs from 'node:fs/promises';
 import fastq, { type queueAsPromised } from 'fastq';
-import { ClipMediaRepository } from '../repositories/clip-media.repository';
 import { MediaJobAborted } from './ffmpeg-run';
 import { processClip, type ClipProcessorDeps } from './clip-processor';
 
@@ -33,7 +33,7 @@ export class ClipProcessingQueue {
   async resume(): Promise<number> {
     // Scratch folders of jobs a crash interrupted; nothing of this queue is running yet.
     if (this.queue.idle() && !this.running) await fs.rm(this.deps.workDir, { recursive: true, force: true });
-    const ids = await new ClipMediaRepository(this.deps.dataSource.manager).idsWithStatus([
+    const ids = await repositoriesFor(this.deps.dataSource.manager).clipMedia.idsWithStatus([
       'uploaded',
       'processing',
     ]);

@@ -1,3 +1,4 @@
+import { repositoriesFor } from '../repositories/unit-of-work';
 import { createHash, randomUUID } from 'node:crypto';
 import { createReadStream } from 'node:fs';
 import fs from 'node:fs/promises';
@@ -14,11 +15,7 @@ import {
 } from '@shared/schemas/frames.schema';
 import type { Clip } from '../entities/clip.entity';
 import { processClip } from '../media/clip-processor';
-import { AthleteRepository } from '../repositories/athlete.repository';
-import { ClipRepository } from '../repositories/clip.repository';
-import { SessionRepository } from '../repositories/session.repository';
-import { UserRepository } from '../repositories/user.repository';
-import type { FrameStore } from '../services/clip-analysis.service';
+import type { FrameStore } from '../services/frame-store';
 import { systemClock, type Clock } from '../services/principal';
 import type { ObjectStorage } from '../storage/object-storage';
 import { DEMO_ATHLETES } from './demo-club';
@@ -95,9 +92,9 @@ export async function seedDemoClips(deps: DemoClipDeps, clubId: string): Promise
   const clock = deps.clock ?? systemClock;
   const manager = deps.dataSource.manager;
   // Oldest first: the first session holds the baseline clips.
-  const sessions = (await new SessionRepository(manager).list(clubId, null)).reverse();
-  const coach = await new UserRepository(manager).findByEmail('coach@larchwood.example');
-  const athletes = await new AthleteRepository(manager).list({ clubId, athleteIds: null });
+  const sessions = (await repositoriesFor(manager).sessions.list(clubId, null)).reverse();
+  const coach = await repositoriesFor(manager).users.findByEmail('coach@larchwood.example');
+  const athletes = await repositoriesFor(manager).athletes.list({ clubId, athleteIds: null });
   const ids: string[] = [];
   const stop = new AbortController();
 
@@ -144,10 +141,10 @@ export async function seedDemoClips(deps: DemoClipDeps, clubId: string): Promise
       durationMs: null,
       createdAt: clock.now(),
     };
-    await new ClipRepository(manager).insert(clip, [athlete.id]);
+    await repositoriesFor(manager).clips.insert(clip, [athlete.id]);
     // The same pipeline as an upload, run here and awaited, so the clip is ready before the first request.
     await processClip(deps, id, stop.signal);
-    const ready = await new ClipRepository(manager).findById(id);
+    const ready = await repositoriesFor(manager).clips.findById(id);
     if (ready?.status !== 'ready') {
       deps.logger.warn({ clipId: id, reason: ready?.failureReason }, 'demo clip did not process');
       continue;

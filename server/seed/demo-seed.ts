@@ -1,12 +1,9 @@
+import { repositoriesFor, UnitOfWork } from '../repositories/unit-of-work';
 import { randomUUID } from 'node:crypto';
 import bcrypt from 'bcryptjs';
 import type { DataSource } from 'typeorm';
 import type { AgeGroup } from '../entities/age-group.entity';
 import type { User } from '../entities/user.entity';
-import { AthleteRepository } from '../repositories/athlete.repository';
-import { ClubRepository } from '../repositories/club.repository';
-import { SessionRepository } from '../repositories/session.repository';
-import { UserRepository } from '../repositories/user.repository';
 import { systemClock, type Clock } from '../services/principal';
 import { ToleranceBandService } from '../services/tolerance-band.service';
 import {
@@ -31,16 +28,16 @@ export async function seedDemoClub(
   dataSource: DataSource,
   opts: { bcryptRounds: number; clock?: Clock },
 ): Promise<{ clubId: string; clubName: string } | null> {
-  if ((await new ClubRepository(dataSource.manager).count()) > 0) return null;
+  if ((await repositoriesFor(dataSource.manager).club.count()) > 0) return null;
   const now = (opts.clock ?? systemClock).now();
   const year = now.getUTCFullYear();
   const passwordHash = await bcrypt.hash(DEMO_PASSWORD, opts.bcryptRounds);
 
   return dataSource.transaction(async (manager) => {
-    const clubs = new ClubRepository(manager);
-    const users = new UserRepository(manager);
-    const athletes = new AthleteRepository(manager);
-    const sessions = new SessionRepository(manager);
+    const clubs = repositoriesFor(manager).club;
+    const users = repositoriesFor(manager).users;
+    const athletes = repositoriesFor(manager).athletes;
+    const sessions = repositoriesFor(manager).sessions;
 
     const clubId = randomUUID();
     await clubs.insert({ id: clubId, name: DEMO_CLUB_NAME, createdAt: now });
@@ -120,7 +117,10 @@ export async function seedDemoClub(
         createdAt: now,
       });
     }
-    await new ToleranceBandService(dataSource, opts.clock ?? systemClock).ensureDefaults(manager, clubId);
+    await new ToleranceBandService(new UnitOfWork(dataSource), opts.clock ?? systemClock).ensureDefaults(
+      manager,
+      clubId,
+    );
     return { clubId, clubName: DEMO_CLUB_NAME };
   });
 }

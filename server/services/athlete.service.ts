@@ -1,5 +1,5 @@
+import type { UnitOfWork } from '../repositories/unit-of-work';
 import { randomUUID } from 'node:crypto';
-import type { DataSource } from 'typeorm';
 import type {
   AgeGroupListResponse,
   AthleteListResponse,
@@ -10,22 +10,20 @@ import type {
 import type { Athlete } from '../entities/athlete.entity';
 import { badRequest, forbidden, notFound } from '../errors';
 import { toAgeGroupDto, toAthleteDetailDto, toAthleteDto } from '../mappers/athlete.mapper';
-import { AthleteRepository } from '../repositories/athlete.repository';
-import { ClubRepository } from '../repositories/club.repository';
 import type { AccessService } from './access.service';
 import type { AuditService } from './audit.service';
 import type { Clock, Principal } from './principal';
 
 export class AthleteService {
   constructor(
-    private readonly dataSource: DataSource,
+    private readonly uow: UnitOfWork,
     private readonly access: AccessService,
     private readonly audit: AuditService,
     private readonly clock: Clock,
   ) {}
 
   async listAgeGroups(principal: Principal): Promise<AgeGroupListResponse> {
-    const groups = await new ClubRepository(this.dataSource.manager).listAgeGroups(principal.clubId);
+    const groups = await this.uow.repos.club.listAgeGroups(principal.clubId);
     return { ageGroups: groups.map(toAgeGroupDto) };
   }
 
@@ -33,16 +31,16 @@ export class AthleteService {
     principal: Principal,
     query: { search?: string; ageGroupId?: string },
   ): Promise<AthleteListResponse> {
-    const manager = this.dataSource.manager;
-    const athletes = await new AthleteRepository(manager).list({
+    const manager = this.uow.repos.manager;
+    const athletes = await this.uow.of(manager).athletes.list({
       clubId: principal.clubId,
       athleteIds: await this.access.visibleAthleteIds(principal),
       ageGroupId: query.ageGroupId,
       search: query.search,
     });
     const [groups, counts] = await Promise.all([
-      new ClubRepository(manager).listAgeGroups(principal.clubId),
-      new AthleteRepository(manager).clipCounts(athletes.map((a) => a.id)),
+      this.uow.of(manager).club.listAgeGroups(principal.clubId),
+      this.uow.of(manager).athletes.clipCounts(athletes.map((a) => a.id)),
     ]);
     const groupById = new Map(groups.map((g) => [g.id, g]));
     const now = this.clock.now();
@@ -55,7 +53,7 @@ export class AthleteService {
 
   /** The athlete if the caller may read it; 404 otherwise, so ids outside one's reach reveal nothing. */
   async findVisible(principal: Principal, athleteId: string): Promise<Athlete> {
-    const athlete = await new AthleteRepository(this.dataSource.manager).findById(athleteId);
+    const athlete = await this.uow.repos.athletes.findById(athleteId);
     if (!athlete || !this.access.canSeeAthlete(principal, athlete)) throw notFound('Athlete');
     return athlete;
   }
@@ -65,10 +63,10 @@ export class AthleteService {
   }
 
   private async detail(principal: Principal, athlete: Athlete): Promise<AthleteResponse> {
-    const manager = this.dataSource.manager;
-    const repo = new AthleteRepository(manager);
+    const manager = this.uow.repos.manager;
+    const repo = this.uow.of(manager).athletes;
     const [group, counts, guardians] = await Promise.all([
-      new ClubRepository(manager).findAgeGroup(athlete.ageGroupId),
+      this.uow.of(manager).club.findAgeGroup(athlete.ageGroupId),
       repo.clipCounts([athlete.id]),
       repo.guardiansOf(athlete.id),
     ]);
@@ -85,7 +83,7 @@ export class AthleteService {
   }
 
   async create(principal: Principal, input: CreateAthleteInput): Promise<AthleteResponse> {
-    const group = await new ClubRepository(this.dataSource.manager).findAgeGroup(input.ageGroupId);
+    const group = await this.uow.repos.club.findAgeGroup(input.ageGroupId);
     if (!group || group.clubId !== principal.clubId) {
       throw badRequest('unknown_age_group', 'Choose one of the club’s age groups');
     }
@@ -108,8 +106,8 @@ export class AthleteService {
       consentRecordedById: null,
       createdAt: this.clock.now(),
     };
-    await this.dataSource.transaction(async (manager) => {
-      await new AthleteRepository(manager).insert(athlete);
+    await this.uow.transaction(async (manager) => {
+      await this.uow.of(manager).athletes.insert(athlete);
       await this.audit.record(manager, {
         clubId: principal.clubId,
         actorUserId: principal.user.id,
@@ -137,8 +135,8 @@ export class AthleteService {
       consentMethod: input.method,
       consentRecordedById: principal.user.id,
     };
-    await this.dataSource.transaction(async (manager) => {
-      await new AthleteRepository(manager).update(athlete.id, patch);
+    await this.uow.transaction(async (manager) => {
+      await this.uow.of(manager).athletes.update(athlete.id, patch);
       await this.audit.record(manager, {
         clubId: principal.clubId,
         actorUserId: principal.user.id,

@@ -1,6 +1,6 @@
+import { repositoriesFor } from '../repositories/unit-of-work';
 import { randomUUID } from 'node:crypto';
 import type { EntityManager } from 'typeorm';
-import { AuditRepository } from '../repositories/audit.repository';
 import type { Clock } from './principal';
 
 export interface AuditEntry {
@@ -17,7 +17,7 @@ export class AuditService {
 
   /** Pass the transaction's manager so the event commits or rolls back with the change it records. */
   async record(manager: EntityManager, entry: AuditEntry): Promise<void> {
-    await new AuditRepository(manager).insert({
+    await repositoriesFor(manager).audit.insert({
       id: randomUUID(),
       clubId: entry.clubId,
       actorUserId: entry.actorUserId,

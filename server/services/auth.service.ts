@@ -1,13 +1,11 @@
+import type { UnitOfWork } from '../repositories/unit-of-work';
 import { randomUUID } from 'node:crypto';
 import bcrypt from 'bcryptjs';
-import type { DataSource, EntityManager } from 'typeorm';
+import type { EntityManager } from 'typeorm';
 import type { LoginInput, LoginResponse, MeResponse } from '@shared/schemas/auth.schema';
 import type { User } from '../entities/user.entity';
 import { HttpError, notFound, unauthorized } from '../errors';
 import { toUserDto } from '../mappers/user.mapper';
-import { AuthRepository } from '../repositories/auth.repository';
-import { ClubRepository } from '../repositories/club.repository';
-import { UserRepository } from '../repositories/user.repository';
 import type { AuditService } from './audit.service';
 import type { Clock, Principal } from './principal';
 import { hashSecretToken, newSecretToken } from './secret-token';
@@ -26,7 +24,7 @@ export class AuthService {
   private readonly dummyHash: string;
 
   constructor(
-    private readonly dataSource: DataSource,
+    private readonly uow: UnitOfWork,
     private readonly tokens: TokenService,
     private readonly audit: AuditService,
     private readonly clock: Clock,
@@ -41,7 +39,7 @@ export class AuthService {
   }
 
   async loadPrincipal(userId: string, tokenVersion?: number): Promise<Principal | null> {
-    const users = new UserRepository(this.dataSource.manager);
+    const users = this.uow.repos.users;
     const user = await users.findById(userId);
     if (!user) return null;
     if (tokenVersion !== undefined && tokenVersion !== user.tokenVersion) return null;
@@ -50,11 +48,11 @@ export class AuthService {
   }
 
   async login(input: LoginInput): Promise<SignedIn> {
-    const user = await new UserRepository(this.dataSource.manager).findByEmail(input.email);
+    const user = await this.uow.repos.users.findByEmail(input.email);
     const ok = await bcrypt.compare(input.password, user?.passwordHash ?? this.dummyHash);
     if (!user || !user.passwordHash || !ok) {
       if (user) {
-        await this.audit.record(this.dataSource.manager, {
+        await this.audit.record(this.uow.repos.manager, {
           clubId: user.clubId,
           actorUserId: user.id,
           action: 'auth.sign_in_failed',
@@ -64,8 +62,8 @@ export class AuthService {
       }
       throw unauthorized('invalid_credentials', 'Wrong e-mail address or password');
     }
-    return this.dataSource.transaction(async (manager) => {
-      await new UserRepository(manager).update(user.id, { lastSignInAt: this.clock.now() });
+    return this.uow.transaction(async (manager) => {
+      await this.uow.of(manager).users.update(user.id, { lastSignInAt: this.clock.now() });
       await this.audit.record(manager, {
         clubId: user.clubId,
         actorUserId: user.id,
@@ -83,7 +81,7 @@ export class AuthService {
     const refreshToken = newSecretToken();
     const now = this.clock.now();
     const refreshExpiresAt = new Date(now.getTime() + this.refreshTtlMs);
-    await new AuthRepository(manager).insertRefreshToken({
+    await this.uow.of(manager).auth.insertRefreshToken({
       id: randomUUID(),
       userId: user.id,
       tokenHash: hashSecretToken(refreshToken),
@@ -100,7 +98,7 @@ export class AuthService {
   }
 
   private async principalFor(manager: EntityManager, user: User): Promise<Principal> {
-    const links = await new UserRepository(manager).links(user);
+    const links = await this.uow.of(manager).users.links(user);
     return { user, role: user.role, clubId: user.clubId, ...links };
   }
 
@@ -108,8 +106,8 @@ export class AuthService {
   async refresh(refreshToken: string | undefined): Promise<SignedIn> {
     if (!refreshToken) throw unauthorized('no_refresh_token', 'Sign in again: no session cookie was sent');
     // Revocations must commit even when the answer is a refusal, so refusals are thrown after the transaction.
-    const outcome = await this.dataSource.transaction(async (manager): Promise<SignedIn | HttpError> => {
-      const repo = new AuthRepository(manager);
+    const outcome = await this.uow.transaction(async (manager): Promise<SignedIn | HttpError> => {
+      const repo = this.uow.of(manager).auth;
       const row = await repo.findRefreshToken(hashSecretToken(refreshToken));
       const now = this.clock.now();
       if (!row) return unauthorized('invalid_refresh_token', 'Sign in again: the session is not known');
@@ -125,7 +123,7 @@ export class AuthService {
         await repo.revokeRefreshToken(row.id, now);
         return unauthorized('refresh_expired', 'Sign in again: the session expired');
       }
-      const user = await new UserRepository(manager).findById(row.userId);
+      const user = await this.uow.of(manager).users.findById(row.userId);
       if (!user) return unauthorized('invalid_refresh_token', 'Sign in again: the account no longer exists');
       await repo.revokeRefreshToken(row.id, now);
       return this.issue(manager, user);
@@ -137,8 +135,8 @@ export class AuthService {
   /** Revokes the presented refresh token; with `everywhere`, every session and access token of its user. */
   async logout(refreshToken: string | undefined, everywhere = false): Promise<void> {
     if (!refreshToken) return;
-    await this.dataSource.transaction(async (manager) => {
-      const repo = new AuthRepository(manager);
+    await this.uow.transaction(async (manager) => {
+      const repo = this.uow.of(manager).auth;
       const row = await repo.findRefreshToken(hashSecretToken(refreshToken));
       if (!row) return;
       const now = this.clock.now();
@@ -146,8 +144,8 @@ export class AuthService {
       if (!everywhere) return;
       await repo.revokeAllRefreshTokens(row.userId, now);
       // Access tokens carry the version they were issued under; bumping it voids them at once.
-      await new UserRepository(manager).bumpTokenVersion(row.userId);
-      const user = await new UserRepository(manager).findById(row.userId);
+      await this.uow.of(manager).users.bumpTokenVersion(row.userId);
+      const user = await this.uow.of(manager).users.findById(row.userId);
       await this.audit.record(manager, {
         clubId: user?.clubId ?? null,
         actorUserId: row.userId,
@@ -159,7 +157,7 @@ export class AuthService {
   }
 
   async me(principal: Principal): Promise<MeResponse> {
-    const club = await new ClubRepository(this.dataSource.manager).findById(principal.clubId);
+    const club = await this.uow.repos.club.findById(principal.clubId);
     if (!club) throw notFound('Club');
     return { user: toUserDto(principal), club: { id: club.id, name: club.name } };
   }

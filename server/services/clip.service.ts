@@ -1,6 +1,6 @@
+import type { UnitOfWork } from '../repositories/unit-of-work';
 import { randomUUID } from 'node:crypto';
 import fs from 'node:fs/promises';
-import type { DataSource } from 'typeorm';
 import {
   uploadClipFieldsSchema,
   type ClipDto,
@@ -11,13 +11,8 @@ import type { Athlete } from '../entities/athlete.entity';
 import type { Clip } from '../entities/clip.entity';
 import { HttpError, badRequest, conflict, notFound } from '../errors';
 import { toClipDto } from '../mappers/clip.mapper';
-import { ClubRepository } from '../repositories/club.repository';
-import { FrameResultRepository } from '../repositories/frame-result.repository';
-import { ReferenceLineRepository } from '../repositories/reference-line.repository';
 import { probeVideo } from '../media/probe';
 import { ACCEPTED_CONTAINER_LABEL, sniffVideoContainer } from '../media/sniff';
-import { AthleteRepository } from '../repositories/athlete.repository';
-import { ClipRepository } from '../repositories/clip.repository';
 import type { ObjectStorage } from '../storage/object-storage';
 import type { AccessService } from './access.service';
 import type { AuditService } from './audit.service';
@@ -51,7 +46,7 @@ export interface MediaPipeline {
 
 export class ClipService {
   constructor(
-    private readonly dataSource: DataSource,
+    private readonly uow: UnitOfWork,
     private readonly access: AccessService,
     private readonly sessions: SessionService,
     private readonly storage: ObjectStorage,
@@ -66,7 +61,7 @@ export class ClipService {
     query: { athleteId?: string; sessionId?: string },
   ): Promise<ClipListResponse> {
     const visible = await this.access.visibleAthleteIds(principal);
-    const clips = await new ClipRepository(this.dataSource.manager).list({
+    const clips = await this.uow.repos.clips.list({
       clubId: principal.clubId,
       visibleAthleteIds: visible,
       athleteId: query.athleteId,
@@ -76,7 +71,7 @@ export class ClipService {
   }
 
   async findVisible(principal: Principal, clipId: string): Promise<Clip> {
-    const repo = new ClipRepository(this.dataSource.manager);
+    const repo = this.uow.repos.clips;
     const clip = await repo.findById(clipId);
     if (!clip || clip.clubId !== principal.clubId) throw notFound('Clip');
     const visible = await this.access.visibleAthleteIds(principal);
@@ -106,22 +101,22 @@ export class ClipService {
   }
 
   private async toDtos(principal: Principal, clips: Clip[], visible: string[] | null): Promise<ClipDto[]> {
-    const manager = this.dataSource.manager;
-    const tags = await new ClipRepository(manager).athleteIdsByClip(clips.map((c) => c.id));
+    const manager = this.uow.repos.manager;
+    const tags = await this.uow.of(manager).clips.athleteIdsByClip(clips.map((c) => c.id));
     // Teammates tagged in the same clip stay hidden from athletes and guardians.
     const shown = (ids: string[]) => (visible ? ids.filter((id) => visible.includes(id)) : ids);
     const allIds = [...new Set([...tags.values()].flatMap(shown))];
-    const athletes = new Map((await new AthleteRepository(manager).findByIds(allIds)).map((a) => [a.id, a]));
+    const athletes = new Map((await this.uow.of(manager).athletes.findByIds(allIds)).map((a) => [a.id, a]));
     // The clip's bands follow its first tagged athlete, whether or not the caller sees that athlete.
     const firstIds = [...new Set(clips.map((c) => tags.get(c.id)?.[0]).filter((id): id is string => !!id))];
-    const firsts = new Map((await new AthleteRepository(manager).findByIds(firstIds)).map((a) => [a.id, a]));
+    const firsts = new Map((await this.uow.of(manager).athletes.findByIds(firstIds)).map((a) => [a.id, a]));
     const groups = new Map(
-      (await new ClubRepository(manager).listAgeGroups(principal.clubId)).map((g) => [g.id, g]),
+      (await this.uow.of(manager).club.listAgeGroups(principal.clubId)).map((g) => [g.id, g]),
     );
     const ids = clips.map((c) => c.id);
-    const lines = await new ReferenceLineRepository(manager).forClips(ids);
-    const frameLines = await new ReferenceLineRepository(manager).framesForClips(ids);
-    const analyses = await new FrameResultRepository(manager).analysisByClip(ids);
+    const lines = await this.uow.of(manager).referenceLines.forClips(ids);
+    const frameLines = await this.uow.of(manager).referenceLines.framesForClips(ids);
+    const analyses = await this.uow.of(manager).frames.analysisByClip(ids);
     return clips.map((clip) => {
       const tagged = shown(tags.get(clip.id) ?? [])
         .map((id) => athletes.get(id))
@@ -231,8 +226,8 @@ export class ClipService {
         durationMs: probe.durationMs,
         createdAt: this.clock.now(),
       };
-      await this.dataSource.transaction(async (manager) => {
-        await new ClipRepository(manager).insert(clip, athleteIds);
+      await this.uow.transaction(async (manager) => {
+        await this.uow.of(manager).clips.insert(clip, athleteIds);
         await this.audit.record(manager, {
           clubId: principal.clubId,
           actorUserId: principal.user.id,
@@ -267,7 +262,7 @@ export class ClipService {
   }
 
   private async taggableAthletes(principal: Principal, athleteIds: string[]): Promise<Athlete[]> {
-    const found = await new AthleteRepository(this.dataSource.manager).findByIds(athleteIds);
+    const found = await this.uow.repos.athletes.findByIds(athleteIds);
     const byId = new Map(found.map((a) => [a.id, a]));
     const now = this.clock.now();
     const athletes: Athlete[] = [];

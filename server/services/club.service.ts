@@ -1,17 +1,16 @@
-import type { DataSource } from 'typeorm';
+import type { UnitOfWork } from '../repositories/unit-of-work';
 import type { ClubMemberListResponse } from '@shared/schemas/club.schema';
-import { MemberRepository } from '../repositories/member.repository';
 import type { Clock, Principal } from './principal';
 
 export class ClubService {
   constructor(
-    private readonly dataSource: DataSource,
+    private readonly uow: UnitOfWork,
     private readonly clock: Clock,
   ) {}
 
   /** Every sign-in of the club with what it is linked to, plus invitations still open. */
   async members(principal: Principal): Promise<ClubMemberListResponse> {
-    const repo = new MemberRepository(this.dataSource.manager);
+    const repo = this.uow.repos.members;
     const roster = await repo.roster(principal.clubId);
     const groupName = new Map(roster.ageGroups.map((g) => [g.id, g.name]));
     const athleteById = new Map(roster.athletes.map((a) => [a.id, a]));

@@ -1,5 +1,5 @@
+import type { UnitOfWork } from '../repositories/unit-of-work';
 import { randomUUID } from 'node:crypto';
-import type { DataSource } from 'typeorm';
 import type {
   AcceptInvitationInput,
   CreateInvitationInput,
@@ -11,10 +11,6 @@ import type { User } from '../entities/user.entity';
 import { HttpError, badRequest, conflict, forbidden, notFound } from '../errors';
 import type { Mailer } from '../mail/mailer';
 import { invitationMail } from '../mail/templates';
-import { AthleteRepository } from '../repositories/athlete.repository';
-import { AuthRepository } from '../repositories/auth.repository';
-import { ClubRepository } from '../repositories/club.repository';
-import { UserRepository } from '../repositories/user.repository';
 import type { AccessService } from './access.service';
 import type { AuditService } from './audit.service';
 import type { AuthService, SignedIn } from './auth.service';
@@ -23,7 +19,7 @@ import { hashSecretToken, newSecretToken } from './secret-token';
 
 export class InvitationService {
   constructor(
-    private readonly dataSource: DataSource,
+    private readonly uow: UnitOfWork,
     private readonly access: AccessService,
     private readonly auth: AuthService,
     private readonly audit: AuditService,
@@ -38,7 +34,7 @@ export class InvitationService {
    * Athlete and guardian invitations name the athlete record they attach to.
    */
   async create(principal: Principal, input: CreateInvitationInput): Promise<InvitationResponse> {
-    const manager = this.dataSource.manager;
+    const manager = this.uow.repos.manager;
     if (principal.role !== 'head_coach' && input.role !== 'athlete' && input.role !== 'guardian') {
       throw forbidden('Coaches can invite athletes and guardians; ask the head coach to invite staff');
     }
@@ -47,7 +43,7 @@ export class InvitationService {
       if (!input.athleteId) {
         throw badRequest('athlete_required', `Choose the athlete this ${input.role} invitation is for`);
       }
-      const athlete = await new AthleteRepository(manager).findById(input.athleteId);
+      const athlete = await this.uow.of(manager).athletes.findById(input.athleteId);
       if (!athlete || !this.access.canSeeAthlete(principal, athlete)) throw notFound('Athlete');
       if (!this.access.canManageAthlete(principal, athlete)) {
         throw forbidden('You can only invite athletes and guardians of the age groups you coach');
@@ -62,13 +58,13 @@ export class InvitationService {
     }
     const ageGroupIds = input.role === 'coach' ? [...new Set(input.ageGroupIds ?? [])] : [];
     if (ageGroupIds.length > 0) {
-      const groups = await new ClubRepository(manager).listAgeGroups(principal.clubId);
+      const groups = await this.uow.of(manager).club.listAgeGroups(principal.clubId);
       const known = new Set(groups.map((g) => g.id));
       if (!ageGroupIds.every((id) => known.has(id))) {
         throw badRequest('unknown_age_group', 'Choose age groups of this club');
       }
     }
-    if (await new UserRepository(manager).findByEmail(input.email)) {
+    if (await this.uow.of(manager).users.findByEmail(input.email)) {
       throw conflict('already_member', `${input.email} already has a Stanceline sign-in`);
     }
 
@@ -87,8 +83,8 @@ export class InvitationService {
       acceptedAt: null,
       createdAt: now,
     };
-    const club = await new ClubRepository(manager).findById(principal.clubId);
-    const authRepo = new AuthRepository(manager);
+    const club = await this.uow.of(manager).club.findById(principal.clubId);
+    const authRepo = this.uow.of(manager).auth;
     await authRepo.insertInvitation(invitation);
     try {
       await this.mailer.send(
@@ -135,9 +131,7 @@ export class InvitationService {
   }
 
   private async findOpen(token: string): Promise<Invitation> {
-    const invitation = await new AuthRepository(this.dataSource.manager).findInvitation(
-      hashSecretToken(token),
-    );
+    const invitation = await this.uow.repos.auth.findInvitation(hashSecretToken(token));
     if (!invitation) throw notFound('Invitation');
     if (invitation.acceptedAt)
       throw conflict('invitation_used', 'This invitation was already used; sign in instead');
@@ -153,10 +147,10 @@ export class InvitationService {
 
   async preview(token: string): Promise<InvitationPreviewResponse> {
     const invitation = await this.findOpen(token);
-    const manager = this.dataSource.manager;
-    const club = await new ClubRepository(manager).findById(invitation.clubId);
+    const manager = this.uow.repos.manager;
+    const club = await this.uow.of(manager).club.findById(invitation.clubId);
     const athlete = invitation.athleteId
-      ? await new AthleteRepository(manager).findById(invitation.athleteId)
+      ? await this.uow.of(manager).athletes.findById(invitation.athleteId)
       : null;
     return {
       invitation: {
@@ -173,8 +167,8 @@ export class InvitationService {
   async accept(input: AcceptInvitationInput): Promise<SignedIn> {
     const invitation = await this.findOpen(input.token);
     const passwordHash = await this.auth.hashPassword(input.password);
-    return this.dataSource.transaction(async (manager) => {
-      const users = new UserRepository(manager);
+    return this.uow.transaction(async (manager) => {
+      const users = this.uow.of(manager).users;
       if (await users.findByEmail(invitation.email)) {
         throw conflict('already_member', `${invitation.email} already has a Stanceline sign-in`);
       }
@@ -192,7 +186,7 @@ export class InvitationService {
       };
       await users.insert(user);
       if (invitation.role === 'athlete' && invitation.athleteId) {
-        const athletes = new AthleteRepository(manager);
+        const athletes = this.uow.of(manager).athletes;
         const athlete = await athletes.findById(invitation.athleteId);
         if (!athlete) throw notFound('Athlete');
         if (athlete.userId) throw conflict('athlete_has_account', 'This athlete already has a sign-in');
@@ -204,7 +198,7 @@ export class InvitationService {
       for (const ageGroupId of invitation.ageGroupIds) {
         await users.addCoachAssignment(randomUUID(), user.id, ageGroupId);
       }
-      await new AuthRepository(manager).markInvitationAccepted(invitation.id, now);
+      await this.uow.of(manager).auth.markInvitationAccepted(invitation.id, now);
       await this.audit.record(manager, {
         clubId: invitation.clubId,
         actorUserId: user.id,

@@ -1,5 +1,5 @@
+import type { UnitOfWork } from '../repositories/unit-of-work';
 import { randomUUID } from 'node:crypto';
-import type { DataSource } from 'typeorm';
 import type {
   CreateNoteBody,
   NoteDto,
@@ -10,8 +10,6 @@ import type {
 import type { Note } from '../entities/note.entity';
 import type { Clip } from '../entities/clip.entity';
 import { badRequest, forbidden, notFound } from '../errors';
-import { NoteRepository } from '../repositories/note.repository';
-import { UserRepository } from '../repositories/user.repository';
 import type { AuditService } from './audit.service';
 import type { ClipAnalysisService } from './clip-analysis.service';
 import type { ClipService } from './clip.service';
@@ -55,7 +53,7 @@ function toNoteDto(note: Note, authorName: string | null): NoteDto {
 /** Coaches' notes pinned to moments of a clip. Athletes and guardians see them only once published. */
 export class NoteService {
   constructor(
-    private readonly dataSource: DataSource,
+    private readonly uow: UnitOfWork,
     private readonly clips: ClipService,
     private readonly analysis: ClipAnalysisService,
     private readonly audit: AuditService,
@@ -64,14 +62,14 @@ export class NoteService {
 
   async list(principal: Principal, clipId: string): Promise<NoteListResponse> {
     const clip = await this.clips.findVisible(principal, clipId);
-    const notes = await new NoteRepository(this.dataSource.manager).listByClip(clip.id);
+    const notes = await this.uow.repos.notes.listByClip(clip.id);
     const names = await this.authorNames(notes);
     return { notes: notes.map((n) => toNoteDto(n, names.get(n.authorId ?? '') ?? null)) };
   }
 
   async webVtt(principal: Principal, clipId: string): Promise<{ fileName: string; body: string }> {
     const clip = await this.clips.findVisible(principal, clipId);
-    const notes = await new NoteRepository(this.dataSource.manager).listByClip(clip.id);
+    const notes = await this.uow.repos.notes.listByClip(clip.id);
     const names = await this.authorNames(notes);
     const body = notesToWebVtt(
       notes.map((n) => ({
@@ -101,8 +99,8 @@ export class NoteService {
       createdAt: now,
       updatedAt: now,
     };
-    await this.dataSource.transaction(async (manager) => {
-      await new NoteRepository(manager).insert(note);
+    await this.uow.transaction(async (manager) => {
+      await this.uow.of(manager).notes.insert(note);
       await this.audit.record(manager, {
         clubId: clip.clubId,
         actorUserId: principal.user.id,
@@ -123,7 +121,7 @@ export class NoteService {
     if (input.frameIndex !== undefined) patch.frameIndex = input.frameIndex;
     if (input.text !== undefined) patch.body = input.text;
     if (input.drawing !== undefined) patch.drawing = input.drawing;
-    await new NoteRepository(this.dataSource.manager).update(note.id, patch);
+    await this.uow.repos.notes.update(note.id, patch);
     const updated = { ...note, ...patch };
     const names = await this.authorNames([updated]);
     return { note: toNoteDto(updated, names.get(updated.authorId ?? '') ?? null) };
@@ -131,8 +129,8 @@ export class NoteService {
 
   async delete(principal: Principal, noteId: string): Promise<void> {
     const note = await this.editable(principal, noteId);
-    await this.dataSource.transaction(async (manager) => {
-      await new NoteRepository(manager).delete(note.id);
+    await this.uow.transaction(async (manager) => {
+      await this.uow.of(manager).notes.delete(note.id);
       await this.audit.record(manager, {
         clubId: principal.clubId,
         actorUserId: principal.user.id,
@@ -146,7 +144,7 @@ export class NoteService {
 
   /** The note if the caller wrote it or is the head coach; outside the caller's clips it does not exist. */
   private async editable(principal: Principal, noteId: string): Promise<Note> {
-    const note = await new NoteRepository(this.dataSource.manager).findById(noteId);
+    const note = await this.uow.repos.notes.findById(noteId);
     if (!note) throw notFound('Note');
     await this.clips.findVisible(principal, note.clipId).catch(() => {
       throw notFound('Note');
@@ -159,7 +157,7 @@ export class NoteService {
 
   private async authorNames(notes: Note[]): Promise<Map<string, string>> {
     const ids = [...new Set(notes.map((n) => n.authorId).filter((id): id is string => !!id))];
-    const users = new UserRepository(this.dataSource.manager);
+    const users = this.uow.repos.users;
     const names = new Map<string, string>();
     for (const id of ids) {
       const user = await users.findById(id);

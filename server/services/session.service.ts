@@ -1,5 +1,5 @@
+import type { UnitOfWork } from '../repositories/unit-of-work';
 import { randomUUID } from 'node:crypto';
-import type { DataSource } from 'typeorm';
 import type {
   CreateSessionInput,
   SessionListResponse,
@@ -8,14 +8,13 @@ import type {
 import type { TrainingSession } from '../entities/training-session.entity';
 import { notFound } from '../errors';
 import { toSessionDto } from '../mappers/session.mapper';
-import { SessionRepository } from '../repositories/session.repository';
 import type { AccessService } from './access.service';
 import type { AuditService } from './audit.service';
 import type { Clock, Principal } from './principal';
 
 export class SessionService {
   constructor(
-    private readonly dataSource: DataSource,
+    private readonly uow: UnitOfWork,
     private readonly access: AccessService,
     private readonly audit: AuditService,
     private readonly clock: Clock,
@@ -30,16 +29,14 @@ export class SessionService {
   ): Promise<{ sessionIds: string[] | null; athleteIds: string[] | null }> {
     const athleteIds = await this.access.visibleAthleteIds(principal);
     if (principal.role === 'athlete' || principal.role === 'guardian') {
-      const sessionIds = await new SessionRepository(this.dataSource.manager).idsWithAthletes(
-        athleteIds ?? [],
-      );
+      const sessionIds = await this.uow.repos.sessions.idsWithAthletes(athleteIds ?? []);
       return { sessionIds, athleteIds };
     }
     return { sessionIds: null, athleteIds };
   }
 
   async list(principal: Principal): Promise<SessionListResponse> {
-    const repo = new SessionRepository(this.dataSource.manager);
+    const repo = this.uow.repos.sessions;
     const { sessionIds, athleteIds } = await this.reach(principal);
     const sessions = await repo.list(principal.clubId, sessionIds);
     const counts = await repo.clipCounts(
@@ -50,7 +47,7 @@ export class SessionService {
   }
 
   async findVisible(principal: Principal, sessionId: string): Promise<TrainingSession> {
-    const session = await new SessionRepository(this.dataSource.manager).findById(sessionId);
+    const session = await this.uow.repos.sessions.findById(sessionId);
     if (!session || session.clubId !== principal.clubId) throw notFound('Session');
     const { sessionIds } = await this.reach(principal);
     if (sessionIds && !sessionIds.includes(session.id)) throw notFound('Session');
@@ -60,7 +57,7 @@ export class SessionService {
   async get(principal: Principal, sessionId: string): Promise<SessionResponse> {
     const session = await this.findVisible(principal, sessionId);
     const { athleteIds } = await this.reach(principal);
-    const counts = await new SessionRepository(this.dataSource.manager).clipCounts([session.id], athleteIds);
+    const counts = await this.uow.repos.sessions.clipCounts([session.id], athleteIds);
     return { session: toSessionDto(session, counts.get(session.id) ?? 0) };
   }
 
@@ -76,8 +73,8 @@ export class SessionService {
       createdById: principal.user.id,
       createdAt: this.clock.now(),
     };
-    await this.dataSource.transaction(async (manager) => {
-      await new SessionRepository(manager).insert(session);
+    await this.uow.transaction(async (manager) => {
+      await this.uow.of(manager).sessions.insert(session);
       await this.audit.record(manager, {
         clubId: principal.clubId,
         actorUserId: principal.user.id,

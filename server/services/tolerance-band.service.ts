@@ -1,5 +1,6 @@
+import type { UnitOfWork } from '../repositories/unit-of-work';
 import { randomUUID } from 'node:crypto';
-import type { DataSource, EntityManager } from 'typeorm';
+import type { EntityManager } from 'typeorm';
 import type { View } from '@shared/keypoints';
 import { METRIC_DEFINITIONS, isMetricKey } from '@shared/metrics';
 import type { ToleranceBandDto, ToleranceBandListResponse } from '@shared/schemas/tolerance.schema';
@@ -13,8 +14,6 @@ import type { AgeGroup } from '../entities/age-group.entity';
 import { ClubEntity } from '../entities/club.entity';
 import type { ToleranceBand } from '../entities/tolerance-band.entity';
 import { notFound } from '../errors';
-import { ClubRepository } from '../repositories/club.repository';
-import { ToleranceBandRepository } from '../repositories/tolerance-band.repository';
 import type { Clock, Principal } from './principal';
 
 /** The view a band's metric is measured in; transitionRise comes from front-view turns. */
@@ -58,15 +57,15 @@ function toDto(row: ToleranceBand, ageGroupName: string): ToleranceBandDto {
 
 export class ToleranceBandService {
   constructor(
-    private readonly dataSource: DataSource,
+    private readonly uow: UnitOfWork,
     private readonly clock: Clock,
   ) {}
 
   async list(principal: Principal, query: { ageGroupId?: string }): Promise<ToleranceBandListResponse> {
-    const clubs = new ClubRepository(this.dataSource.manager);
+    const clubs = this.uow.repos.club;
     const groups = new Map((await clubs.listAgeGroups(principal.clubId)).map((g) => [g.id, g]));
     if (query.ageGroupId && !groups.has(query.ageGroupId)) throw notFound('Age group');
-    const rows = await new ToleranceBandRepository(this.dataSource.manager).list({
+    const rows = await this.uow.repos.toleranceBands.list({
       clubId: principal.clubId,
       ageGroupId: query.ageGroupId,
     });
@@ -79,15 +78,15 @@ export class ToleranceBandService {
     clubId: string,
     ageGroupId: string,
   ): Promise<{ band: SharedBand; row: ToleranceBand }[]> {
-    const group = await new ClubRepository(manager).findAgeGroup(ageGroupId);
+    const group = await this.uow.of(manager).club.findAgeGroup(ageGroupId);
     if (!group) return [];
-    const rows = await new ToleranceBandRepository(manager).list({ clubId, ageGroupId });
+    const rows = await this.uow.of(manager).toleranceBands.list({ clubId, ageGroupId });
     return rows.map((row) => ({ band: toSharedBand(row, group.name), row }));
   }
 
   /** ensureDefaults for every club, at start: databases from before bands were seeded get theirs. */
   async ensureDefaultsForAllClubs(): Promise<number> {
-    return this.dataSource.transaction(async (manager) => {
+    return this.uow.transaction(async (manager) => {
       let added = 0;
       for (const club of await manager.find(ClubEntity)) added += await this.ensureDefaults(manager, club.id);
       return added;
@@ -100,8 +99,8 @@ export class ToleranceBandService {
    */
   async ensureDefaults(manager: EntityManager, clubId: string): Promise<number> {
     const now = this.clock.now();
-    const groups = await new ClubRepository(manager).listAgeGroups(clubId);
-    const repo = new ToleranceBandRepository(manager);
+    const groups = await this.uow.of(manager).club.listAgeGroups(clubId);
+    const repo = this.uow.of(manager).toleranceBands;
     const existing = new Set(
       (await repo.list({ clubId })).map((b) => `${b.ageGroupId}|${b.metric}|${b.view}`),
     );

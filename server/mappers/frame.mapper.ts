@@ -1,0 +1,30 @@
+import type { MetricKey } from '@shared/metrics';
+import type { FlagDto, FrameResultDto } from '@shared/schemas/frames.schema';
+import type { Flag } from '../entities/flag.entity';
+import type { FrameResult } from '../entities/frame-result.entity';
+
+export function toFrameDto(row: FrameResult): FrameResultDto {
+  return {
+    frameIndex: row.frameIndex,
+    timeMs: row.timeMs,
+    keypoints: row.keypoints,
+    metrics: row.metrics as Record<MetricKey, number | null>,
+    reasons: row.reasons as Partial<Record<MetricKey, string>>,
+    corrected: row.corrected,
+  };
+}
+
+export function toFlagDto(row: Flag): FlagDto {
+  return {
+    id: row.id,
+    model: row.model,
+    metric: row.metric as FlagDto['metric'],
+    value: row.value,
+    min: row.bandMin,
+    max: row.bandMax,
+    distance: row.distance,
+    side: row.severity === 'low' ? 'below' : 'above',
+    frameIndex: row.frameIndex,
+    turnIndex: row.turnIndex,
+  };
+}

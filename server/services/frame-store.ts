@@ -1,0 +1,323 @@
+import type { UnitOfWork } from '../repositories/unit-of-work';
+import { randomUUID } from 'node:crypto';
+import type { EntityManager } from 'typeorm';
+import { alignToLine } from '@shared/geometry';
+import type { PoseModelName } from '@shared/keypoints';
+import type { MetricKey } from '@shared/metrics';
+import type {
+  ClipFramesResponse,
+  ClipSeriesDto,
+  FrameBatchInput,
+  FrameBatchResponse,
+  FrameCorrectionInput,
+  FrameResultResponse,
+} from '@shared/schemas/frames.schema';
+import { analyzeSeries, estimateFrameRate, type SeriesResult } from '@shared/series';
+import { evaluateFrame, evaluateSeries, type ToleranceFlag } from '@shared/tolerance';
+import type { Clip } from '../entities/clip.entity';
+import type { Flag } from '../entities/flag.entity';
+import type { FrameResult } from '../entities/frame-result.entity';
+import { HttpError, badRequest, conflict } from '../errors';
+import { toFlagDto, toFrameDto } from '../mappers/frame.mapper';
+import { loadMeasureContext, measureFrame, type BandSource, type ClipMeasureContext } from './clip-measure';
+import type { Clock } from './principal';
+import { SeriesCache } from './series-cache';
+
+/**
+ * Stored pose results of a clip: batches from the browser, corrections, the snow line and view.
+ * Metrics are always recomputed here from keypoints (client numbers are never stored), and the
+ * tolerance bands of the clip's age group turn them into flags. Callers check access first
+ * (ClipAnalysisService); the demo seed writes through here too.
+ */
+export class FrameStore {
+  private readonly seriesCache = new SeriesCache();
+
+  constructor(
+    private readonly uow: UnitOfWork,
+    private readonly bands: BandSource,
+    private readonly clock: Clock,
+  ) {}
+
+  async storeBatch(clip: Clip, batch: FrameBatchInput): Promise<FrameBatchResponse> {
+    this.requireReady(clip);
+    this.checkFrameRange(
+      clip,
+      batch.frames.map((f, i) => ({ frameIndex: f.frameIndex, path: ['frames', i, 'frameIndex'] })),
+    );
+    const now = this.clock.now();
+    const result = await this.uow.transaction(async (manager) => {
+      const ctx = await this.measureContext(manager, clip);
+      const repo = this.uow.of(manager).frames;
+      const existing = new Map(
+        (
+          await repo.findByFrames(
+            clip.id,
+            batch.model,
+            batch.frames.map((f) => f.frameIndex),
+          )
+        ).map((r) => [r.frameIndex, r]),
+      );
+      const inserts: FrameResult[] = [];
+      const written: FrameResult[] = [];
+      for (const frame of batch.frames) {
+        const prior = existing.get(frame.frameIndex);
+        // A coach's correction outranks any later detection of the same frame.
+        if (prior?.corrected && !frame.corrected) continue;
+        const m = measureFrame(frame.keypoints, ctx, frame.frameIndex);
+        const row: FrameResult = {
+          id: prior?.id ?? randomUUID(),
+          clipId: clip.id,
+          frameIndex: frame.frameIndex,
+          timeMs: frame.timeMs,
+          model: batch.model,
+          keypoints: frame.keypoints,
+          metrics: m.metrics,
+          reasons: m.reasons as Record<string, string>,
+          corrected: frame.corrected ?? false,
+          createdAt: prior?.createdAt ?? now,
+          updatedAt: now,
+        };
+        if (prior) {
+          await repo.update(prior.id, {
+            timeMs: row.timeMs,
+            keypoints: row.keypoints,
+            metrics: row.metrics,
+            reasons: row.reasons,
+            corrected: row.corrected,
+            updatedAt: now,
+          });
+        } else inserts.push(row);
+        written.push(row);
+      }
+      await repo.insertMany(inserts);
+      await this.replaceFrameFlags(manager, clip, batch.model, ctx, written);
+      // Turns need the whole clip: refresh them once the batch reaching the clip's end arrives.
+      const last = clip.frameCount !== null ? clip.frameCount - 1 : null;
+      if (last !== null && batch.frames.some((f) => f.frameIndex === last)) {
+        await this.refreshSeries(manager, clip, batch.model, ctx);
+      } else this.forget(clip.id, batch.model);
+      return { stored: written.length, flags: await this.uow.of(manager).flags.count(clip.id, batch.model) };
+    });
+    return result;
+  }
+
+  async correct(
+    clip: Clip,
+    frameIndex: number,
+    body: FrameCorrectionInput,
+    record: (manager: EntityManager) => Promise<void>,
+  ): Promise<FrameResultResponse> {
+    this.requireReady(clip);
+    this.checkFrameRange(clip, [{ frameIndex, path: ['frameIndex'] }]);
+    const now = this.clock.now();
+    return this.uow.transaction(async (manager) => {
+      const ctx = await this.measureContext(manager, clip);
+      const repo = this.uow.of(manager).frames;
+      const prior = await repo.findOne(clip.id, body.model, frameIndex);
+      const timeMs = body.timeMs ?? prior?.timeMs ?? (clip.fps ? (frameIndex * 1000) / clip.fps : null);
+      if (timeMs === null)
+        throw badRequest('time_unknown', 'Send timeMs: the clip’s frame rate is not known');
+      const m = measureFrame(body.keypoints, ctx, frameIndex);
+      const row: FrameResult = {
+        id: prior?.id ?? randomUUID(),
+        clipId: clip.id,
+        frameIndex,
+        timeMs,
+        model: body.model,
+        keypoints: body.keypoints,
+        metrics: m.metrics,
+        reasons: m.reasons as Record<string, string>,
+        corrected: true,
+        createdAt: prior?.createdAt ?? now,
+        updatedAt: now,
+      };
+      if (prior) {
+        await repo.update(prior.id, {
+          timeMs,
+          keypoints: row.keypoints,
+          metrics: row.metrics,
+          reasons: row.reasons,
+          corrected: true,
+          updatedAt: now,
+        });
+      } else await repo.insertMany([row]);
+      await this.replaceFrameFlags(manager, clip, body.model, ctx, [row]);
+      // Turns need the whole clip (about a second for 3,000 frames): they are refreshed on the
+      // next read, so the corrected numbers come back at once.
+      this.forget(clip.id, body.model);
+      await record(manager);
+      return { frame: toFrameDto(row) };
+    });
+  }
+
+  async read(clip: Clip, model?: PoseModelName): Promise<ClipFramesResponse> {
+    const chosen = model ?? clip.defaultModel;
+    const repos = this.uow.repos;
+    const frames = await repos.frames.listByClip(clip.id, chosen);
+    let series: ClipSeriesDto | null = null;
+    if (frames.length > 0) {
+      const ctx = await this.measureContext(repos.manager, clip);
+      const cached = this.seriesCache.get(clip.id, chosen, SeriesCache.stampOf(clip, frames, ctx));
+      series =
+        cached !== undefined
+          ? cached
+          : await this.uow.transaction((m) => this.refreshSeries(m, clip, chosen, ctx, frames));
+    }
+    const flags = await repos.flags.list(clip.id, chosen);
+    return { model: chosen, frames: frames.map(toFrameDto), series, flags: flags.map(toFlagDto) };
+  }
+
+  /** Every stored frame of every model of the clip, measured again with the clip's current view and line. */
+  async recomputeClip(manager: EntityManager, clip: Clip, now: Date): Promise<void> {
+    const ctx = await this.measureContext(manager, clip);
+    const repo = this.uow.of(manager).frames;
+    const all = await repo.listByClip(clip.id);
+    const byModel = new Map<PoseModelName, FrameResult[]>();
+    for (const row of all) {
+      const m = measureFrame(row.keypoints, ctx, row.frameIndex);
+      row.metrics = m.metrics;
+      row.reasons = m.reasons as Record<string, string>;
+      row.updatedAt = now;
+      await repo.update(row.id, { metrics: row.metrics, reasons: row.reasons, updatedAt: now });
+      const list = byModel.get(row.model) ?? [];
+      list.push(row);
+      byModel.set(row.model, list);
+    }
+    await this.uow.of(manager).flags.deleteAll(clip.id);
+    for (const [model, rows] of byModel) {
+      await this.replaceFrameFlags(manager, clip, model, ctx, rows);
+      await this.refreshSeries(manager, clip, model, ctx, rows);
+    }
+  }
+
+  private requireReady(clip: Clip): void {
+    if (clip.status !== 'ready') {
+      throw conflict(
+        'clip_not_ready',
+        clip.status === 'failed'
+          ? `This clip could not be processed (${clip.failureReason ?? 'no reason recorded'}); results cannot be stored`
+          : 'The clip is still being processed; store results once it is ready',
+      );
+    }
+  }
+
+  checkFrameRange(clip: Clip, frames: { frameIndex: number; path: (string | number)[] }[]): void {
+    if (clip.frameCount === null) return;
+    const count = clip.frameCount;
+    const issues = frames
+      .filter((f) => f.frameIndex >= count)
+      .map((f) => ({
+        path: f.path,
+        code: 'too_big',
+        message: `frame ${f.frameIndex} is past the clip's last frame (${count - 1})`,
+      }));
+    if (issues.length > 0) {
+      throw new HttpError(
+        400,
+        'validation_failed',
+        issues
+          .slice(0, 5)
+          .map((i) => `${i.path.join('.')}: ${i.message}`)
+          .join('; '),
+        { issues },
+      );
+    }
+  }
+
+  private measureContext(manager: EntityManager, clip: Clip): Promise<ClipMeasureContext> {
+    return loadMeasureContext(this.uow.of(manager), this.bands, clip, manager);
+  }
+
+  private flagRow(
+    clip: Clip,
+    model: PoseModelName,
+    ctx: ClipMeasureContext,
+    flag: ToleranceFlag,
+    frameResultId: string | null,
+  ): Flag {
+    const band = ctx.bands.find((b) => b.band.metric === flag.metric);
+    return {
+      id: randomUUID(),
+      clipId: clip.id,
+      frameResultId,
+      toleranceBandId: band?.row.id ?? null,
+      model,
+      frameIndex: flag.frameIndex ?? 0,
+      turnIndex: flag.turnIndex,
+      metric: flag.metric,
+      value: flag.value,
+      bandMin: flag.min,
+      bandMax: flag.max,
+      distance: flag.distance,
+      severity: flag.side === 'below' ? 'low' : 'high',
+      createdAt: this.clock.now(),
+    };
+  }
+
+  private async replaceFrameFlags(
+    manager: EntityManager,
+    clip: Clip,
+    model: PoseModelName,
+    ctx: ClipMeasureContext,
+    rows: FrameResult[],
+  ): Promise<void> {
+    const flags = this.uow.of(manager).flags;
+    await flags.deleteFrameFlags(
+      clip.id,
+      model,
+      rows.map((r) => r.frameIndex),
+    );
+    const bands = ctx.bands.map((b) => b.band);
+    const fresh = rows.flatMap((row) =>
+      evaluateFrame(row.metrics as Record<MetricKey, number | null>, bands, row.frameIndex).map((f) =>
+        this.flagRow(clip, model, ctx, f, row.id),
+      ),
+    );
+    await flags.insertMany(fresh);
+  }
+
+  /** Series over the stored frames (turns, transitions, summary), cached, with the per-turn flags stored. */
+  private async refreshSeries(
+    manager: EntityManager,
+    clip: Clip,
+    model: PoseModelName,
+    ctx: ClipMeasureContext,
+    known?: FrameResult[],
+  ): Promise<ClipSeriesDto | null> {
+    const repos = this.uow.of(manager);
+    const frames = known ?? (await repos.frames.listByClip(clip.id, model));
+    const fps = clip.fps && clip.fps > 0 ? clip.fps : estimateFrameRate(frames);
+    let result: SeriesResult | null = null;
+    if (frames.length > 0 && fps) {
+      result = analyzeSeries(
+        frames.map((f) => {
+          const own = ctx.frameLines.get(f.frameIndex);
+          const keypoints = own ? alignToLine(f.keypoints, own, ctx.referenceLine) : f.keypoints;
+          return { frameIndex: f.frameIndex, timeMs: f.timeMs, keypoints };
+        }),
+        { view: ctx.view, referenceLine: ctx.referenceLine, fps },
+      );
+    }
+    const flags = repos.flags;
+    await flags.deleteTurnFlags(clip.id, model);
+    if (result) {
+      const turnBands = ctx.bands.filter((b) => b.band.metric === 'transitionRise').map((b) => b.band);
+      const turnFlags = evaluateSeries({ ...result, frames: [] }, turnBands);
+      await flags.insertMany(turnFlags.map((f) => this.flagRow(clip, model, ctx, f, null)));
+    }
+    const series: ClipSeriesDto | null = result
+      ? {
+          turns: result.turns,
+          transitions: result.transitions,
+          summary: result.summary,
+          filter: result.filter,
+        }
+      : null;
+    this.seriesCache.remember(clip.id, model, SeriesCache.stampOf(clip, frames, ctx), series);
+    return series;
+  }
+
+  private forget(clipId: string, model: PoseModelName): void {
+    this.seriesCache.forget(clipId, model);
+  }
+}
