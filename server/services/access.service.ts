@@ -1,39 +1,12 @@
+import { hasPermission, type Permission } from '@shared/access/permissions';
+import type { UnitOfWork } from '../repositories/unit-of-work';
 import type { Role } from '@shared/schemas/auth.schema';
-import type { DataSource } from 'typeorm';
 import type { Athlete } from '../entities/athlete.entity';
 import { forbidden } from '../errors';
-import { AthleteRepository } from '../repositories/athlete.repository';
 import type { Principal } from './principal';
 
-/**
- * The role table of the product, in one place. Routes name the permission they need
- * (`authorize(...)`), services narrow records to the caller's reach with the helpers below.
- *
- * - head coach: everything in the club
- * - coach: athletes of the age groups they coach (upload, consent, invitations); reads club sessions
- * - athlete: only their own record and clips
- * - guardian: read-only view of their own children
- * - analyst: read-only across the club, no contact details of minors, creates nothing
- */
-export const PERMISSIONS = {
-  'me:read': ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'],
-  'age_group:read': ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'],
-  'athlete:read': ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'],
-  'athlete:create': ['head_coach', 'coach'],
-  'athlete:consent': ['head_coach', 'coach'],
-  'session:read': ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'],
-  'session:create': ['head_coach', 'coach'],
-  'clip:read': ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'],
-  'clip:upload': ['head_coach', 'coach'],
-  'clip:analyse': ['head_coach', 'coach'],
-  'note:read': ['head_coach', 'coach', 'analyst'],
-  'note:write': ['head_coach', 'coach'],
-  'tolerance:read': ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'],
-  'invitation:create': ['head_coach', 'coach'],
-  'club:members': ['head_coach'],
-} as const satisfies Record<string, readonly Role[]>;
-
-export type Permission = keyof typeof PERMISSIONS;
+// The role table itself is shared with the client (shared/access/permissions.ts): routes name the
+// permission they need (`authorize(...)`), services narrow records to the caller's reach below.
 
 const FORBIDDEN_MESSAGES: Record<Permission, string> = {
   'me:read': 'Sign in first',
@@ -51,17 +24,16 @@ const FORBIDDEN_MESSAGES: Record<Permission, string> = {
   'tolerance:read': 'Your role cannot view tolerance bands',
   'invitation:create': 'Only coaches and the head coach can invite members',
   'club:members': 'Only the head coach can see the member list',
+  'section:home': 'Your role has no home page of its own',
+  'section:athletes': 'Your role cannot browse the athlete list',
+  'section:sessions': 'Your role cannot browse training sessions',
 };
 
 /** Roles that see every athlete of their club. */
 const CLUB_WIDE_READERS: readonly Role[] = ['head_coach', 'analyst'];
 
-export function hasPermission(role: Role, permission: Permission): boolean {
-  return (PERMISSIONS[permission] as readonly Role[]).includes(role);
-}
-
 export class AccessService {
-  constructor(private readonly dataSource: DataSource) {}
+  constructor(private readonly uow: UnitOfWork) {}
 
   require(principal: Principal, permission: Permission): void {
     if (!hasPermission(principal.role, permission)) throw forbidden(FORBIDDEN_MESSAGES[permission]);
@@ -74,10 +46,7 @@ export class AccessService {
       case 'analyst':
         return null;
       case 'coach':
-        return new AthleteRepository(this.dataSource.manager).idsInAgeGroups(
-          principal.clubId,
-          principal.coachedAgeGroupIds,
-        );
+        return this.uow.repos.athletes.idsInAgeGroups(principal.clubId, principal.coachedAgeGroupIds);
       case 'athlete':
         return principal.athleteId ? [principal.athleteId] : [];
       case 'guardian':

@@ -1,7 +1,9 @@
+import { hasPermission, type Permission } from '@shared/access/permissions';
 import type { Role } from '@shared/schemas/auth.schema';
 import { paths } from '@/config/paths';
 
-// The client's copy of the role table in PRODUCT.md. It only hides what the server refuses anyway.
+// What the client hides, read from the server's own role table (shared/access); it only hides what the
+// server refuses anyway.
 export type Capability =
   | 'home.view'
   | 'athletes.view'
@@ -13,30 +15,17 @@ export type Capability =
   | 'clips.analyse'
   | 'club.manage';
 
-const CAPABILITIES: Record<Role, readonly Capability[]> = {
-  head_coach: [
-    'home.view',
-    'athletes.view',
-    'athletes.create',
-    'consent.record',
-    'sessions.view',
-    'sessions.create',
-    'clips.upload',
-    'clips.analyse',
-    'club.manage',
-  ],
-  coach: [
-    'athletes.view',
-    'athletes.create',
-    'consent.record',
-    'sessions.view',
-    'sessions.create',
-    'clips.upload',
-    'clips.analyse',
-  ],
-  analyst: ['athletes.view', 'sessions.view'],
-  athlete: ['home.view'],
-  guardian: ['home.view'],
+// Each control the client hides maps onto a row of the one role table the server enforces.
+const CAPABILITY_PERMISSION: Record<Capability, Permission> = {
+  'home.view': 'section:home',
+  'athletes.view': 'section:athletes',
+  'athletes.create': 'athlete:create',
+  'consent.record': 'athlete:consent',
+  'sessions.view': 'section:sessions',
+  'sessions.create': 'session:create',
+  'clips.upload': 'clip:upload',
+  'clips.analyse': 'clip:analyse',
+  'club.manage': 'club:members',
 };
 
 export const ROLE_LABELS: Record<Role, string> = {
@@ -48,7 +37,7 @@ export const ROLE_LABELS: Record<Role, string> = {
 };
 
 export function can(role: Role, capability: Capability): boolean {
-  return CAPABILITIES[role].includes(capability);
+  return hasPermission(role, CAPABILITY_PERMISSION[capability]);
 }
 
 export interface NavItem {

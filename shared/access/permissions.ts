@@ -1,0 +1,40 @@
+import type { Role } from '../schemas/auth.schema';
+
+/**
+ * The role table of the product, in one place for the server and the client. The server checks it on
+ * every route (`authorize(permission)`) and then narrows records to the caller's reach; the client reads
+ * the same table to hide what the server would refuse, and to choose the sections each role sees.
+ *
+ * - head coach: everything in the club
+ * - coach: athletes of the age groups they coach (upload, consent, invitations); reads club sessions
+ * - athlete: only their own record and clips
+ * - guardian: read-only view of their own children
+ * - analyst: read-only across the club, no contact details of minors, creates nothing
+ */
+export const PERMISSIONS = {
+  'me:read': ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'],
+  'age_group:read': ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'],
+  'athlete:read': ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'],
+  'athlete:create': ['head_coach', 'coach'],
+  'athlete:consent': ['head_coach', 'coach'],
+  'session:read': ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'],
+  'session:create': ['head_coach', 'coach'],
+  'clip:read': ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'],
+  'clip:upload': ['head_coach', 'coach'],
+  'clip:analyse': ['head_coach', 'coach'],
+  'note:read': ['head_coach', 'coach', 'analyst'],
+  'note:write': ['head_coach', 'coach'],
+  'tolerance:read': ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'],
+  'invitation:create': ['head_coach', 'coach'],
+  'club:members': ['head_coach'],
+  // Sections of the app: which pages a role is sent to. The reads behind them are the rows above.
+  'section:home': ['head_coach', 'athlete', 'guardian'],
+  'section:athletes': ['head_coach', 'coach', 'analyst'],
+  'section:sessions': ['head_coach', 'coach', 'analyst'],
+} as const satisfies Record<string, readonly Role[]>;
+
+export type Permission = keyof typeof PERMISSIONS;
+
+export function hasPermission(role: Role, permission: Permission): boolean {
+  return (PERMISSIONS[permission] as readonly Role[]).includes(role);
+}
