@@ -1,5 +1,5 @@
 import { execFile } from 'node:child_process';
-import { FFMPEG_PATH } from '../pose/media-tools';
+import { FFMPEG_PATH } from './media-tools';
 
 /** ffmpeg exited with an error; `detail` is the last lines it printed, for logs and coach-facing reasons. */
 export class FfmpegError extends Error {

@@ -1,6 +1,6 @@
 import { execFile } from 'node:child_process';
 import { promisify } from 'node:util';
-import ffprobe from '@ffprobe-installer/ffprobe';
+import { FFPROBE_PATH } from './media-tools';
 
 const run = promisify(execFile);
 
@@ -51,7 +51,7 @@ function positive(text: string | undefined): number | null {
 
 async function ffprobeJson(filePath: string, extra: string[]): Promise<FfprobeOutput> {
   const { stdout } = await run(
-    ffprobe.path,
+    FFPROBE_PATH,
     [
       '-v',
       'error',
@@ -69,7 +69,16 @@ async function ffprobeJson(filePath: string, extra: string[]): Promise<FfprobeOu
   return JSON.parse(stdout) as FfprobeOutput;
 }
 
-/** Reads the first video stream's codec, size, rate and length; null when the file has none. */
+/** ffprobe's own last word on a file it could not read (its last stderr line), for messages. */
+export function probeFailureText(error: unknown): string {
+  const stderr = String((error as { stderr?: string })?.stderr ?? '').trim();
+  return stderr.split('\n').pop() || (error instanceof Error ? error.message : String(error));
+}
+
+/**
+ * Reads the first video stream's codec, size, rate and length; null when the file has none. The one
+ * ffprobe wrapper of the project: the media pipeline and the analyze CLI both read files through it.
+ */
 export async function probeVideo(filePath: string): Promise<VideoProbe | null> {
   let output = await ffprobeJson(filePath, []);
   let stream = output.streams?.find((s) => s.codec_type === 'video');

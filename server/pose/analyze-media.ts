@@ -9,7 +9,8 @@ import type { Keypoint, PoseModelName } from '@shared/keypoints';
 import { scaleKeypoints } from '@shared/pose/keypoint-mapping';
 import { decodeImageFile } from './image-decode';
 import { getNodePoseDetector } from './node-detector';
-import { decodeVideoFrames, probeVideo, VideoDecodeError, VideoProbeError } from './video-frames';
+import { probeFailureText, probeVideo } from '../media/probe';
+import { decodeVideoFrames, VideoDecodeError } from './video-frames';
 
 export interface MediaFrame {
   frame: number | null;
@@ -84,10 +85,13 @@ async function* analyzeImage(path: string, opts: AnalyzeMediaOptions): AsyncGene
 
 async function* analyzeVideo(path: string, opts: AnalyzeMediaOptions): AsyncGenerator<MediaFrame> {
   let info;
+  let why = 'no video stream';
   try {
     info = await probeVideo(path);
   } catch (error) {
-    const why = error instanceof VideoProbeError ? error.message : String(error);
+    why = probeFailureText(error);
+  }
+  if (!info) {
     throw new MediaInputError(
       `not an image or a video that can be read (${why}); use a PNG/JPEG image or a video file such as MP4, MOV or WebM`,
     );

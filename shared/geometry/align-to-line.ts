@@ -7,7 +7,11 @@ import { referenceFrame } from './reference-frame';
  * points and line together changes none: a frame with its own line enters the clip's series as if
  * it had been filmed against the clip's line (docs/metrics.md, "Snow line").
  */
-export function alignToLine(keypoints: Keypoint[], from: ReferenceLine, to: ReferenceLine | null): Keypoint[] {
+export function alignToLine(
+  keypoints: Keypoint[],
+  from: ReferenceLine,
+  to: ReferenceLine | null,
+): Keypoint[] {
   const a = referenceFrame(from).along;
   const b = referenceFrame(to).along;
   // Angle from a to b in the y-up frame; image y points down, so the turn is applied to (x, -y).

@@ -6,7 +6,7 @@ import { join } from 'node:path';
 import { promisify } from 'node:util';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { analyzeMediaFile, MediaInputError, type MediaFrame } from '@server/pose/analyze-media';
-import { FFMPEG_PATH } from '@server/pose/media-tools';
+import { FFMPEG_PATH } from '@server/media/media-tools';
 import { encodeClip, frontTurnsClip, type ClipSpec } from '../../fixtures/phantom/phantom-clip';
 import { renderPhantom } from '../../fixtures/phantom/render-phantom';
 import { PHANTOM_CASES } from './phantom-cases';

@@ -6,7 +6,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { promisify } from 'node:util';
 import type { ClipDto } from '@shared/schemas/clip.schema';
-import { FFMPEG_PATH } from '@server/pose/media-tools';
+import { FFMPEG_PATH } from '@server/media/media-tools';
 import type { TestServer } from '../helpers/server-harness';
 
 const run = promisify(execFile);

@@ -10,7 +10,7 @@ import { derivativeKeys } from '@server/media/clip-processor';
 import { probeVideo } from '@server/media/probe';
 import { keyframeInterval } from '@server/media/proxy';
 import { thumbnailPlan } from '@server/media/thumbnails';
-import { FFPROBE_PATH } from '@server/pose/media-tools';
+import { FFPROBE_PATH } from '@server/media/media-tools';
 import { ClipRepository } from '@server/repositories/clip.repository';
 import { createTestServer, type TestServer } from '../helpers/server-harness';
 import {
