@@ -65,7 +65,8 @@ export interface PoseDetector {
   dispose(): void;
 }
 
-const now = (): number => globalThis.performance.now();
+// A global in browsers, workers and Node alike; shared/ compiles without DOM or Node types, so it is named here.
+const now = (): number => (globalThis as unknown as { performance: { now(): number } }).performance.now();
 
 /** Selects the first backend in `backends` that initialises, and returns its name. */
 export async function selectBackend(tf: TfCore, backends: readonly string[]): Promise<string> {

@@ -116,11 +116,6 @@ export const updateClipSchema = z
   .refine((v) => Object.values(v).some((x) => x !== undefined), 'Change at least one setting');
 export type UpdateClipInput = z.input<typeof updateClipSchema>;
 
-export const mediaVariantQuerySchema = z.object({
-  variant: z.enum(['playable', 'original']).default('playable'),
-  token: z.string().optional(),
-});
-
 export interface ClipListResponse {
   clips: ClipDto[];
 }
