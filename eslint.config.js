@@ -4,7 +4,7 @@ import boundaries from 'eslint-plugin-boundaries';
 import reactHooks from 'eslint-plugin-react-hooks';
 import tseslint from 'typescript-eslint';
 
-// The layers of STYLE.md, enforced on every import: shared/ serves client, server and CLI and imports
+// The project's layers, enforced on every import: shared/ serves client, server and CLI and imports
 // none of them; client features import no other feature (they meet in src/app); client-wide code
 // imports no feature; server routes reach the database only through services.
 const SERVER = ['server', 'server-routes', 'server-repositories'];

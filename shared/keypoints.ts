@@ -1,5 +1,5 @@
 // Keypoint names and the frame input every measurement starts from.
-// Coordinates are image pixels, x to the right, y down (METRICS.md "Frames of reference").
+// Coordinates are image pixels, x to the right, y down (docs/metrics.md "Frames of reference").
 
 export const COCO17_NAMES = [
   'nose',
@@ -84,7 +84,7 @@ export const POSE_MODELS: readonly PoseModelName[] = ['lightning', 'thunder', 'b
 /** Two image points (pixels, y down) along the snow surface. */
 export type ReferenceLine = [[number, number], [number, number]];
 
-/** Default confidence floor below which a keypoint counts as missing (METRICS.md). */
+/** Default confidence floor below which a keypoint counts as missing (docs/metrics.md). */
 export const DEFAULT_CONFIDENCE_FLOOR = 0.3;
 
 export interface FrameInput {

@@ -8,7 +8,7 @@ import {
   type MetricKey,
 } from '@shared/metrics';
 
-/** One output line of the command-line contract (METRICS.md). */
+/** One output line of the command-line contract (docs/metrics.md). */
 export interface FrameReport {
   file: string;
   frame: number | null;

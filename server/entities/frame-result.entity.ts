@@ -10,7 +10,7 @@ export interface FrameResult {
   timeMs: number;
   model: PoseModelName;
   keypoints: Keypoint[];
-  /** Metric name -> value (units per METRICS.md); recomputed on the server from keypoints. */
+  /** Metric name -> value (units per docs/metrics.md); recomputed on the server from keypoints. */
   metrics: Record<string, number | null>;
   /** Metric name -> why it is null ("missing: left_knee", "wrong view"). */
   reasons: Record<string, string>;

@@ -239,7 +239,7 @@ export const METRIC_DEFINITIONS: Record<MetricKey, MetricDefinition> = {
   ),
 };
 
-/** In the order of the METRICS.md table. */
+/** In the order of the docs/metrics.md table. */
 export const METRIC_KEYS: readonly MetricKey[] = Object.keys(METRIC_DEFINITIONS) as MetricKey[];
 
 export function isMetricKey(key: string): key is MetricKey {

@@ -253,7 +253,7 @@ const COMPUTE: Record<MetricKey, (c: Context) => number> = {
   comForeAft,
 };
 
-/** Every metric of METRICS.md for one frame; null with a reason where it cannot be computed. */
+/** Every metric of docs/metrics.md for one frame; null with a reason where it cannot be computed. */
 export function computeFrameMetrics(input: FrameInput, options: FrameMetricOptions = {}): FrameMetrics {
   const points = new PosePoints(input.keypoints, input.confidenceFloor);
   const frame = referenceFrame(input.referenceLine);

@@ -11,7 +11,7 @@ export interface RawKeypoint {
 /**
  * Maps a model's points to the project's names (shared/keypoints.ts) by output index, so a renamed
  * label upstream cannot silently shift a joint. MoveNet emits the 17 COCO points, BlazePose the 33
- * GHUM points; both orders are fixed by the models (REFERENCES.md section 5).
+ * GHUM points; both orders are fixed by the models (docs/metrics.md, Sources §5).
  * `scaleX`/`scaleY` take points from the detector's input back to the original frame's pixels.
  */
 export function mapKeypoints(raw: readonly RawKeypoint[], scaleX = 1, scaleY = 1): Keypoint[] {

@@ -11,14 +11,14 @@ export interface FilterRecord {
   parameters: Record<string, number>;
 }
 
-/** 6 Hz zero-lag Butterworth, "often considered a standard" for human motion (REFERENCES.md §3). */
+/** 6 Hz zero-lag Butterworth, "often considered a standard" for human motion (docs/metrics.md, Sources §3). */
 export const DEFAULT_CUTOFF_HZ = 6;
-/** One Euro defaults of the reference implementation (Casiez et al. 2012; REFERENCES.md §3). */
+/** One Euro defaults of the reference implementation (Casiez et al. 2012; docs/metrics.md, Sources §3). */
 export const ONE_EURO_DEFAULTS = { minCutoff: 1, beta: 0, dCutoff: 1 } as const;
 
 /**
  * Per-pass cut-off correction for a Butterworth run n times: C = (2^(1/n) - 1)^(1/4); n = 2 gives
- * 0.802 (Winter 2009, via REFERENCES.md §3). It is applied to the pre-warped frequency so the
+ * 0.802 (Winter 2009, via docs/metrics.md, Sources §3). It is applied to the pre-warped frequency so the
  * two passes together are at -3 dB exactly at the wanted cut-off.
  */
 export const twoPassCorrection = (): number => Math.pow(Math.pow(2, 1 / 2) - 1, 1 / 4);

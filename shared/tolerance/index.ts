@@ -61,7 +61,7 @@ function seedBands(ageGroup: AgeGroup): ToleranceBand[] {
   ];
 }
 
-/** Coaching rules of thumb from METRICS.md, labelled common practice, for every age group. */
+/** Coaching rules of thumb from docs/metrics.md, labelled common practice, for every age group. */
 export const DEFAULT_BANDS: ToleranceBand[] = AGE_GROUPS.flatMap(seedBands);
 
 export function bandsForAgeGroup(

@@ -2,7 +2,7 @@ import { readdirSync, statSync } from 'node:fs';
 import { join, relative } from 'node:path';
 import { describe, expect, it } from 'vitest';
 
-// STYLE.md "What we take" 15: file names are kebab-case. (Which layer may import which is the linter's
+// File names are kebab-case. (Which layer may import which is the linter's
 // job: eslint.config.js, tested in tests/lint.)
 const SRC = join(process.cwd(), 'src');
 

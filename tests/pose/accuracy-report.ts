@@ -300,7 +300,7 @@ ${tables}
   shin angle and ankle flexion. Treat ankle-based metrics with their confidence.
 - **BlazePose's heel and foot-tip points do not follow a ski boot**: with them, ankle flexion (foot
   line heel → foot tip) is off by about 20° on average in the side-view table above, while MoveNet's
-  value (foot taken along the snow line, METRICS.md's fallback) is within a few degrees. For skiers in
+  value (foot taken along the snow line, docs/metrics.md's fallback) is within a few degrees. For skiers in
   boots on skis the snow-line fallback is the better foot line.
 - **From behind, left and right get swapped** on most frames: without a face the models read the figure
   as facing the camera. Front-view metrics are signed by the skier's own left, so a swapped frame

@@ -1,5 +1,5 @@
 // The phantom's analytic truth against the project's metrics module on the exact phantom joints: two
-// independent computations of every METRICS.md definition that must agree.
+// independent computations of every docs/metrics.md definition that must agree.
 import { describe, expect, it } from 'vitest';
 import { BLAZEPOSE33_NAMES, type Keypoint, type KeypointName } from '@shared/keypoints';
 import { computeFrameMetrics, METRIC_KEYS } from '@shared/metrics';
@@ -131,7 +131,7 @@ describe('phantom truth', () => {
     // Inclination crosses zero at every listed transition.
     for (const t of transitions) expect(Math.abs(truths[t].metrics.inclination as number)).toBeLessThan(2);
     // The rise: standing tall at one transition. Seen from the front, flexed knees come toward the
-    // camera, so hip-knee-ankle stays nearly straight in the image and METRICS.md's leg extension
+    // camera, so hip-knee-ankle stays nearly straight in the image and docs/metrics.md's leg extension
     // hardly changes (about 1 at every frame); the hip height above the snow shows the rise.
     const others = transitions.filter((t) => t !== riseTransition).map((t) => truths[t].hipHeight);
     for (const t of transitions) expect(truths[t].metrics.legExtension as number).toBeGreaterThan(0.97);

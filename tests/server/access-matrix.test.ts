@@ -3,7 +3,7 @@ import { createTestServer, type DemoRole, type TestServer } from '../helpers/ser
 import { listRoutes } from '../helpers/route-list';
 import { removeVideoFixtures, videoFixture, type VideoFixture } from '../helpers/video-fixture';
 
-// The role table of PRODUCT.md ("People and roles") as expected HTTP statuses, one row per route and
+// The role table (shared/access/permissions.ts, README "Demo sign-ins" for the roles) as expected HTTP statuses, one row per route and
 // target. 404 where the record is outside the caller's reach (403 would confirm it exists), 403 where
 // the caller may see but not change, 401 without a token.
 

@@ -20,8 +20,8 @@ let second: ClipDto;
 /**
  * A front-view frame whose shoulders tilt by a hand-derived angle. Image pixels, y down: the left
  * shoulder (skier's left) at (140, 90), the right at (100, 100). In y-up terms d = left − right =
- * (40, 10), so shoulderTilt = atan2(10, |40|) = 14.036° (METRICS.md definition), 6.036° above the
- * ±8° band of U14 (METRICS.md "Tolerance bands": level shoulders within ±8°).
+ * (40, 10), so shoulderTilt = atan2(10, |40|) = 14.036° (docs/metrics.md definition), 6.036° above the
+ * ±8° band of U14 (docs/metrics.md "Tolerance bands": level shoulders within ±8°).
  */
 const TILTED: Keypoint[] = [
   { name: 'left_shoulder', x: 140, y: 90, score: 0.9 },
@@ -422,7 +422,7 @@ describe('whole clip: series, turns and transition flags', () => {
   // The synthetic skier (tests/shared/series/synthetic-clip.ts) leans ±25° with a 1.6 s period, so
   // it turns every 800 ms with transitions at 0, 800, 1600 ms…; legExtension = 0.85 + 0.08·cos(2πt/800)
   // is 0.93 at each transition and 0.77 at each apex: a transition rise of 0.93 − 0.77 = 0.16 by
-  // construction, above the 0.05 band ("no standing tall in the transition", METRICS.md).
+  // construction, above the 0.05 band ("no standing tall in the transition", docs/metrics.md).
   const frames = syntheticClip(SECONDS * FPS, FPS, (t) => ({
     inclinationDeg: 25 * Math.sin((2 * Math.PI * t) / 1600),
     legExtension: 0.85 + 0.08 * Math.cos((2 * Math.PI * t) / 800),

@@ -23,7 +23,7 @@ async function bands(query = ''): Promise<ToleranceBandDto[]> {
 const pick = (list: ToleranceBandDto[], metric: string) => list.find((b) => b.metric === metric)!;
 
 describe('GET /api/tolerance-bands', () => {
-  it('has the common-practice set of METRICS.md for each age group of the club', async () => {
+  it('has the common-practice set of docs/metrics.md for each age group of the club', async () => {
     const u14 = await bands(`?ageGroupId=${await server.ageGroupId('U14')}`);
     const expected = DEFAULT_BANDS.filter((b) => b.ageGroup === 'U14');
     expect(u14).toHaveLength(expected.length);
@@ -36,7 +36,7 @@ describe('GET /api/tolerance-bands', () => {
         source: 'common practice',
       });
     }
-    // METRICS.md: level shoulders within ±8°, stance width 0.8–1.3, transition rise at most 0.05.
+    // docs/metrics.md: level shoulders within ±8°, stance width 0.8–1.3, transition rise at most 0.05.
     expect(pick(u14, 'shoulderTilt')).toMatchObject({ min: -8, max: 8, view: 'front' });
     expect(pick(u14, 'stanceWidthRatio')).toMatchObject({ min: 0.8, max: 1.3, view: 'front' });
     expect(pick(u14, 'transitionRise')).toMatchObject({ min: null, max: 0.05, view: 'front' });

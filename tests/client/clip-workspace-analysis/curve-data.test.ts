@@ -76,7 +76,7 @@ describe('chart rows', () => {
 });
 
 describe('metrics and values', () => {
-  it('lists the metrics of a view (METRICS.md table)', () => {
+  it('lists the metrics of a view (docs/metrics.md table)', () => {
     expect(metricsForView('front')).toContain('kneeSeparationRatio');
     expect(metricsForView('front')).not.toContain('kneeFlexionLeft');
     expect(metricsForView('side')).toContain('kneeFlexionLeft');

@@ -7,7 +7,7 @@ import {
 } from '@/features/clip-workspace/lib/metric-format';
 import type { ToleranceBand } from '@shared/tolerance';
 
-// Bands as METRICS.md seeds them (common practice): stance 0.8–1.3, shoulder tilt ±8°.
+// Bands as docs/metrics.md seeds them (common practice): stance 0.8–1.3, shoulder tilt ±8°.
 const bands: ToleranceBand[] = [
   {
     metric: 'stanceWidthRatio',

@@ -36,8 +36,8 @@ describe('angle arcs', () => {
     expect(back.anticlockwise).toBe(true);
   });
 
-  it('matches knee flexion for the REFERENCES.md worked example', () => {
-    // REFERENCES.md §1 [D]: y up, knee (0,0), hip (−0.5, 0.866), ankle (−0.5, −0.866) → flexion 60°.
+  it('matches knee flexion for the worked example of docs/metrics.md (Sources §1)', () => {
+    // docs/metrics.md, Sources §1 [D]: y up, knee (0,0), hip (−0.5, 0.866), ankle (−0.5, −0.866) → flexion 60°.
     // On screen (y down) hip (−0.5, −0.866), ankle (−0.5, 0.866). The arc runs from the thigh carried
     // on past the knee (knee − hip) to the shin (ankle − knee); its opening is the flexion.
     const hip: [number, number] = [-0.5, -0.866];

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { ROLES } from '@shared/schemas/auth.schema';
 import { can, landingPathFor, navFor } from '@/lib/permissions';
 
-// Expected sections per role: the role table in PRODUCT.md as the foundation issue spells it out for the
+// Expected sections per role: the role table (shared/access/permissions.ts) as the foundation work spelled it out for the
 // navigation (head coach: all; coach: Athletes, Sessions, Upload; athlete and guardian: Home; analyst:
 // Athletes, Sessions, read-only).
 const NAV: Record<(typeof ROLES)[number], string[]> = {

@@ -39,8 +39,8 @@ describe('angles', () => {
     expect(signedAngle(vec(1, 0), vec(0.5, -S3 / 2))).toBeCloseTo(-60, 10);
   });
 
-  it("follows Winter's segment-angle convention (REFERENCES.md §1, Winter 2009)", () => {
-    // Worked test from REFERENCES.md: y up, facing +x; knee (0,0), hip (-0.5, 0.866), ankle (-0.5, -0.866).
+  it("follows Winter's segment-angle convention (docs/metrics.md, Sources §1, Winter 2009)", () => {
+    // Worked example from docs/metrics.md (Sources §1): y up, facing +x; knee (0,0), hip (-0.5, 0.866), ankle (-0.5, -0.866).
     const knee = vec(0, 0);
     const hip = vec(-0.5, S3 / 2);
     const ankle = vec(-0.5, -S3 / 2);

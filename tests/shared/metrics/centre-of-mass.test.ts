@@ -1,4 +1,4 @@
-// Whole-body centre of mass against a hand calculation from de Leva (1996) (REFERENCES.md §2).
+// Whole-body centre of mass against a hand calculation from de Leva (1996) (docs/metrics.md, Sources §2).
 import { describe, expect, it } from 'vitest';
 import { computeFrameMetrics, DE_LEVA_FEMALE, DE_LEVA_MALE } from '@shared/metrics';
 import { toKeypoints, type Pose } from '../figures';
@@ -87,7 +87,7 @@ describe('centre of mass fore-aft (de Leva 1996 male table)', () => {
         t.headNeck.mass +
         t.trunk.mass +
         2 * (t.upperArm.mass + t.forearm.mass + t.hand.mass + t.thigh.mass + t.shank.mass + t.foot.mass);
-      // REFERENCES.md §2: 1.0000 (male), 0.9999 (female).
+      // docs/metrics.md, Sources §2: 1.0000 (male), 0.9999 (female).
       expect(total).toBeCloseTo(t === DE_LEVA_MALE ? 1 : 0.9999, 6);
     }
   });

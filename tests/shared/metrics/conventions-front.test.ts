@@ -22,7 +22,7 @@ function leaning(dx: number, dy: number, upper: [number, number] = [0, 50]): Pos
   };
 }
 
-describe('inclination (REFERENCES.md §6: boots→CoM line against vertical; steady turn tan i = v²/(gR))', () => {
+describe('inclination (docs/metrics.md, Sources §6: boots→CoM line against vertical; steady turn tan i = v²/(gR))', () => {
   it('reads the lean of a steady turn: 18 m/s on a 25 m radius gives about 53°', () => {
     // [D] tan i = v²/(g·R) = 18² / (9.81 · 25) = 1.3211; place the hip mid 1.3211 units out per unit up.
     const ratio = (18 * 18) / (9.81 * 25);
@@ -42,7 +42,7 @@ describe('inclination (REFERENCES.md §6: boots→CoM line against vertical; ste
   });
 });
 
-describe('angulation (REFERENCES.md §6 [from memory]: inclination minus the upper body’s tilt)', () => {
+describe('angulation (docs/metrics.md, Sources §6 [from memory]: inclination minus the upper body’s tilt)', () => {
   it('equals the inclination when the upper body is upright (all edging from the hips)', () => {
     const m = front(leaning(40, 80, [0, 50]));
     expect(m.upperBodyInclination).toBeCloseTo(0, 9);
@@ -54,7 +54,7 @@ describe('angulation (REFERENCES.md §6 [from memory]: inclination minus the upp
   });
 });
 
-describe('knee angulation (METRICS.md: shin lean minus thigh lean)', () => {
+describe('knee angulation (docs/metrics.md: shin lean minus thigh lean)', () => {
   it('is 0 with thighs and shins in line, positive with knees driven in toward the turn', () => {
     expect(front(leaning(40, 80)).kneeAngulation).toBeCloseTo(0, 9);
     const pose = leaning(40, 80);
@@ -64,7 +64,7 @@ describe('knee angulation (METRICS.md: shin lean minus thigh lean)', () => {
   });
 });
 
-describe('stance width and knee separation (REFERENCES.md §6 [common practice]: stance ≈ hip width)', () => {
+describe('stance width and knee separation (docs/metrics.md, Sources §6 [common practice]: stance ≈ hip width)', () => {
   it('is 1 with feet and knees directly under the hips', () => {
     const pose = leaning(0, 80);
     const m = front(pose);
@@ -80,7 +80,7 @@ describe('stance width and knee separation (REFERENCES.md §6 [common practice]:
   });
 });
 
-describe('shoulder and hip tilt (METRICS.md: against the snow line, + left side higher)', () => {
+describe('shoulder and hip tilt (docs/metrics.md: against the snow line, + left side higher)', () => {
   it('is 0 for level shoulders and +30° with the left shoulder up a 30/60/90 line', () => {
     const pose = leaning(0, 80);
     expect(front(pose).shoulderTilt).toBeCloseTo(0, 9);
@@ -90,7 +90,7 @@ describe('shoulder and hip tilt (METRICS.md: against the snow line, + left side 
   });
 });
 
-describe('leg extension (METRICS.md: 1 = fully straight)', () => {
+describe('leg extension (docs/metrics.md: 1 = fully straight)', () => {
   it('is 1 for straight legs and below 1 once the knees bend', () => {
     const straight = front(leaning(0, 80));
     expect(straight.legExtension).toBeCloseTo(1, 9);

@@ -1,4 +1,4 @@
-// Published conventions, each check naming its source (REFERENCES.md in the design folder).
+// Published conventions, each check naming its source (docs/metrics.md, Sources).
 import { describe, expect, it } from 'vitest';
 import { segmentAngle, vec } from '@shared/geometry';
 import { computeFrameMetrics } from '@shared/metrics';
@@ -35,7 +35,7 @@ function leg(
 const sideMetrics = (pose: Pose) =>
   computeFrameMetrics({ keypoints: toKeypoints(pose), view: 'side' }).metrics;
 
-describe('knee flexion (ISB: Wu et al. 2002 / Grood & Suntay 1983; goniometry, REFERENCES.md §1)', () => {
+describe('knee flexion (ISB: Wu et al. 2002 / Grood & Suntay 1983; goniometry, docs/metrics.md, Sources §1)', () => {
   it('is 0 at full extension', () => {
     expect(sideMetrics(leg(0, 0)).kneeFlexionLeft).toBeCloseTo(0, 9);
   });
@@ -53,7 +53,7 @@ describe('knee flexion (ISB: Wu et al. 2002 / Grood & Suntay 1983; goniometry, R
   });
 });
 
-describe('hip flexion (Winter: hip = θthigh − θtrunk, flexion positive [from memory, REFERENCES.md §1])', () => {
+describe('hip flexion (Winter: hip = θthigh − θtrunk, flexion positive [from memory, docs/metrics.md, Sources §1])', () => {
   it('is 0 standing tall and positive with the trunk folded forward', () => {
     const upright = { ...leg(0, 0) };
     expect(sideMetrics(upright).hipFlexionLeft).toBeCloseTo(0, 9);
@@ -108,7 +108,7 @@ describe("segment angles against the vertical (Winter's convention, subject movi
   });
 });
 
-describe('shin–torso mismatch (coaching rule "back parallel to the shins", common practice; METRICS.md)', () => {
+describe('shin–torso mismatch (coaching rule "back parallel to the shins", common practice; docs/metrics.md)', () => {
   it('is 0 with the trunk parallel to the shin and positive when folded at the waist', () => {
     const pose = leg(30, 60);
     const hip = pose.left_hip!;
@@ -119,7 +119,7 @@ describe('shin–torso mismatch (coaching rule "back parallel to the shins", com
   });
 });
 
-describe('fore-aft foot offset (METRICS.md: + left foot ahead, in shin lengths)', () => {
+describe('fore-aft foot offset (docs/metrics.md: + left foot ahead, in shin lengths)', () => {
   const feet = (leftAhead: number): Pose => ({
     ...leg(30, 60),
     right_ankle: [-leftAhead, 0],

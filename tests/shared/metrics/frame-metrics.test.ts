@@ -31,7 +31,7 @@ const SIDE_ONLY = METRIC_KEYS.filter((k) => METRIC_DEFINITIONS[k].views.join() =
 const FRONT_ONLY = METRIC_KEYS.filter((k) => METRIC_DEFINITIONS[k].views.join() === 'front');
 
 describe('metric table', () => {
-  it('has every METRICS.md key, in table order, with units and views', () => {
+  it('has every docs/metrics.md key, in table order, with units and views', () => {
     expect(METRIC_KEYS).toEqual([
       'kneeFlexionLeft',
       'kneeFlexionRight',

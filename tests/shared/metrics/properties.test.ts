@@ -1,4 +1,4 @@
-// Invariances the definitions promise (METRICS.md): rotation of image and snow line together,
+// Invariances the definitions promise (docs/metrics.md): rotation of image and snow line together,
 // uniform scale, facing the other way, and mirror + left/right swap flipping only the signed leans.
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
@@ -36,7 +36,7 @@ const swapKey = (key: MetricKey): MetricKey =>
       ? key.replace(/Right$/, 'Left')
       : key) as MetricKey;
 
-/** Signed metrics whose sign METRICS.md ties to the skier's left/right (tilts, leans, left − right). */
+/** Signed metrics whose sign docs/metrics.md ties to the skier's left/right (tilts, leans, left − right). */
 const FLIPS_ON_MIRROR_SWAP: ReadonlySet<MetricKey> = new Set<MetricKey>([
   'shoulderTilt',
   'hipTilt',

@@ -15,7 +15,7 @@ function component(y: number[], f: number, fs: number, from: number, to: number)
 const sine = (f: number, fs: number, n: number) =>
   Array.from({ length: n }, (_, i) => Math.sin((2 * Math.PI * f * i) / fs));
 
-describe('zero-lag Butterworth (2nd order, two passes; REFERENCES.md §3 after Winter 2009)', () => {
+describe('zero-lag Butterworth (2nd order, two passes; docs/metrics.md, Sources §3 after Winter 2009)', () => {
   it('uses the published two-pass correction C = (2^(1/2) − 1)^(1/4) ≈ 0.802', () => {
     expect(twoPassCorrection()).toBeCloseTo(0.802, 3);
   });

@@ -14,7 +14,7 @@ import { clip } from '../series/synthetic-clip';
 const nulls = (): Record<MetricKey, number | null> =>
   Object.fromEntries(METRIC_KEYS.map((k) => [k, null])) as Record<MetricKey, number | null>;
 
-describe('default bands (METRICS.md rules of thumb, common practice)', () => {
+describe('default bands (docs/metrics.md rules of thumb, common practice)', () => {
   it('covers every age group with the same six bands, all labelled common practice', () => {
     expect(AGE_GROUPS).toEqual(['U8', 'U10', 'U12', 'U14', 'U16', 'U18', 'Masters']);
     for (const group of AGE_GROUPS) {
@@ -33,7 +33,7 @@ describe('default bands (METRICS.md rules of thumb, common practice)', () => {
     expect(DEFAULT_BANDS.every((b) => b.source === 'common practice')).toBe(true);
   });
 
-  it('uses the METRICS.md numbers', () => {
+  it('uses the docs/metrics.md numbers', () => {
     const u16 = bandsForAgeGroup('U16');
     const get = (metric: string) => u16.find((b) => b.metric === metric)!;
     expect(get('stanceWidthRatio')).toMatchObject({ min: 0.8, max: 1.3 });

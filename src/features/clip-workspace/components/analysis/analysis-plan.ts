@@ -73,7 +73,7 @@ export function formatTimeLeft(ms: number | null): string {
 
 /**
  * Milliseconds per frame used before anything was measured on this computer: the detector times
- * measured with the Node WASM backend on 2 cores (ARCHITECTURE.md "Pose models") plus a seek and a
+ * measured with the Node WASM backend on 2 cores (models/README.md) plus a seek and a
  * frame grab, which takes a few tens of milliseconds in Chromium (common practice).
  */
 export const FALLBACK_MS_PER_FRAME: Record<PoseModelName, number> = {
