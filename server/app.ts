@@ -83,6 +83,8 @@ export function createApp(deps: AppDeps): Express {
   const ctx: RouteContext = {
     config,
     dataSource,
+    uow,
+    clock,
     storage: deps.storage,
     guard: createAuthMiddleware({ secret: deps.jwtSecret, auth, access, tokens }),
     auth,

@@ -22,6 +22,8 @@ import { DataSource } from 'typeorm';
 import { InitialSchema1796163026000 } from '../migrations/1796163026000-initial-schema';
 import { ClipWorkspace1796250000000 } from '../migrations/1796250000000-clip-workspace';
 import { ClipProxySize1796250000001 } from '../migrations/1796250000001-clip-proxy-size';
+import { RateLimitHitEntity } from '../entities/rate-limit-hit.entity';
+import { SessionsAndRateLimits1796260000000 } from '../migrations/1796260000000-sessions-and-rate-limits';
 
 export const ALL_ENTITIES = [
   ClubEntity,
@@ -43,6 +45,7 @@ export const ALL_ENTITIES = [
   InvitationEntity,
   RefreshTokenEntity,
   AuditEventEntity,
+  RateLimitHitEntity,
 ];
 
 // Listed explicitly (no globs): bundlers and tsx cannot resolve migration globs reliably.
@@ -50,6 +53,7 @@ export const ALL_MIGRATIONS = [
   InitialSchema1796163026000,
   ClipWorkspace1796250000000,
   ClipProxySize1796250000001,
+  SessionsAndRateLimits1796260000000,
 ];
 
 /** SQLite through better-sqlite3: WAL journal, foreign keys on (the driver always enables them), no synchronize. */

@@ -46,10 +46,13 @@ export function createAuthMiddleware(deps: {
         audience: ACCESS_AUDIENCE,
         issuer: TOKEN_ISSUER,
       },
-      (payload: { sub?: unknown; ver?: unknown }, done: (err: unknown, user?: Principal | false) => void) => {
+      (
+        payload: { sub?: unknown; ver?: unknown; sid?: unknown },
+        done: (err: unknown, user?: Principal | false) => void,
+      ) => {
         if (typeof payload.sub !== 'string') return done(null, false);
         deps.auth
-          .loadPrincipal(payload.sub, Number(payload.ver))
+          .loadPrincipal(payload.sub, Number(payload.ver), payload.sid)
           .then((principal) => done(null, principal ?? false))
           .catch(done);
       },
@@ -85,7 +88,7 @@ export function createAuthMiddleware(deps: {
       return next(unauthorized('invalid_media_token', 'The media link is for another clip'));
     }
     deps.auth
-      .loadPrincipal(claims.sub, claims.ver)
+      .loadPrincipal(claims.sub, claims.ver, claims.sid)
       .then((principal) => {
         if (!principal) return next(unauthorized('invalid_media_token', 'The media link is no longer valid'));
         req.principal = principal;

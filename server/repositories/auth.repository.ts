@@ -1,5 +1,5 @@
 import type { EntityManager } from 'typeorm';
-import { IsNull } from 'typeorm';
+import { IsNull, MoreThan } from 'typeorm';
 import { InvitationEntity, type Invitation } from '../entities/invitation.entity';
 import { RefreshTokenEntity, type RefreshToken } from '../entities/refresh-token.entity';
 
@@ -17,6 +17,17 @@ export class AuthRepository {
 
   async revokeRefreshToken(id: string, at: Date): Promise<void> {
     await this.manager.update(RefreshTokenEntity, { id, revokedAt: IsNull() }, { revokedAt: at });
+  }
+
+  async revokeSession(sessionId: string, at: Date): Promise<void> {
+    await this.manager.update(RefreshTokenEntity, { sessionId, revokedAt: IsNull() }, { revokedAt: at });
+  }
+
+  /** A session is live while one of its refresh tokens is neither revoked nor expired. */
+  async isSessionLive(sessionId: string, userId: string, now: Date): Promise<boolean> {
+    return this.manager.exists(RefreshTokenEntity, {
+      where: { sessionId, userId, revokedAt: IsNull(), expiresAt: MoreThan(now) },
+    });
   }
 
   async revokeAllRefreshTokens(userId: string, at: Date): Promise<void> {

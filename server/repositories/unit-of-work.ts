@@ -9,6 +9,7 @@ import { FlagRepository } from './flag.repository';
 import { FrameResultRepository } from './frame-result.repository';
 import { MemberRepository } from './member.repository';
 import { NoteRepository } from './note.repository';
+import { RateLimitRepository } from './rate-limit.repository';
 import { ReferenceLineRepository } from './reference-line.repository';
 import { SessionRepository } from './session.repository';
 import { ToleranceBandRepository } from './tolerance-band.repository';
@@ -27,6 +28,7 @@ export interface Repositories {
   readonly frames: FrameResultRepository;
   readonly members: MemberRepository;
   readonly notes: NoteRepository;
+  readonly rateLimits: RateLimitRepository;
   readonly referenceLines: ReferenceLineRepository;
   readonly sessions: SessionRepository;
   readonly toleranceBands: ToleranceBandRepository;
@@ -51,6 +53,7 @@ export function repositoriesFor(manager: EntityManager): Repositories {
       frames: new FrameResultRepository(manager),
       members: new MemberRepository(manager),
       notes: new NoteRepository(manager),
+      rateLimits: new RateLimitRepository(manager),
       referenceLines: new ReferenceLineRepository(manager),
       sessions: new SessionRepository(manager),
       toleranceBands: new ToleranceBandRepository(manager),

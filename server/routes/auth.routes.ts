@@ -1,4 +1,4 @@
-import { Router, type Response } from 'express';
+import { Router, type Request, type Response } from 'express';
 import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
 import {
   loginSchema,
@@ -9,12 +9,16 @@ import {
 } from '@shared/schemas/auth.schema';
 import { HttpError } from '../errors';
 import { principalOf } from '../middleware/auth.middleware';
+import { DatabaseRateLimitStore } from '../middleware/rate-limit-store';
 import { validate } from '../middleware/validate.middleware';
 import type { SignedIn } from '../services/auth.service';
 import type { RouteContext } from './context';
 
 export const REFRESH_COOKIE = 'stanceline_refresh';
 const COOKIE_PATH = '/api/auth';
+const LOGIN_WINDOW_MS = 15 * 60_000;
+/** Sign-in attempts one address may make over all accounts, in multiples of the per-account limit. */
+const ADDRESS_LIMIT_FACTOR = 5;
 
 export function setRefreshCookie(res: Response, signedIn: SignedIn, secure: boolean): LoginResponse {
   res.cookie(REFRESH_COOKIE, signedIn.refreshToken, {
@@ -30,24 +34,42 @@ export function setRefreshCookie(res: Response, signedIn: SignedIn, secure: bool
 export function authRoutes(ctx: RouteContext): Router {
   const router = Router();
   const { guard } = ctx;
-  const loginLimiter = rateLimit({
-    windowMs: 15 * 60_000,
-    limit: ctx.config.loginRateLimit,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    // Per address and e-mail, so one locked-out member does not lock out a shared club network.
-    keyGenerator: (req) =>
-      `${ipKeyGenerator(req.ip ?? 'unknown')}|${typeof req.body?.email === 'string' ? req.body.email.toLowerCase() : ''}`,
-    handler: (_req, _res, next) =>
-      next(
-        new HttpError(429, 'too_many_attempts', 'Too many sign-in attempts; wait 15 minutes and try again'),
-      ),
-  });
+  const limiter = (name: string, limit: number, key: (req: Request) => string) =>
+    rateLimit({
+      windowMs: LOGIN_WINDOW_MS,
+      limit,
+      standardHeaders: 'draft-8',
+      legacyHeaders: false,
+      // Counted in the database: every server process sees the same attempts.
+      store: new DatabaseRateLimitStore(ctx.uow, ctx.clock, `login-${name}:`),
+      keyGenerator: key,
+      handler: (_req, _res, next) =>
+        next(
+          new HttpError(429, 'too_many_attempts', 'Too many sign-in attempts; wait 15 minutes and try again'),
+        ),
+    });
+  const address = (req: Request) => ipKeyGenerator(req.ip ?? 'unknown');
+  // Per address and account, so one locked-out member does not lock out a shared club network. The
+  // e-mail is the one sign-in uses (trimmed, lower case: validation runs first), so spelling it
+  // differently gives no fresh tries.
+  const perAccount = limiter(
+    'account',
+    ctx.config.loginRateLimit,
+    (req) => `${address(req)}|${(req.body as LoginInput).email}`,
+  );
+  // Per address over all accounts, so one address cannot try account after account.
+  const perAddress = limiter('address', ctx.config.loginRateLimit * ADDRESS_LIMIT_FACTOR, address);
 
-  router.post('/api/auth/login', loginLimiter, validate({ body: loginSchema }), async (req, res) => {
-    const signedIn = await ctx.auth.login(req.body as LoginInput);
-    res.json(setRefreshCookie(res, signedIn, ctx.config.cookieSecure));
-  });
+  router.post(
+    '/api/auth/login',
+    validate({ body: loginSchema }),
+    perAddress,
+    perAccount,
+    async (req, res) => {
+      const signedIn = await ctx.auth.login(req.body as LoginInput);
+      res.json(setRefreshCookie(res, signedIn, ctx.config.cookieSecure));
+    },
+  );
 
   router.post('/api/auth/refresh', async (req, res) => {
     const token = (req.cookies as Record<string, string | undefined>)[REFRESH_COOKIE];

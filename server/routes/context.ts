@@ -1,3 +1,5 @@
+import type { UnitOfWork } from '../repositories/unit-of-work';
+import type { Clock } from '../services/principal';
 import type { Config } from '../config';
 import type { AuthMiddleware } from '../middleware/auth.middleware';
 import type { AthleteService } from '../services/athlete.service';
@@ -17,6 +19,9 @@ import type { DataSource } from 'typeorm';
 export interface RouteContext {
   config: Config;
   dataSource: DataSource;
+  /** Repositories for route-level helpers that are not a service (rate-limit counters). */
+  uow: UnitOfWork;
+  clock: Clock;
   storage: ObjectStorage;
   guard: AuthMiddleware;
   auth: AuthService;

@@ -38,13 +38,20 @@ export class AuthService {
     return bcrypt.hash(password, this.bcryptRounds);
   }
 
-  async loadPrincipal(userId: string, tokenVersion?: number): Promise<Principal | null> {
-    const users = this.uow.repos.users;
+  /**
+   * The principal of a token, or null when the token no longer counts: its user is gone, its token
+   * version was bumped (sign-out everywhere, a leaked refresh token), or its session has ended.
+   */
+  async loadPrincipal(userId: string, tokenVersion: number, sessionId: unknown): Promise<Principal | null> {
+    const { users, auth } = this.uow.repos;
     const user = await users.findById(userId);
     if (!user) return null;
-    if (tokenVersion !== undefined && tokenVersion !== user.tokenVersion) return null;
+    if (tokenVersion !== user.tokenVersion) return null;
+    if (typeof sessionId !== 'string' || !(await auth.isSessionLive(sessionId, userId, this.clock.now()))) {
+      return null;
+    }
     const links = await users.links(user);
-    return { user, role: user.role, clubId: user.clubId, ...links };
+    return { user, role: user.role, clubId: user.clubId, ...links, sessionId };
   }
 
   async login(input: LoginInput): Promise<SignedIn> {
@@ -75,31 +82,32 @@ export class AuthService {
     });
   }
 
-  /** New access token plus a new refresh row, inside the caller's transaction. */
-  async issue(manager: EntityManager, user: User): Promise<SignedIn> {
-    const principal = await this.principalFor(manager, user);
+  /** New access token plus a new refresh row, inside the caller's transaction; a new session unless given. */
+  async issue(manager: EntityManager, user: User, sessionId: string = randomUUID()): Promise<SignedIn> {
+    const principal = await this.principalFor(manager, user, sessionId);
     const refreshToken = newSecretToken();
     const now = this.clock.now();
     const refreshExpiresAt = new Date(now.getTime() + this.refreshTtlMs);
     await this.uow.of(manager).auth.insertRefreshToken({
       id: randomUUID(),
       userId: user.id,
+      sessionId,
       tokenHash: hashSecretToken(refreshToken),
       expiresAt: refreshExpiresAt,
       revokedAt: null,
       createdAt: now,
     });
     return {
-      accessToken: this.tokens.signAccess({ sub: user.id, ver: user.tokenVersion }),
+      accessToken: this.tokens.signAccess({ sub: user.id, ver: user.tokenVersion, sid: sessionId }),
       user: toUserDto(principal),
       refreshToken,
       refreshExpiresAt,
     };
   }
 
-  private async principalFor(manager: EntityManager, user: User): Promise<Principal> {
+  private async principalFor(manager: EntityManager, user: User, sessionId: string): Promise<Principal> {
     const links = await this.uow.of(manager).users.links(user);
-    return { user, role: user.role, clubId: user.clubId, ...links };
+    return { user, role: user.role, clubId: user.clubId, ...links, sessionId };
   }
 
   /** Rotates the refresh token: the presented one is revoked, a new one is issued. */
@@ -113,9 +121,11 @@ export class AuthService {
       if (!row) return unauthorized('invalid_refresh_token', 'Sign in again: the session is not known');
       if (row.revokedAt) {
         // Two tabs refreshing at once present the same token within moments; that is not a replay.
-        // Later reuse means the token leaked: end every session of the user.
+        // Later reuse means the token leaked: end every session of the user, and with the token
+        // version every access token and media link already issued.
         if (now.getTime() - row.revokedAt.getTime() > REUSE_GRACE_MS) {
           await repo.revokeAllRefreshTokens(row.userId, now);
+          await this.uow.of(manager).users.bumpTokenVersion(row.userId);
         }
         return unauthorized('invalid_refresh_token', 'Sign in again: the session has ended');
       }
@@ -126,7 +136,7 @@ export class AuthService {
       const user = await this.uow.of(manager).users.findById(row.userId);
       if (!user) return unauthorized('invalid_refresh_token', 'Sign in again: the account no longer exists');
       await repo.revokeRefreshToken(row.id, now);
-      return this.issue(manager, user);
+      return this.issue(manager, user, row.sessionId);
     });
     if (outcome instanceof HttpError) throw outcome;
     return outcome;
@@ -140,7 +150,8 @@ export class AuthService {
       const row = await repo.findRefreshToken(hashSecretToken(refreshToken));
       if (!row) return;
       const now = this.clock.now();
-      await repo.revokeRefreshToken(row.id, now);
+      // Ending the session ends its access tokens and media links too (they name the session).
+      await repo.revokeSession(row.sessionId, now);
       if (!everywhere) return;
       await repo.revokeAllRefreshTokens(row.userId, now);
       // Access tokens carry the version they were issued under; bumping it voids them at once.

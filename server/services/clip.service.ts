@@ -124,6 +124,7 @@ export class ClipService {
       const token = this.tokens.signMedia({
         sub: principal.user.id,
         ver: principal.user.tokenVersion,
+        sid: principal.sessionId ?? '',
         clip: clip.id,
       });
       const query = `?token=${encodeURIComponent(token)}`;

@@ -9,6 +9,8 @@ export interface Principal {
   athleteId: string | null;
   childAthleteIds: string[];
   coachedAgeGroupIds: string[];
+  /** The sign-in session the request's token belongs to (media links are bound to it too). */
+  sessionId: string | null;
 }
 
 export interface Clock {

@@ -7,13 +7,16 @@ export const TOKEN_ISSUER = 'stanceline';
 
 export interface AccessClaims {
   sub: string;
-  /** The user's token version when issued; a bump (logout everywhere) invalidates it. */
+  /** The user's token version when issued; a bump (logout everywhere, a leaked refresh token) voids it. */
   ver: number;
+  /** The sign-in session; the token stops working when that session ends (logout). */
+  sid: string;
 }
 
 export interface MediaClaims {
   sub: string;
   ver: number;
+  sid: string;
   clip: string;
 }
 
@@ -50,9 +53,14 @@ export class TokenService {
       audience: MEDIA_AUDIENCE,
       issuer: TOKEN_ISSUER,
     });
-    if (typeof payload === 'string' || typeof payload.sub !== 'string' || typeof payload.clip !== 'string') {
+    if (
+      typeof payload === 'string' ||
+      typeof payload.sub !== 'string' ||
+      typeof payload.clip !== 'string' ||
+      typeof payload.sid !== 'string'
+    ) {
       throw new jwt.JsonWebTokenError('malformed media token');
     }
-    return { sub: payload.sub, ver: Number(payload.ver), clip: payload.clip };
+    return { sub: payload.sub, ver: Number(payload.ver), sid: payload.sid, clip: payload.clip };
   }
 }

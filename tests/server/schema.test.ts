@@ -44,6 +44,7 @@ describe('database schema', () => {
         'guardian_link',
         'invitation',
         'note',
+        'rate_limit_hit',
         'reference_line',
         'refresh_token',
         'review',
