@@ -10,6 +10,7 @@ import type { Mailer } from './mail/mailer';
 import type { MediaPipeline } from './services/clip.service';
 import { createAuthMiddleware } from './middleware/auth.middleware';
 import { apiNotFound, createErrorHandler } from './middleware/error.middleware';
+import { DatabaseRateLimitStore } from './middleware/rate-limit-store';
 import { createRequestLogger } from './middleware/request-logger.middleware';
 import { athleteRoutes } from './routes/athletes.routes';
 import { authRoutes } from './routes/auth.routes';
@@ -83,8 +84,7 @@ export function createApp(deps: AppDeps): Express {
   const ctx: RouteContext = {
     config,
     dataSource,
-    uow,
-    clock,
+    rateLimitStore: (prefix) => new DatabaseRateLimitStore(uow, clock, prefix),
     storage: deps.storage,
     guard: createAuthMiddleware({ secret: deps.jwtSecret, auth, access, tokens }),
     auth,

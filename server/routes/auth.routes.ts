@@ -9,7 +9,6 @@ import {
 } from '@shared/schemas/auth.schema';
 import { HttpError } from '../errors';
 import { principalOf } from '../middleware/auth.middleware';
-import { DatabaseRateLimitStore } from '../middleware/rate-limit-store';
 import { validate } from '../middleware/validate.middleware';
 import type { SignedIn } from '../services/auth.service';
 import type { RouteContext } from './context';
@@ -41,7 +40,7 @@ export function authRoutes(ctx: RouteContext): Router {
       standardHeaders: 'draft-8',
       legacyHeaders: false,
       // Counted in the database: every server process sees the same attempts.
-      store: new DatabaseRateLimitStore(ctx.uow, ctx.clock, `login-${name}:`),
+      store: ctx.rateLimitStore(`login-${name}:`),
       keyGenerator: key,
       handler: (_req, _res, next) =>
         next(

@@ -1,5 +1,4 @@
-import type { UnitOfWork } from '../repositories/unit-of-work';
-import type { Clock } from '../services/principal';
+import type { Store } from 'express-rate-limit';
 import type { Config } from '../config';
 import type { AuthMiddleware } from '../middleware/auth.middleware';
 import type { AthleteService } from '../services/athlete.service';
@@ -19,9 +18,8 @@ import type { DataSource } from 'typeorm';
 export interface RouteContext {
   config: Config;
   dataSource: DataSource;
-  /** Repositories for route-level helpers that are not a service (rate-limit counters). */
-  uow: UnitOfWork;
-  clock: Clock;
+  /** A rate-limit counter store shared by every server process (the database), keys under `prefix`. */
+  rateLimitStore(prefix: string): Store;
   storage: ObjectStorage;
   guard: AuthMiddleware;
   auth: AuthService;

@@ -99,10 +99,10 @@ describe('sessions end with logout', () => {
     const token = login.body.accessToken as string;
     const cookie = refreshCookieOf(login);
     const auth = { Authorization: `Bearer ${token}` };
-    const { clips } = (await server.http.get('/api/clips').set(auth)).body as {
-      clips: { mediaUrl: string }[];
+    const { clip } = (await server.http.get(`/api/clips/${clipId}`).set(auth)).body as {
+      clip: { mediaUrl: string };
     };
-    const mediaUrl = clips[0].mediaUrl;
+    const mediaUrl = clip.mediaUrl;
     expect((await server.http.get('/api/me').set(auth)).status).toBe(200);
     expect((await server.http.get(mediaUrl).set('Range', 'bytes=0-15')).status).toBe(206);
 
