@@ -12,6 +12,7 @@ import { createAuthMiddleware } from './middleware/auth.middleware';
 import { apiNotFound, createErrorHandler } from './middleware/error.middleware';
 import { DatabaseRateLimitStore } from './middleware/rate-limit-store';
 import { createRequestLogger } from './middleware/request-logger.middleware';
+import { securityHeaders } from './middleware/security-headers.middleware';
 import { athleteRoutes } from './routes/athletes.routes';
 import { authRoutes } from './routes/auth.routes';
 import { clipAnalysisRoutes } from './routes/clip-analysis.routes';
@@ -112,6 +113,7 @@ export function createApp(deps: AppDeps): Express {
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
   app.use(createRequestLogger(deps.logger));
+  app.use(securityHeaders({ https: publicUrlNow().startsWith('https://') }));
   // A batch of 500 frames of 33 keypoints is about 2 MB of JSON; every other body stays small.
   app.use(['/api/clips/:id/frames', '/api/clips/:id/frames/:frameIndex'], express.json({ limit: '8mb' }));
   app.use(express.json({ limit: '1mb' }));
@@ -129,7 +131,8 @@ export function createApp(deps: AppDeps): Express {
   app.use(invitationRoutes(ctx));
   app.use(clubRoutes(ctx));
   app.use('/api', apiNotFound);
-  if (deps.mailbox) app.use(devMailboxRoutes(deps.mailbox));
+  // Only the embedded fake has a mailbox, and only an explicit setting shows it.
+  if (deps.mailbox && config.devMailbox) app.use(devMailboxRoutes(deps.mailbox));
   app.use(staticRoutes(deps.projectRoot ?? DEFAULT_ROOT));
 
   app.use(createErrorHandler({ maxUploadBytes: config.maxUploadBytes }));

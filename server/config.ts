@@ -68,6 +68,11 @@ const envSchema = z.object({
     .optional()
     .transform((v) => (v === undefined ? undefined : v === 'true')),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+  /**
+   * The /dev/mailbox inbox of the embedded SMTP fake; it holds sign-up links, so it is off unless asked
+   * for ('on', as `npm start` does for the demo) and never served with an SMTP relay or behind a proxy.
+   */
+  DEV_MAILBOX: z.enum(['on', 'off']).default('off'),
 });
 
 export interface Config {
@@ -98,6 +103,7 @@ export interface Config {
   loginRateLimit: number;
   cookieSecure: boolean;
   logLevel: string;
+  devMailbox: boolean;
 }
 
 export class ConfigError extends Error {
@@ -140,5 +146,6 @@ export function loadConfig(env: Record<string, string | undefined>): Config {
     loginRateLimit: e.LOGIN_RATE_LIMIT,
     cookieSecure: e.COOKIE_SECURE ?? Boolean(e.PUBLIC_URL?.startsWith('https://')),
     logLevel: e.LOG_LEVEL,
+    devMailbox: e.DEV_MAILBOX === 'on',
   };
 }

@@ -4,7 +4,9 @@ import path from 'node:path';
 import { pipeline } from 'node:stream/promises';
 import { Transform } from 'node:stream';
 import type { Request, RequestHandler } from 'express';
-import multer, { type StorageEngine } from 'multer';
+import multer, { MulterError, type StorageEngine } from 'multer';
+import { ZodError } from 'zod';
+import { HttpError } from '../errors';
 import type { StagedUpload } from '../services/clip.service';
 
 /** Multer storage that streams each file to a temp folder and hashes it on the way (no buffering). */
@@ -43,7 +45,7 @@ export function createUploadMiddleware(opts: {
   /** Checks the text fields that arrived before the file; a rejection stops the upload before it streams. */
   precheck?: (req: Request) => Promise<void>;
 }): RequestHandler {
-  return multer({
+  const handle = multer({
     storage: hashingDiskStorage(opts.tempDir),
     fileFilter: (req, _file, callback) => {
       if (!opts.precheck) return callback(null, true);
@@ -55,6 +57,23 @@ export function createUploadMiddleware(opts: {
     defParamCharset: 'utf8',
     limits: { fileSize: opts.maxBytes, files: 1, fields: 20, fieldSize: 64 * 1024 },
   }).single('file');
+  return (req, res, next) =>
+    handle(req, res, (error?: unknown) => next(error === undefined ? undefined : asUploadError(error)));
+}
+
+/**
+ * The multipart parser's own complaints (no boundary, a form cut off before its closing boundary, a
+ * broken part header) are the client's mistake: 400 with a message, not a server error. Errors with a
+ * code (disk full, file system) and the checks' own answers pass through unchanged.
+ */
+function asUploadError(error: unknown): unknown {
+  if (error instanceof HttpError || error instanceof MulterError || error instanceof ZodError) return error;
+  if (!(error instanceof Error) || (error as NodeJS.ErrnoException).code !== undefined) return error;
+  return new HttpError(
+    400,
+    'malformed_upload',
+    `The upload is not a complete multipart form (${error.message}); send the fields and one file with multipart/form-data`,
+  );
 }
 
 export function stagedUpload(req: Request): StagedUpload | undefined {

@@ -61,6 +61,11 @@ export function clipRoutes(ctx: RouteContext): Router {
   const upload = createUploadMiddleware({
     tempDir: ctx.config.uploadTempDir,
     maxBytes: ctx.config.maxUploadBytes,
+    // Session, athletes, consent: checked from the fields that precede the file, so a refused upload
+    // is refused before a byte of the video is written.
+    precheck: async (req) => {
+      await ctx.clips.precheck(principalOf(req), req.body);
+    },
   });
 
   router.get(

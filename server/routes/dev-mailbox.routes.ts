@@ -9,9 +9,21 @@ function escapeHtml(text: string): string {
 /** Only mounted while the embedded SMTP fake is in use: a small inbox page of every message sent. */
 const LOOPBACK = new Set(['127.0.0.1', '::1', '::ffff:127.0.0.1']);
 
-// The inbox holds invitation links, which are sign-ups: only the machine itself may read it.
+/** Headers a reverse proxy adds: behind one, every caller arrives from loopback. */
+const PROXY_HEADERS = [
+  'forwarded',
+  'x-forwarded-for',
+  'x-forwarded-host',
+  'x-forwarded-proto',
+  'x-real-ip',
+  'via',
+];
+
+// The inbox holds invitation links, which are sign-ups: only the machine itself may read it, and a
+// request that passed through a proxy is not the machine itself, whatever its socket address.
 const loopbackOnly: RequestHandler = (req, _res, next) => {
-  if (LOOPBACK.has(req.socket.remoteAddress ?? '')) return next();
+  const proxied = PROXY_HEADERS.some((h) => req.headers[h] !== undefined);
+  if (!proxied && LOOPBACK.has(req.socket.remoteAddress ?? '')) return next();
   next(new HttpError(404, 'not_found', 'Not found'));
 };
 

@@ -42,7 +42,12 @@ export class FrameStore {
     this.requireReady(clip);
     this.checkFrameRange(
       clip,
-      batch.frames.map((f, i) => ({ frameIndex: f.frameIndex, path: ['frames', i, 'frameIndex'] })),
+      batch.frames.map((f, i) => ({
+        frameIndex: f.frameIndex,
+        path: ['frames', i, 'frameIndex'],
+        timeMs: f.timeMs,
+        timePath: ['frames', i, 'timeMs'],
+      })),
     );
     const now = this.clock.now();
     const result = await this.uow.transaction(async (manager) => {
@@ -108,7 +113,7 @@ export class FrameStore {
     record: (manager: EntityManager) => Promise<void>,
   ): Promise<FrameResultResponse> {
     this.requireReady(clip);
-    this.checkFrameRange(clip, [{ frameIndex, path: ['frameIndex'] }]);
+    this.checkFrameRange(clip, [{ frameIndex, path: ['frameIndex'], timeMs: body.timeMs }]);
     const now = this.clock.now();
     return this.uow.transaction(async (manager) => {
       const ctx = await this.measureContext(manager, clip);
@@ -201,16 +206,34 @@ export class FrameStore {
     }
   }
 
-  checkFrameRange(clip: Clip, frames: { frameIndex: number; path: (string | number)[] }[]): void {
-    if (clip.frameCount === null) return;
+  checkFrameRange(
+    clip: Clip,
+    frames: {
+      frameIndex: number;
+      path: (string | number)[];
+      timeMs?: number;
+      timePath?: (string | number)[];
+    }[],
+  ): void {
     const count = clip.frameCount;
-    const issues = frames
-      .filter((f) => f.frameIndex >= count)
-      .map((f) => ({
-        path: f.path,
-        code: 'too_big',
-        message: `frame ${f.frameIndex} is past the clip's last frame (${count - 1})`,
-      }));
+    // A frame's time may run one frame past the container's duration (rounding at the end), not more.
+    const lastMs = clip.durationMs === null ? null : clip.durationMs + (clip.fps ? 1000 / clip.fps : 0);
+    const issues = [
+      ...frames
+        .filter((f) => count !== null && f.frameIndex >= count)
+        .map((f) => ({
+          path: f.path,
+          code: 'too_big',
+          message: `frame ${f.frameIndex} is past the clip's last frame (${(count ?? 0) - 1})`,
+        })),
+      ...frames
+        .filter((f) => lastMs !== null && f.timeMs !== undefined && f.timeMs > lastMs)
+        .map((f) => ({
+          path: f.timePath ?? ['timeMs'],
+          code: 'too_big',
+          message: `${f.timeMs} ms is past the clip's end (${clip.durationMs} ms)`,
+        })),
+    ];
     if (issues.length > 0) {
       throw new HttpError(
         400,

@@ -36,6 +36,23 @@ function checkFrame(clip: Clip, frameIndex: number | null | undefined): void {
   }
 }
 
+/** A note's time must fall inside the clip (one frame of slack for rounding at the end). */
+function checkTime(clip: Clip, timeMs: number | undefined): void {
+  if (timeMs === undefined || clip.durationMs === null) return;
+  const lastMs = clip.durationMs + (clip.fps ? 1000 / clip.fps : 0);
+  if (timeMs > lastMs) {
+    throw badRequest(
+      'validation_failed',
+      `timeMs: ${timeMs} ms is past the clip's end (${clip.durationMs} ms)`,
+      {
+        issues: [
+          { path: ['timeMs'], code: 'too_big', message: `past the clip's end (${clip.durationMs} ms)` },
+        ],
+      },
+    );
+  }
+}
+
 function toNoteDto(note: Note, authorName: string | null): NoteDto {
   return {
     id: note.id,
@@ -87,6 +104,7 @@ export class NoteService {
   async create(principal: Principal, clipId: string, input: CreateNoteBody): Promise<NoteResponse> {
     const clip = await this.analysis.findManageable(principal, clipId);
     checkFrame(clip, input.frameIndex);
+    checkTime(clip, input.timeMs);
     const now = this.clock.now();
     const note: Note = {
       id: randomUUID(),
@@ -115,7 +133,9 @@ export class NoteService {
 
   async update(principal: Principal, noteId: string, input: UpdateNoteBody): Promise<NoteResponse> {
     const note = await this.editable(principal, noteId);
-    checkFrame(await this.clips.findVisible(principal, note.clipId), input.frameIndex);
+    const clip = await this.clips.findVisible(principal, note.clipId);
+    checkFrame(clip, input.frameIndex);
+    checkTime(clip, input.timeMs);
     const patch: Partial<Note> = { updatedAt: this.clock.now() };
     if (input.timeMs !== undefined) patch.timeMs = input.timeMs;
     if (input.frameIndex !== undefined) patch.frameIndex = input.frameIndex;

@@ -10,6 +10,9 @@ import type { MetricKey } from '../metrics';
 import type { FilterRecord, SeriesSummary, Turn } from '../series';
 import type { BandMetricKey } from '../tolerance';
 
+/** No training clip is longer: a time past it is a mistake (it also keeps WebVTT cues valid). */
+export const MAX_CLIP_TIME_MS = 6 * 3600 * 1000;
+
 /** Most frames one POST /api/clips/:id/frames may carry. */
 export const MAX_FRAMES_PER_BATCH = 500;
 
@@ -56,7 +59,7 @@ function checkKeypointsForModel(
 
 export const frameUploadSchema = z.object({
   frameIndex: z.number().int('frameIndex is a whole number').min(0),
-  timeMs: z.number().min(0),
+  timeMs: z.number().min(0).max(MAX_CLIP_TIME_MS, 'Times past 6 hours are not clip times'),
   keypoints: keypointListSchema,
   corrected: z.boolean().optional(),
   /** Accepted and ignored: the server computes every metric itself from the keypoints. */
@@ -92,7 +95,7 @@ export const frameCorrectionSchema = z
     model: poseModelSchema,
     keypoints: keypointListSchema,
     /** Needed only when the frame has no stored result yet and the clip's frame rate is unknown. */
-    timeMs: z.number().min(0).optional(),
+    timeMs: z.number().min(0).max(MAX_CLIP_TIME_MS, 'Times past 6 hours are not clip times').optional(),
   })
   .superRefine((body, ctx) => checkKeypointsForModel(body.model, body.keypoints, ctx, ['keypoints']));
 export type FrameCorrectionInput = z.infer<typeof frameCorrectionSchema>;

@@ -1,3 +1,4 @@
+import { MAX_CLIP_TIME_MS } from './frames.schema';
 import { z } from 'zod';
 
 const COORDINATE_LIMIT = 100_000;
@@ -42,7 +43,7 @@ const noteTextSchema = z
   .max(MAX_NOTE_LENGTH, `Keep a note under ${MAX_NOTE_LENGTH} characters`);
 
 export const createNoteSchema = z.object({
-  timeMs: z.number().min(0),
+  timeMs: z.number().min(0).max(MAX_CLIP_TIME_MS, 'Times past 6 hours are not clip times'),
   frameIndex: z.number().int().min(0).nullable().optional(),
   text: noteTextSchema,
   drawing: noteDrawingSchema.nullable().optional(),
@@ -53,7 +54,7 @@ export type CreateNoteBody = z.infer<typeof createNoteSchema>;
 
 export const updateNoteSchema = z
   .object({
-    timeMs: z.number().min(0).optional(),
+    timeMs: z.number().min(0).max(MAX_CLIP_TIME_MS, 'Times past 6 hours are not clip times').optional(),
     frameIndex: z.number().int().min(0).nullable().optional(),
     text: noteTextSchema.optional(),
     drawing: noteDrawingSchema.nullable().optional(),

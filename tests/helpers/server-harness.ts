@@ -62,6 +62,8 @@ export async function createTestServer(env: Record<string, string> = {}): Promis
     BCRYPT_ROUNDS: '4',
     LOGIN_RATE_LIMIT: '1000',
     PUBLIC_URL: 'http://stanceline.test',
+    // As npm start runs it: the embedded SMTP fake's inbox on.
+    DEV_MAILBOX: 'on',
     ...env,
   });
   const runtime = await startRuntime(config);

@@ -1,4 +1,8 @@
+import fs from 'node:fs/promises';
+import { pino } from 'pino';
+import supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { redactUrl } from '@server/middleware/request-logger.middleware';
 import { DEMO_PASSWORD } from '@server/seed/demo-club';
 import { createTestServer, DEMO_EMAILS, type TestServer } from '../helpers/server-harness';
 import { removeRenderedVideos, renderVideo, settled, uploadClip } from './clip-fixtures';
@@ -134,5 +138,163 @@ describe('sessions end with logout', () => {
     } finally {
       server.clock.offsetMs -= 5 * 60_000;
     }
+  });
+});
+
+describe('secrets in the request log', () => {
+  it('redacts invitation tokens in paths and secrets in queries', () => {
+    const secret = 'Zr4m7QpX0s9vT2yLk8wB1nC6dE3fG5hJ';
+    const urls = [
+      `/api/invitations/${secret}`,
+      `/api/invitations/${secret}/accept`,
+      `/invite/${secret}`,
+      `/invite/${secret}?from=mail`,
+      `/api/clips/abc/media?token=${secret}&variant=original`,
+      `/api/auth/password-reset/${secret}`,
+      `/reset-password/${secret}`,
+      `/api/anything?code=${secret}`,
+    ];
+    for (const url of urls) {
+      const logged = redactUrl(url);
+      expect(logged).not.toContain(secret);
+      expect(logged).toContain('[redacted]');
+    }
+    expect(redactUrl('/api/clips/abc/media?token=x&variant=original')).toBe(
+      '/api/clips/abc/media?token=[redacted]&variant=original',
+    );
+  });
+
+  it('keeps the token out of what the server actually logs for an invitation link', async () => {
+    const lines: string[] = [];
+    const logger = pino({ level: 'info' }, { write: (line: string) => lines.push(line) });
+    const app = server.buildApp({ logger });
+    const secret = 'Ab3dEf6hIj9kLm2nOp5qRs8tUv1wXy4z';
+    await supertest(app).get(`/api/invitations/${secret}`);
+    await supertest(app).get(`/invite/${secret}`);
+    expect(lines.length).toBeGreaterThanOrEqual(2);
+    expect(lines.join('\n')).not.toContain(secret);
+  });
+});
+
+describe('development mailbox', () => {
+  it('is not served to a request that came through a reverse proxy', async () => {
+    expect((await server.http.get('/dev/mailbox.json')).status).toBe(200);
+    for (const header of ['X-Forwarded-For', 'Forwarded', 'X-Real-IP']) {
+      const res = await server.http.get('/dev/mailbox.json').set(header, 'for=203.0.113.9');
+      expect(res.status).toBe(404);
+    }
+  });
+
+  it('is not served unless the setting asks for it', async () => {
+    const off = await createTestServer({ DEV_MAILBOX: 'off' });
+    try {
+      expect((await off.http.get('/dev/mailbox')).status).toBe(404);
+    } finally {
+      await off.close();
+    }
+  });
+});
+
+describe('security headers', () => {
+  it('sends a content security policy without inline scripts, and refuses framing and sniffing', async () => {
+    const res = await server.http.get('/api/health');
+    const csp = String(res.headers['content-security-policy']);
+    const scriptSrc = /script-src ([^;]+)/.exec(csp)?.[1] ?? '';
+    expect(scriptSrc).toContain("'self'");
+    expect(scriptSrc).not.toContain('unsafe-inline');
+    expect(csp).toContain("frame-ancestors 'none'");
+    expect(csp).toContain("object-src 'none'");
+    expect(res.headers['x-content-type-options']).toBe('nosniff');
+    expect(res.headers['referrer-policy']).toBe('no-referrer');
+    // Served over plain http here (PUBLIC_URL http://stanceline.test): no HSTS.
+    expect(res.headers['strict-transport-security']).toBeUndefined();
+  });
+
+  it('asks browsers to keep to https when the app is served over https', async () => {
+    const secure = await createTestServer({ PUBLIC_URL: 'https://stanceline.example' });
+    try {
+      const res = await secure.http.get('/api/health');
+      expect(res.headers['strict-transport-security']).toMatch(/max-age=\d+/);
+    } finally {
+      await secure.close();
+    }
+  });
+});
+
+describe('malformed uploads', () => {
+  it('answers 400 to a multipart body without its closing boundary, and to one without a boundary', async () => {
+    const auth = await server.bearer('coach');
+    const cut = await server.http
+      .post('/api/clips')
+      .set(auth)
+      .set('Content-Type', 'multipart/form-data; boundary=XyZ')
+      .send(
+        '--XyZ\r\nContent-Disposition: form-data; name="view"\r\n\r\nfront\r\n--XyZ\r\nContent-Disposition: form-da',
+      );
+    expect(cut.status).toBe(400);
+    expect(cut.body.error.code).toBe('malformed_upload');
+    const noBoundary = await server.http
+      .post('/api/clips')
+      .set(auth)
+      .set('Content-Type', 'multipart/form-data')
+      .send('view=front');
+    expect(noBoundary.status).toBe(400);
+    expect(noBoundary.body.error.message).toMatch(/multipart/);
+  });
+
+  it('refuses an upload for an athlete the coach may not see before any of the file is written', async () => {
+    // The scratch folder is made unusable: writing the file would fail with a server error, so a 404
+    // shows the refusal came first, from the fields alone.
+    const local = await createTestServer();
+    try {
+      await fs.rm(local.config.uploadTempDir, { recursive: true, force: true });
+      await fs.writeFile(local.config.uploadTempDir, 'not a folder');
+      const video = await renderVideo('h264-mp4', { seconds: 1 });
+      const [sessionId] = await local.sessionIds();
+      const res = await local.http
+        .post('/api/clips')
+        .set(await local.bearer('coach'))
+        .field('sessionId', sessionId)
+        // Signe is in U16, which the demo coach does not coach.
+        .field('athleteIds', await local.athleteId('Signe'))
+        .field('view', 'side')
+        .attach('file', video.path);
+      expect(res.status).toBe(404);
+      expect(await local.count('clip')).toBe(0);
+    } finally {
+      await local.close();
+    }
+  });
+});
+
+describe('times bounded by the clip', () => {
+  it('refuses a note or a frame whose time is past the clip’s end, naming the field', async () => {
+    const auth = await server.bearer('coach');
+    const huge = await server.http
+      .post(`/api/clips/${clipId}/notes`)
+      .set(auth)
+      .send({ timeMs: 1e308, text: 'far away' });
+    expect(huge.status).toBe(400);
+    expect(JSON.stringify(huge.body)).toContain('timeMs');
+    // One second past a one-second clip.
+    const past = await server.http
+      .post(`/api/clips/${clipId}/notes`)
+      .set(auth)
+      .send({ timeMs: 2000, text: 'late' });
+    expect(past.status).toBe(400);
+    expect(past.body.error.message).toMatch(/timeMs.*past the clip's end/);
+    const frame = await server.http
+      .post(`/api/clips/${clipId}/frames`)
+      .set(auth)
+      .send({
+        model: 'lightning',
+        frames: [{ frameIndex: 1, timeMs: 60_000, keypoints: [{ name: 'nose', x: 1, y: 1, score: 0.9 }] }],
+      });
+    expect(frame.status).toBe(400);
+    expect(JSON.stringify(frame.body)).toContain('timeMs');
+    const notes = await server.http.get(`/api/clips/${clipId}/notes`).set(auth);
+    expect(notes.body.notes).toHaveLength(0);
+    const vtt = await server.http.get(`/api/clips/${clipId}/notes.vtt`).set(auth);
+    expect(vtt.status).toBe(200);
   });
 });
