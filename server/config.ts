@@ -73,6 +73,15 @@ const envSchema = z.object({
    * for ('on', as `npm start` does for the demo) and never served with an SMTP relay or behind a proxy.
    */
   DEV_MAILBOX: z.enum(['on', 'off']).default('off'),
+  /**
+   * Leftovers of interrupted uploads (scratch files, multipart uploads, objects without a clip) older
+   * than this are removed every CLEANUP_INTERVAL; at start, those older than STARTUP_CLEANUP_GRACE (0:
+   * everything, right for one server process; raise it above the longest upload when several share
+   * the database and store).
+   */
+  CLEANUP_GRACE: duration.default(24 * 3_600_000),
+  CLEANUP_INTERVAL: duration.default(3_600_000),
+  STARTUP_CLEANUP_GRACE: duration.default(0),
 });
 
 export interface Config {
@@ -104,6 +113,9 @@ export interface Config {
   cookieSecure: boolean;
   logLevel: string;
   devMailbox: boolean;
+  cleanupGraceMs: number;
+  cleanupIntervalMs: number;
+  startupCleanupGraceMs: number;
 }
 
 export class ConfigError extends Error {
@@ -147,5 +159,8 @@ export function loadConfig(env: Record<string, string | undefined>): Config {
     cookieSecure: e.COOKIE_SECURE ?? Boolean(e.PUBLIC_URL?.startsWith('https://')),
     logLevel: e.LOG_LEVEL,
     devMailbox: e.DEV_MAILBOX === 'on',
+    cleanupGraceMs: e.CLEANUP_GRACE,
+    cleanupIntervalMs: e.CLEANUP_INTERVAL,
+    startupCleanupGraceMs: e.STARTUP_CLEANUP_GRACE,
   };
 }

@@ -21,6 +21,8 @@ export interface Runtime {
   s3Endpoint: string;
   /** Probe, playable copy, poster and thumbnails of uploaded clips, one clip at a time. */
   mediaQueue: ClipProcessingQueue;
+  /** Set with the local S3 stand-in: sweeps its multipart folders (it has no API for them). */
+  sweepStandInUploads?: (before: Date) => Promise<number>;
   close(): Promise<void>;
 }
 
@@ -77,7 +79,17 @@ export async function startRuntime(config: Config): Promise<Runtime> {
     closers.push(() => mediaQueue.close());
 
     const jwtSecret = await readOrCreateSecret(config);
-    return { dataSource, storage, mailer, mailbox: smtp, jwtSecret, s3Endpoint, mediaQueue, close: closeAll };
+    return {
+      dataSource,
+      storage,
+      mailer,
+      mailbox: smtp,
+      jwtSecret,
+      s3Endpoint,
+      mediaQueue,
+      sweepStandInUploads: embeddedS3 ? (before) => embeddedS3!.sweepIncompleteUploads(before) : undefined,
+      close: closeAll,
+    };
   } catch (error) {
     await closeAll();
     throw error;

@@ -9,6 +9,7 @@ import { startRuntime } from './runtime';
 import { seedDemoClips } from './seed/demo-clips';
 import { seedDemoClub } from './seed/demo-seed';
 import { FrameStore } from './services/frame-store';
+import { StorageJanitor } from './services/storage-janitor';
 import { UnitOfWork } from './repositories/unit-of-work';
 import { systemClock } from './services/principal';
 import { ToleranceBandService } from './services/tolerance-band.service';
@@ -72,6 +73,22 @@ export async function startStanceline(opts: StartOptions = {}): Promise<StartedS
       );
       logger.info({ clips: clips.length }, 'seeded the demo clips');
     }
+    // What an earlier run left when it was killed mid-upload: scratch files, parts, unrecorded objects.
+    const janitor = new StorageJanitor({
+      uow: new UnitOfWork(runtime.dataSource),
+      storage: runtime.storage,
+      uploadTempDir: config.uploadTempDir,
+      logger,
+      clock: opts.clock ?? systemClock,
+      sweepStandInUploads: runtime.sweepStandInUploads,
+    });
+    await janitor.sweep(config.startupCleanupGraceMs);
+    const sweeper = setInterval(() => {
+      janitor
+        .sweep(config.cleanupGraceMs)
+        .catch((error: unknown) => logger.warn({ err: error }, 'cleanup failed'));
+    }, config.cleanupIntervalMs);
+    sweeper.unref();
     // Clips a previous run left uploaded or half processed.
     const resumed = await runtime.mediaQueue.resume();
     if (resumed > 0) logger.info({ clips: resumed }, 'resumed clip processing');
@@ -109,6 +126,7 @@ export async function startStanceline(opts: StartOptions = {}): Promise<StartedS
       mailbox,
       close() {
         closed ??= (async () => {
+          clearInterval(sweeper);
           httpServer.closeAllConnections();
           await new Promise<void>((resolve) => httpServer.close(() => resolve()));
           await runtime.close();

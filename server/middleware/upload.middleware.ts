@@ -13,7 +13,8 @@ import type { StagedUpload } from '../services/clip.service';
 function hashingDiskStorage(directory: string): StorageEngine {
   return {
     _handleFile(_req, file, callback) {
-      const target = path.join(directory, `${randomUUID()}.part`);
+      // The pid in the name tells a later start whose file it was (a crashed process's is removed).
+      const target = path.join(directory, `${process.pid}-${randomUUID()}.part`);
       const hash = createHash('sha256');
       let size = 0;
       const tap = new Transform({

@@ -42,6 +42,12 @@ export class ClipRepository {
   }
 
   /** Tagged athlete ids per clip. */
+  /** Every clip id in the database (maintenance: which stored objects still belong to a clip). */
+  async allIds(): Promise<string[]> {
+    const rows = await this.manager.find(ClipEntity, { select: { id: true } });
+    return rows.map((r) => r.id);
+  }
+
   async athleteIdsByClip(clipIds: string[]): Promise<Map<string, string[]>> {
     const result = new Map<string, string[]>();
     if (clipIds.length === 0) return result;

@@ -9,6 +9,8 @@ import {
   ListObjectsV2Command,
   S3Client,
   type S3ClientConfig,
+  AbortMultipartUploadCommand,
+  ListMultipartUploadsCommand,
 } from '@aws-sdk/client-s3';
 import { Upload } from '@aws-sdk/lib-storage';
 
@@ -92,6 +94,60 @@ export class ObjectStorage {
 
   async delete(key: string): Promise<void> {
     await this.client.send(new DeleteObjectCommand({ Bucket: this.bucket, Key: key }));
+  }
+
+  /** Every object under a prefix with its last change (paginated); for maintenance, not request paths. */
+  async listObjects(prefix = ''): Promise<{ key: string; lastModified: Date }[]> {
+    const objects: { key: string; lastModified: Date }[] = [];
+    let token: string | undefined;
+    do {
+      const page = await this.client.send(
+        new ListObjectsV2Command({ Bucket: this.bucket, Prefix: prefix, ContinuationToken: token }),
+      );
+      for (const item of page.Contents ?? []) {
+        if (item.Key) objects.push({ key: item.Key, lastModified: item.LastModified ?? new Date(0) });
+      }
+      token = page.IsTruncated ? page.NextContinuationToken : undefined;
+    } while (token);
+    return objects;
+  }
+
+  /**
+   * Aborts multipart uploads begun before `before` (their parts are stored and billed but belong to no
+   * object). Null when the store cannot list them through the API (the local stand-in).
+   */
+  async abortIncompleteUploads(before: Date): Promise<number | null> {
+    let aborted = 0;
+    let keyMarker: string | undefined;
+    let uploadIdMarker: string | undefined;
+    try {
+      do {
+        const page = await this.client.send(
+          new ListMultipartUploadsCommand({
+            Bucket: this.bucket,
+            KeyMarker: keyMarker,
+            UploadIdMarker: uploadIdMarker,
+          }),
+        );
+        for (const upload of page.Uploads ?? []) {
+          if (!upload.Key || !upload.UploadId || !upload.Initiated || upload.Initiated >= before) continue;
+          await this.client.send(
+            new AbortMultipartUploadCommand({
+              Bucket: this.bucket,
+              Key: upload.Key,
+              UploadId: upload.UploadId,
+            }),
+          );
+          aborted++;
+        }
+        keyMarker = page.IsTruncated ? page.NextKeyMarker : undefined;
+        uploadIdMarker = page.IsTruncated ? page.NextUploadIdMarker : undefined;
+      } while (keyMarker);
+    } catch (error) {
+      if ((error as { name?: string }).name === 'NotImplemented') return null;
+      throw error;
+    }
+    return aborted;
   }
 
   /** Every key under a prefix (paginated); for maintenance and tests, not request paths. */
