@@ -24,6 +24,7 @@ import { ClipWorkspace1796250000000 } from '../migrations/1796250000000-clip-wor
 import { ClipProxySize1796250000001 } from '../migrations/1796250000001-clip-proxy-size';
 import { RateLimitHitEntity } from '../entities/rate-limit-hit.entity';
 import { SessionsAndRateLimits1796260000000 } from '../migrations/1796260000000-sessions-and-rate-limits';
+import { ClipProcessingStarts1796260000001 } from '../migrations/1796260000001-clip-processing-starts';
 
 export const ALL_ENTITIES = [
   ClubEntity,
@@ -54,6 +55,7 @@ export const ALL_MIGRATIONS = [
   ClipWorkspace1796250000000,
   ClipProxySize1796250000001,
   SessionsAndRateLimits1796260000000,
+  ClipProcessingStarts1796260000001,
 ];
 
 /** SQLite through better-sqlite3: WAL journal, foreign keys on (the driver always enables them), no synchronize. */

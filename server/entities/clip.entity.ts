@@ -34,6 +34,8 @@ export interface Clip {
   fps: number | null;
   frameCount: number | null;
   durationMs: number | null;
+  /** Times processing began and was not finished or stopped cleanly (a crash); the second one fails it. */
+  processingStarts: number;
   createdAt: Date;
 }
 
@@ -74,6 +76,7 @@ export const ClipEntity = new EntitySchema<Clip>({
     fps: { type: 'real', nullable: true },
     frameCount: { type: 'integer', nullable: true },
     durationMs: { type: 'integer', nullable: true },
+    processingStarts: { type: 'integer', default: 0 },
     createdAt: timestampColumn,
   },
   foreignKeys: [

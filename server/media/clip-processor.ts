@@ -61,6 +61,9 @@ export function describeMediaError(error: unknown, scratch: string, originalName
  * failed with a reason a coach can act on. An abort (server shutting down) leaves the clip in
  * "processing", so the next start picks it up again.
  */
+/** Interrupted processing starts after which a clip fails instead of being resumed again. */
+const MAX_INTERRUPTED_STARTS = 2;
+
 export async function processClip(
   deps: ClipProcessorDeps,
   clipId: string,
@@ -69,7 +72,22 @@ export async function processClip(
   const clip = await repositoriesFor(deps.dataSource.manager).clips.findById(clipId);
   if (!clip || (clip.status !== 'uploaded' && clip.status !== 'processing')) return;
   const clips = repositoriesFor(deps.dataSource.manager).clipMedia;
-  await clips.update(clip.id, { status: 'processing', failureReason: null });
+  // A start that never ended is a crash during this clip (a clean stop takes its start back below).
+  // It is resumed once; a second such start fails it, so one clip cannot crash the server for ever.
+  if (clip.processingStarts >= MAX_INTERRUPTED_STARTS) {
+    await clips.update(clip.id, {
+      status: 'failed',
+      failureReason:
+        'The server stopped twice while preparing this clip. Upload it again; if it fails again, export a shorter clip from the phone.',
+    });
+    deps.logger.warn({ clipId }, 'clip failed after interrupted processing');
+    return;
+  }
+  await clips.update(clip.id, {
+    status: 'processing',
+    failureReason: null,
+    processingStarts: clip.processingStarts + 1,
+  });
 
   await fs.mkdir(deps.workDir, { recursive: true });
   const dir = await fs.mkdtemp(path.join(deps.workDir, `${clip.id}-`));
@@ -152,8 +170,11 @@ export async function processClip(
     );
   } catch (error) {
     await Promise.all(stored.map((key) => deps.storage.delete(key).catch(() => undefined)));
-    if (error instanceof MediaJobAborted || signal.aborted)
+    if (error instanceof MediaJobAborted || signal.aborted) {
+      // A clean shutdown is no crash: the next start begins this clip afresh.
+      await clips.update(clip.id, { processingStarts: clip.processingStarts });
       throw new MediaJobAborted('clip processing stopped');
+    }
     const reason =
       error instanceof ClipProcessingError
         ? error.message

@@ -1,4 +1,5 @@
 import { execFile } from 'node:child_process';
+import { diesWithParent } from './child-process';
 import { FFMPEG_PATH } from './media-tools';
 
 /** ffmpeg exited with an error; `detail` is the last lines it printed, for logs and coach-facing reasons. */
@@ -27,8 +28,7 @@ export function runFfmpeg(
   return new Promise((resolve, reject) => {
     if (opts.signal?.aborted) return reject(new MediaJobAborted('stopped before ffmpeg started'));
     execFile(
-      FFMPEG_PATH,
-      ['-hide_banner', '-nostdin', '-loglevel', 'error', '-y', ...args],
+      ...diesWithParent(FFMPEG_PATH, ['-hide_banner', '-nostdin', '-loglevel', 'error', '-y', ...args]),
       { signal: opts.signal, timeout: opts.timeoutMs ?? 30 * 60_000, maxBuffer: 8 * 1024 * 1024 },
       (error, _stdout, stderr) => {
         if (!error) return resolve();

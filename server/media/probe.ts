@@ -1,5 +1,6 @@
 import { execFile } from 'node:child_process';
 import { promisify } from 'node:util';
+import { diesWithParent } from './child-process';
 import { FFPROBE_PATH } from './media-tools';
 
 const run = promisify(execFile);
@@ -51,8 +52,7 @@ function positive(text: string | undefined): number | null {
 
 async function ffprobeJson(filePath: string, extra: string[]): Promise<FfprobeOutput> {
   const { stdout } = await run(
-    FFPROBE_PATH,
-    [
+    ...diesWithParent(FFPROBE_PATH, [
       '-v',
       'error',
       '-select_streams',
@@ -63,7 +63,7 @@ async function ffprobeJson(filePath: string, extra: string[]): Promise<FfprobeOu
       '-of',
       'json',
       filePath,
-    ],
+    ]),
     { maxBuffer: 4 * 1024 * 1024, timeout: 120_000 },
   );
   return JSON.parse(stdout) as FfprobeOutput;

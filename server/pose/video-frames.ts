@@ -1,4 +1,5 @@
 import { spawn } from 'node:child_process';
+import { diesWithParent } from '../media/child-process';
 import { FFMPEG_PATH } from '../media/media-tools';
 
 export interface DecodedFrame {
@@ -43,8 +44,7 @@ export async function* decodeVideoFrames(path: string, options: DecodeOptions): 
     'showinfo',
   ].join(',');
   const child = spawn(
-    FFMPEG_PATH,
-    [
+    ...diesWithParent(FFMPEG_PATH, [
       '-hide_banner',
       '-nostdin',
       '-nostats',
@@ -64,7 +64,7 @@ export async function* decodeVideoFrames(path: string, options: DecodeOptions): 
       '-pix_fmt',
       'rgb24',
       'pipe:1',
-    ],
+    ]),
     { stdio: ['ignore', 'pipe', 'pipe'] },
   );
   const before: ShowInfo[] = [];

@@ -139,6 +139,7 @@ export async function seedDemoClips(deps: DemoClipDeps, clubId: string): Promise
       fps: null,
       frameCount: null,
       durationMs: null,
+      processingStarts: 0,
       createdAt: clock.now(),
     };
     await repositoriesFor(manager).clips.insert(clip, [athlete.id]);

@@ -225,6 +225,7 @@ export class ClipService {
         fps: probe.fps,
         frameCount: probe.frameCount,
         durationMs: probe.durationMs,
+        processingStarts: 0,
         createdAt: this.clock.now(),
       };
       await this.uow.transaction(async (manager) => {

@@ -202,3 +202,60 @@ describe('a server killed while a clip streams in', () => {
     }
   });
 });
+
+describe('child processes of a crashed server', () => {
+  it('die with it (an encode does not go on for nobody)', { timeout: 30_000 }, async () => {
+    const parent = spawn(process.execPath, ['--import', 'tsx', 'tests/server/fixtures/spawn-child.ts'], {
+      stdio: ['ignore', 'pipe', 'inherit'],
+    });
+    const childPid = await new Promise<number>((resolve) =>
+      parent.stdout!.once('data', (chunk: Buffer) => resolve(Number(String(chunk).trim()))),
+    );
+    const alive = (pid: number) => {
+      try {
+        process.kill(pid, 0);
+        return true;
+      } catch {
+        return false;
+      }
+    };
+    expect(alive(childPid)).toBe(true);
+    parent.kill('SIGKILL');
+    await new Promise((r) => parent.once('exit', r));
+    const deadline = Date.now() + 5000;
+    while (alive(childPid) && Date.now() < deadline) await new Promise((r) => setTimeout(r, 50));
+    const survived = alive(childPid);
+    if (survived) process.kill(childPid, 'SIGKILL');
+    expect(survived).toBe(false);
+  });
+});
+
+describe('a clip whose processing a crash interrupted', () => {
+  it('is picked up again once, and fails with a reason after a second interruption', async () => {
+    const video = await renderVideo('h264-mp4', { seconds: 1 });
+    const fields = {
+      sessionId: (await server.sessionIds())[0],
+      athleteIds: await server.athleteId('Elsie'),
+      view: 'front' as const,
+    };
+    const once = await settled(server, (await uploadClip(server, video.path, fields)).id);
+    const twice = await settled(server, (await uploadClip(server, video.path, fields)).id);
+    // As a crash leaves them: still "processing", begun once and twice.
+    await server.runtime.dataSource.query(
+      `UPDATE clip SET status = 'processing', processingStarts = 1 WHERE id = ?`,
+      [once.id],
+    );
+    await server.runtime.dataSource.query(
+      `UPDATE clip SET status = 'processing', processingStarts = 2 WHERE id = ?`,
+      [twice.id],
+    );
+    expect(await server.runtime.mediaQueue.resume()).toBe(2);
+    await server.runtime.mediaQueue.idle();
+    const auth = await server.bearer('coach');
+    const first = (await server.http.get(`/api/clips/${once.id}`).set(auth)).body.clip;
+    const second = (await server.http.get(`/api/clips/${twice.id}`).set(auth)).body.clip;
+    expect(first.status).toBe('ready');
+    expect(second.status).toBe('failed');
+    expect(second.failureReason).toMatch(/stopped twice while preparing this clip/);
+  });
+});

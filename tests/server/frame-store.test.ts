@@ -86,6 +86,7 @@ const clip: Clip = {
   fps: 30,
   frameCount: 10,
   durationMs: 333,
+  processingStarts: 0,
   createdAt: new Date(0),
 };
 
