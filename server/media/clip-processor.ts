@@ -9,7 +9,7 @@ import type { Clip } from '../entities/clip.entity';
 import type { ObjectStorage } from '../storage/object-storage';
 import { FfmpegError, MediaJobAborted } from './ffmpeg-run';
 import { makePoster } from './poster';
-import { probeVideo, type VideoProbe } from './probe';
+import { countVideoPackets, oversizeReason, probeVideo, type VideoProbe } from './probe';
 import { makeProxy, proxyReason } from './proxy';
 import { makeThumbnailStrip } from './thumbnails';
 
@@ -61,6 +61,9 @@ export function describeMediaError(error: unknown, scratch: string, originalName
  * failed with a reason a coach can act on. An abort (server shutting down) leaves the clip in
  * "processing", so the next start picks it up again.
  */
+/** Share of the stated frames that must be present (a few may be dropped by a phone's encoder). */
+const COMPLETE_SHARE = 0.98;
+
 /** Interrupted processing starts after which a clip fails instead of being resumed again. */
 const MAX_INTERRUPTED_STARTS = 2;
 
@@ -106,6 +109,16 @@ export async function processClip(
       );
     }
     if (!probe) throw new ClipProcessingError('The file could not be read as video: it has no video stream');
+    const oversize = oversizeReason(probe, clip.originalName);
+    if (oversize) throw new ClipProcessingError(oversize);
+    // The container's count against the packets really there: a copy cut short is refused whole, not
+    // shown as a shorter clip than the coach filmed.
+    const present = await countVideoPackets(original).catch(() => null);
+    if (probe.frameCount !== null && present !== null && present < probe.frameCount * COMPLETE_SHARE) {
+      throw new ClipProcessingError(
+        `The file ends early: it lists ${probe.frameCount} frames but holds only ${present}, so the copy from the phone was cut short. Copy the clip from the phone again and upload it.`,
+      );
+    }
 
     let playable = original;
     let playableProbe = probe;

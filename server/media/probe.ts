@@ -1,5 +1,6 @@
 import { execFile } from 'node:child_process';
 import { promisify } from 'node:util';
+import { MAX_CLIP_SIDE_PX } from '@shared/schemas/clip.schema';
 import { diesWithParent } from './child-process';
 import { FFPROBE_PATH } from './media-tools';
 
@@ -104,6 +105,22 @@ export async function probeVideo(filePath: string): Promise<VideoProbe | null> {
     durationMs: duration === null ? null : Math.round(duration * 1000),
     pixelFormat: stream.pix_fmt ?? null,
   };
+}
+
+/**
+ * Video packets actually present in the file, read without decoding. A copy cut short keeps its index
+ * (when the index sits at the start) and so its stated frame count, but not the packets.
+ */
+export async function countVideoPackets(filePath: string): Promise<number | null> {
+  const output = await ffprobeJson(filePath, ['-count_packets']);
+  const stream = output.streams?.find((s) => s.codec_type === 'video');
+  return positive(stream?.nb_read_packets);
+}
+
+/** The reason a clip of this size is refused, or null when it is within the limit. */
+export function oversizeReason(probe: Pick<VideoProbe, 'width' | 'height'>, name: string): string | null {
+  if (Math.max(probe.width, probe.height) <= MAX_CLIP_SIDE_PX) return null;
+  return `“${name}” is ${probe.width} × ${probe.height} pixels; Stanceline takes clips up to ${MAX_CLIP_SIDE_PX} pixels on the longer side (4K). Export it at 4K or smaller from the phone or camera and upload it again.`;
 }
 
 /** Pixel size of an image file (the thumbnail sprite), read back with ffprobe. */

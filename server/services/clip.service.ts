@@ -11,7 +11,7 @@ import type { Athlete } from '../entities/athlete.entity';
 import type { Clip } from '../entities/clip.entity';
 import { HttpError, badRequest, conflict, notFound } from '../errors';
 import { toClipDto } from '../mappers/clip.mapper';
-import { probeVideo } from '../media/probe';
+import { oversizeReason, probeVideo } from '../media/probe';
 import { ACCEPTED_CONTAINER_LABEL, sniffVideoContainer } from '../media/sniff';
 import type { ObjectStorage } from '../storage/object-storage';
 import type { AccessService } from './access.service';
@@ -183,6 +183,8 @@ export class ClipService {
           `“${file.originalName}” could not be read as video; the file may be damaged or incomplete`,
         );
       }
+      const oversize = oversizeReason(probe, file.originalName);
+      if (oversize) throw new HttpError(422, 'video_too_large', oversize);
 
       const id = randomUUID();
       const key = `clubs/${principal.clubId}/clips/${id}/original.${sniff.ext}`;

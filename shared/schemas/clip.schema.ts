@@ -23,6 +23,8 @@ export const clipListQuerySchema = z.object({
 });
 
 export const MAX_CLIP_BYTES_DEFAULT = 2 * 1024 * 1024 * 1024;
+/** Longest side of a clip, in pixels: 4K phone video (3840 × 2160) and its portrait form fit. */
+export const MAX_CLIP_SIDE_PX = 4096;
 export const ACCEPTED_CLIP_EXTENSIONS = ['.mp4', '.mov', '.m4v', '.webm', '.avi', '.mkv'] as const;
 
 export interface ClipDto {
