@@ -38,6 +38,7 @@ import { ClipService } from './services/clip.service';
 import { ClubService } from './services/club.service';
 import { InvitationService } from './services/invitation.service';
 import { NoteService } from './services/note.service';
+import { PasswordService } from './services/password.service';
 import { systemClock, type Clock } from './services/principal';
 import { SessionService } from './services/session.service';
 import { TokenService } from './services/token.service';
@@ -89,6 +90,7 @@ export function createApp(deps: AppDeps): Express {
     storage: deps.storage,
     guard: createAuthMiddleware({ secret: deps.jwtSecret, auth, access, tokens }),
     auth,
+    passwords: new PasswordService(uow, auth, audit, deps.mailer, clock, publicUrlNow),
     athletes: new AthleteService(uow, access, audit, clock),
     sessions,
     clips,

@@ -23,8 +23,10 @@ import { InitialSchema1796163026000 } from '../migrations/1796163026000-initial-
 import { ClipWorkspace1796250000000 } from '../migrations/1796250000000-clip-workspace';
 import { ClipProxySize1796250000001 } from '../migrations/1796250000001-clip-proxy-size';
 import { RateLimitHitEntity } from '../entities/rate-limit-hit.entity';
+import { PasswordResetEntity } from '../entities/password-reset.entity';
 import { SessionsAndRateLimits1796260000000 } from '../migrations/1796260000000-sessions-and-rate-limits';
 import { ClipProcessingStarts1796260000001 } from '../migrations/1796260000001-clip-processing-starts';
+import { PasswordReset1796260000002 } from '../migrations/1796260000002-password-reset';
 
 export const ALL_ENTITIES = [
   ClubEntity,
@@ -47,6 +49,7 @@ export const ALL_ENTITIES = [
   RefreshTokenEntity,
   AuditEventEntity,
   RateLimitHitEntity,
+  PasswordResetEntity,
 ];
 
 // Listed explicitly (no globs): bundlers and tsx cannot resolve migration globs reliably.
@@ -56,6 +59,7 @@ export const ALL_MIGRATIONS = [
   ClipProxySize1796250000001,
   SessionsAndRateLimits1796260000000,
   ClipProcessingStarts1796260000001,
+  PasswordReset1796260000002,
 ];
 
 /** SQLite through better-sqlite3: WAL journal, foreign keys on (the driver always enables them), no synchronize. */

@@ -13,6 +13,26 @@ function escapeHtml(text: string): string {
   return text.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
 }
 
+export function passwordResetMail(opts: {
+  to: string;
+  link: string;
+  expiresInMinutes: number;
+}): OutgoingMail {
+  const text = [
+    'Someone asked to reset the password of your Stanceline account.',
+    '',
+    `Choose a new password: ${opts.link}`,
+    '',
+    `The link works once, for ${opts.expiresInMinutes} minutes. If you did not ask for it, ignore this e-mail: your password stays as it is.`,
+  ].join('\n');
+  const html = [
+    '<p>Someone asked to reset the password of your Stanceline account.</p>',
+    `<p><a href="${escapeHtml(opts.link)}">Choose a new password</a></p>`,
+    `<p>The link works once, for ${opts.expiresInMinutes} minutes. If you did not ask for it, ignore this e-mail: your password stays as it is.</p>`,
+  ].join('\n');
+  return { to: opts.to, subject: 'Reset your Stanceline password', text, html };
+}
+
 export function invitationMail(opts: {
   to: string;
   link: string;

@@ -1,6 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import { IsNull, MoreThan } from 'typeorm';
 import { InvitationEntity, type Invitation } from '../entities/invitation.entity';
+import { PasswordResetEntity, type PasswordReset } from '../entities/password-reset.entity';
 import { RefreshTokenEntity, type RefreshToken } from '../entities/refresh-token.entity';
 
 /** Refresh tokens and invitations: both are looked up by the hash of a secret the user holds. */
@@ -32,6 +33,20 @@ export class AuthRepository {
 
   async revokeAllRefreshTokens(userId: string, at: Date): Promise<void> {
     await this.manager.update(RefreshTokenEntity, { userId, revokedAt: IsNull() }, { revokedAt: at });
+  }
+
+  findPasswordReset(tokenHash: string): Promise<PasswordReset | null> {
+    return this.manager.findOneBy(PasswordResetEntity, { tokenHash });
+  }
+
+  async insertPasswordReset(reset: PasswordReset): Promise<void> {
+    await this.manager.insert(PasswordResetEntity, reset);
+  }
+
+  /** Marks the link used; false when it was used already (two tabs at once). */
+  async usePasswordReset(id: string, at: Date): Promise<boolean> {
+    const result = await this.manager.update(PasswordResetEntity, { id, usedAt: IsNull() }, { usedAt: at });
+    return (result.affected ?? 0) > 0;
   }
 
   findInvitation(tokenHash: string): Promise<Invitation | null> {

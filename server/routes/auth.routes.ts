@@ -1,8 +1,14 @@
 import { Router, type Request, type Response } from 'express';
 import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
 import {
+  changePasswordSchema,
   loginSchema,
   logoutSchema,
+  passwordResetCompleteSchema,
+  passwordResetRequestSchema,
+  type ChangePasswordInput,
+  type PasswordResetCompleteInput,
+  type PasswordResetRequestInput,
   type LoginInput,
   type LoginResponse,
   type LogoutInput,
@@ -88,6 +94,49 @@ export function authRoutes(ctx: RouteContext): Router {
     res.clearCookie(REFRESH_COOKIE, { path: COOKIE_PATH });
     res.status(204).end();
   });
+
+  router.post(
+    '/api/auth/password',
+    guard.authenticate,
+    guard.authorize('me:read'),
+    validate({ body: changePasswordSchema }),
+    async (req, res) => {
+      const signedIn = await ctx.passwords.change(principalOf(req), req.body as ChangePasswordInput);
+      res.json(setRefreshCookie(res, signedIn, ctx.config.cookieSecure));
+    },
+  );
+
+  // Reset links by e-mail: limited per address, and the answer is the same whether or not the
+  // address belongs to a member.
+  const resetLimiter = limiter('reset', ctx.config.loginRateLimit, address);
+  router.post(
+    '/api/auth/password-reset',
+    validate({ body: passwordResetRequestSchema }),
+    resetLimiter,
+    async (req, res) => {
+      await ctx.passwords.requestReset((req.body as PasswordResetRequestInput).email);
+      res.status(202).json({
+        message: 'If that address belongs to a member, a link to choose a new password is on its way.',
+      });
+    },
+  );
+
+  router.get('/api/auth/password-reset/:token', resetLimiter, async (req, res) => {
+    res.json(await ctx.passwords.inspectReset(req.params.token as string));
+  });
+
+  router.post(
+    '/api/auth/password-reset/:token',
+    resetLimiter,
+    validate({ body: passwordResetCompleteSchema }),
+    async (req, res) => {
+      const signedIn = await ctx.passwords.completeReset(
+        req.params.token as string,
+        req.body as PasswordResetCompleteInput,
+      );
+      res.json(setRefreshCookie(res, signedIn, ctx.config.cookieSecure));
+    },
+  );
 
   router.get('/api/me', guard.authenticate, guard.authorize('me:read'), async (req, res) => {
     res.json(await ctx.auth.me(principalOf(req)));

@@ -3,6 +3,7 @@ import type { Config } from '../config';
 import type { AuthMiddleware } from '../middleware/auth.middleware';
 import type { AthleteService } from '../services/athlete.service';
 import type { AuthService } from '../services/auth.service';
+import type { PasswordService } from '../services/password.service';
 import type { ClipAnalysisService } from '../services/clip-analysis.service';
 import type { ClipImageService } from '../services/clip-image.service';
 import type { ClipService } from '../services/clip.service';
@@ -23,6 +24,7 @@ export interface RouteContext {
   storage: ObjectStorage;
   guard: AuthMiddleware;
   auth: AuthService;
+  passwords: PasswordService;
   athletes: AthleteService;
   sessions: SessionService;
   clips: ClipService;

@@ -10,6 +10,7 @@ import type { Invitation } from '../entities/invitation.entity';
 import type { User } from '../entities/user.entity';
 import { HttpError, badRequest, conflict, forbidden, notFound } from '../errors';
 import type { Mailer } from '../mail/mailer';
+import { checkNewPassword } from './password-policy';
 import { invitationMail } from '../mail/templates';
 import type { AccessService } from './access.service';
 import type { AuditService } from './audit.service';
@@ -166,6 +167,7 @@ export class InvitationService {
   /** Creates the member with their links (athlete record, child, coached groups) and signs them in. */
   async accept(input: AcceptInvitationInput): Promise<SignedIn> {
     const invitation = await this.findOpen(input.token);
+    checkNewPassword(input.password, 'password', [invitation.email, input.name]);
     const passwordHash = await this.auth.hashPassword(input.password);
     return this.uow.transaction(async (manager) => {
       const users = this.uow.of(manager).users;

@@ -20,6 +20,34 @@ export const acceptInvitationSchema = z.object({
 });
 export type AcceptInvitationInput = z.infer<typeof acceptInvitationSchema>;
 
+/** A new password: the length here; whether it is too easy to guess is the server's check. */
+const newPasswordField = z
+  .string()
+  .min(10, 'Use at least 10 characters')
+  .max(200, 'Use at most 200 characters');
+
+/** POST /api/auth/password: the signed-in member changes their password. */
+export const changePasswordSchema = z.object({
+  currentPassword: z.string().min(1, 'Enter your current password'),
+  newPassword: newPasswordField,
+});
+export type ChangePasswordInput = z.infer<typeof changePasswordSchema>;
+
+/** POST /api/auth/password-reset: asks for a reset link by e-mail. */
+export const passwordResetRequestSchema = z.object({
+  email: z.string().trim().toLowerCase().email('Enter a valid email address'),
+});
+export type PasswordResetRequestInput = z.infer<typeof passwordResetRequestSchema>;
+
+/** POST /api/auth/password-reset/:token: sets the new password from the e-mailed link. */
+export const passwordResetCompleteSchema = z.object({ password: newPasswordField });
+export type PasswordResetCompleteInput = z.infer<typeof passwordResetCompleteSchema>;
+
+/** GET /api/auth/password-reset/:token: whose password the link resets. */
+export interface PasswordResetInfo {
+  email: string;
+}
+
 export const createInvitationSchema = z.object({
   email: z.string().trim().toLowerCase().email('Enter a valid email address'),
   role: z.enum(ROLES),

@@ -22,6 +22,18 @@ export const routes: RouteObject[] = [
         lazy: async () => ({ Component: (await import('@/features/auth/routes/login-route')).LoginRoute }),
       },
       {
+        path: paths.forgotPassword.path,
+        lazy: async () => ({
+          Component: (await import('@/features/auth/routes/forgot-password-route')).ForgotPasswordRoute,
+        }),
+      },
+      {
+        path: paths.resetPassword.path,
+        lazy: async () => ({
+          Component: (await import('@/features/auth/routes/reset-password-route')).ResetPasswordRoute,
+        }),
+      },
+      {
         path: paths.invite.path,
         lazy: async () => ({ Component: (await import('@/features/auth/routes/invite-route')).InviteRoute }),
       },
@@ -50,6 +62,12 @@ export const routes: RouteObject[] = [
               guarded(paths.club.path, 'club.manage', async () => ({
                 Component: (await import('./routes/club')).ClubPage,
               })),
+              {
+                path: paths.account.path,
+                lazy: async () => ({
+                  Component: (await import('@/features/auth/routes/account-route')).AccountRoute,
+                }),
+              },
               {
                 path: paths.clip.path,
                 lazy: async () => ({

@@ -3,6 +3,12 @@ export const paths = {
   home: { path: '/', href: () => '/' },
   login: { path: '/login', href: () => '/login' },
   invite: { path: '/invite/:token', href: (token: string) => `/invite/${encodeURIComponent(token)}` },
+  forgotPassword: { path: '/forgot-password', href: () => '/forgot-password' },
+  resetPassword: {
+    path: '/reset-password/:token',
+    href: (token: string) => `/reset-password/${encodeURIComponent(token)}`,
+  },
+  account: { path: '/account', href: () => '/account' },
   athletes: { path: '/athletes', href: () => '/athletes' },
   athlete: { path: '/athletes/:athleteId', href: (id: string) => `/athletes/${id}` },
   sessions: { path: '/sessions', href: () => '/sessions' },

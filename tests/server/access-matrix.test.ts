@@ -69,6 +69,13 @@ const staffOnly = (ok: number): Expect => ({
 let seq = 0;
 const ROWS: Row[] = [
   { route: 'GET /api/me', target: 'self', path: () => '/api/me', expect: all(200) },
+  {
+    route: 'POST /api/auth/password',
+    target: 'own account, wrong current password',
+    path: () => '/api/auth/password',
+    body: () => ({ currentPassword: 'not-my-password', newPassword: 'granite ridge morning wax' }),
+    expect: all(400),
+  },
   { route: 'GET /api/age-groups', target: 'club', path: () => '/api/age-groups', expect: all(200) },
   { route: 'GET /api/athletes', target: 'list (scoped)', path: () => '/api/athletes', expect: all(200) },
   {
@@ -411,6 +418,9 @@ const PUBLIC_ROUTES = [
   'POST /api/auth/logout',
   'GET /api/invitations/:token',
   'POST /api/invitations/accept',
+  'POST /api/auth/password-reset',
+  'GET /api/auth/password-reset/:token',
+  'POST /api/auth/password-reset/:token',
   'GET /dev/mailbox',
   'GET /dev/mailbox.json',
 ];
@@ -513,7 +523,8 @@ describe('role x route matrix', () => {
   });
 
   it('lets the analyst create nothing', () => {
-    const writes = ROWS.filter((r) => r.route.startsWith('POST'));
+    // Club records; a member's own password (POST /api/auth/password) is not one.
+    const writes = ROWS.filter((r) => r.route.startsWith('POST') && !r.route.startsWith('POST /api/auth/'));
     expect(writes.length).toBeGreaterThan(0);
     for (const row of writes) expect(row.expect.analyst, row.route).toBe(403);
   });

@@ -298,3 +298,117 @@ describe('times bounded by the clip', () => {
     expect(vtt.status).toBe(200);
   });
 });
+
+describe('passwords', () => {
+  const mailTo = async (to: string) =>
+    (await server.runtime.mailbox!.messages()).filter((m) => m.to.includes(to));
+
+  it('refuses an easy password when joining, naming the field and the reason', async () => {
+    const invite = await server.http
+      .post('/api/invitations')
+      .set(await server.bearer('head'))
+      .send({ email: 'weak.pass@larchwood.example', role: 'analyst' });
+    expect(invite.status).toBe(201);
+    const [mail] = await mailTo('weak.pass@larchwood.example');
+    const token = /\/invite\/([A-Za-z0-9_-]+)/.exec(mail.text)![1];
+    for (const password of ['aaaaaaaaaa', 'password123', '1234567890', 'qwertyuiop']) {
+      const res = await server.http
+        .post('/api/invitations/accept')
+        .send({ token, name: 'Wren Lowe', password });
+      expect(res.status).toBe(400);
+      expect(res.body.error.details.issues[0].path).toEqual(['password']);
+      expect(res.body.error.message).toMatch(/too easy to guess/);
+    }
+    // A pass phrase of plain words is fine.
+    const ok = await server.http
+      .post('/api/invitations/accept')
+      .send({ token, name: 'Wren Lowe', password: 'lantern orchard gravel sunrise' });
+    expect(ok.status).toBe(201);
+  });
+
+  it('changes a password: checks the current one, ends the other sessions, keeps this one', async () => {
+    const here = await server.http
+      .post('/api/auth/login')
+      .send({ email: 'weak.pass@larchwood.example', password: 'lantern orchard gravel sunrise' });
+    const elsewhere = await server.http
+      .post('/api/auth/login')
+      .send({ email: 'weak.pass@larchwood.example', password: 'lantern orchard gravel sunrise' });
+    const auth = { Authorization: `Bearer ${here.body.accessToken as string}` };
+
+    const wrong = await server.http
+      .post('/api/auth/password')
+      .set(auth)
+      .send({ currentPassword: 'not it at all', newPassword: 'copper valley night train' });
+    expect(wrong.status).toBe(400);
+    expect(wrong.body.error.details.issues[0].path).toEqual(['currentPassword']);
+    const weak = await server.http
+      .post('/api/auth/password')
+      .set(auth)
+      .send({ currentPassword: 'lantern orchard gravel sunrise', newPassword: 'aaaaaaaaaa' });
+    expect(weak.status).toBe(400);
+    expect(weak.body.error.details.issues[0].path).toEqual(['newPassword']);
+
+    const changed = await server.http
+      .post('/api/auth/password')
+      .set(auth)
+      .send({ currentPassword: 'lantern orchard gravel sunrise', newPassword: 'copper valley night train' });
+    expect(changed.status).toBe(200);
+    const fresh = { Authorization: `Bearer ${changed.body.accessToken as string}` };
+    expect((await server.http.get('/api/me').set(fresh)).status).toBe(200);
+    const other = { Authorization: `Bearer ${elsewhere.body.accessToken as string}` };
+    expect((await server.http.get('/api/me').set(other)).status).toBe(401);
+    const oldPassword = await server.http
+      .post('/api/auth/login')
+      .send({ email: 'weak.pass@larchwood.example', password: 'lantern orchard gravel sunrise' });
+    expect(oldPassword.status).toBe(401);
+  });
+
+  it('resets a forgotten password by an e-mailed link that works once', async () => {
+    const before = (await mailTo('weak.pass@larchwood.example')).length;
+    const unknown = await server.http
+      .post('/api/auth/password-reset')
+      .send({ email: 'nobody@larchwood.example' });
+    expect(unknown.status).toBe(202);
+    expect(await mailTo('nobody@larchwood.example')).toHaveLength(0);
+
+    const asked = await server.http
+      .post('/api/auth/password-reset')
+      .send({ email: ' Weak.Pass@larchwood.example' });
+    expect(asked.status).toBe(202);
+    expect(asked.body.message).toBe(unknown.body.message);
+    const mails = await mailTo('weak.pass@larchwood.example');
+    expect(mails).toHaveLength(before + 1);
+    const link = mails.at(-1)!;
+    expect(link.html).toContain('/reset-password/');
+    const token = /\/reset-password\/([A-Za-z0-9_-]+)/.exec(link.text)![1];
+
+    expect((await server.http.get(`/api/auth/password-reset/${token}`)).body).toEqual({
+      email: 'weak.pass@larchwood.example',
+    });
+    expect((await server.http.get('/api/auth/password-reset/not-a-real-token-at-all')).status).toBe(404);
+    const weak = await server.http
+      .post(`/api/auth/password-reset/${token}`)
+      .send({ password: 'password1234' });
+    expect(weak.status).toBe(400);
+    expect(weak.body.error.details.issues[0].path).toEqual(['password']);
+    const short = await server.http.post(`/api/auth/password-reset/${token}`).send({ password: 'short' });
+    expect(short.status).toBe(400);
+
+    const done = await server.http
+      .post(`/api/auth/password-reset/${token}`)
+      .send({ password: 'harbor kite seven maples' });
+    expect(done.status).toBe(200);
+    expect(typeof done.body.accessToken).toBe('string');
+    expect(
+      (
+        await server.http
+          .post(`/api/auth/password-reset/${token}`)
+          .send({ password: 'another fine phrase here' })
+      ).status,
+    ).toBe(410);
+    const login = await server.http
+      .post('/api/auth/login')
+      .send({ email: 'weak.pass@larchwood.example', password: 'harbor kite seven maples' });
+    expect(login.status).toBe(200);
+  });
+});

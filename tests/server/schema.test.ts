@@ -44,6 +44,7 @@ describe('database schema', () => {
         'guardian_link',
         'invitation',
         'note',
+        'password_reset',
         'rate_limit_hit',
         'reference_line',
         'refresh_token',

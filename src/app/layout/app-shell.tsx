@@ -1,6 +1,7 @@
 import { Link, NavLink, Outlet } from 'react-router-dom';
 import { LogOut } from 'lucide-react';
 import { Wordmark } from '@/components/ui/logo';
+import { paths } from '@/config/paths';
 import { useMe } from '@/features/auth/api/get-me';
 import { useLogout } from '@/features/auth/api/logout';
 import { useUser } from '@/lib/auth';
@@ -44,7 +45,13 @@ export function AppShell() {
           </nav>
           <div className="ml-auto flex items-center gap-4">
             <div className="text-right leading-tight">
-              <p className="text-sm font-medium">{user.name}</p>
+              <Link
+                to={paths.account.href()}
+                className="text-sm font-medium hover:underline"
+                title="Your account"
+              >
+                {user.name}
+              </Link>
               <p className="text-xs text-glacier-300">
                 {ROLE_LABELS[user.role]}
                 {me.data ? ` · ${me.data.club.name}` : ''}

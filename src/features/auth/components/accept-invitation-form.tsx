@@ -39,7 +39,7 @@ export function AcceptInvitationForm({ token, email, onSubmitting }: AcceptInvit
         label="Choose a password"
         type="password"
         autoComplete="new-password"
-        hint="At least 10 characters."
+        hint="At least 10 characters. A phrase of three or four unrelated words is strong and easy to remember."
         error={errors.password?.message}
         {...register('password')}
       />

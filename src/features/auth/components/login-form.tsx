@@ -1,8 +1,10 @@
 import { useForm } from 'react-hook-form';
+import { Link } from 'react-router-dom';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { loginSchema, type LoginInput } from '@shared/schemas/auth.schema';
 import { Button } from '@/components/ui/button';
 import { FormError, TextField } from '@/components/ui/field';
+import { paths } from '@/config/paths';
 import { errorMessage } from '@/lib/api-client';
 import { useLogin } from '../api/login';
 
@@ -35,6 +37,11 @@ export function LoginForm() {
       <Button type="submit" className="w-full" busy={loginMutation.isPending}>
         Sign in
       </Button>
+      <p className="text-center text-sm">
+        <Link className="text-glacier-700 underline" to={paths.forgotPassword.href()}>
+          Forgot your password?
+        </Link>
+      </p>
     </form>
   );
 }
