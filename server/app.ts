@@ -88,7 +88,7 @@ export function createApp(deps: AppDeps): Express {
     dataSource,
     rateLimitStore: (prefix) => new DatabaseRateLimitStore(uow, clock, prefix),
     storage: deps.storage,
-    guard: createAuthMiddleware({ secret: deps.jwtSecret, auth, access, tokens }),
+    guard: createAuthMiddleware({ auth, access, tokens }),
     auth,
     passwords: new PasswordService(uow, auth, audit, deps.mailer, clock, publicUrlNow),
     athletes: new AthleteService(uow, access, audit, clock),

@@ -31,7 +31,6 @@ export interface AuthMiddleware {
 }
 
 export function createAuthMiddleware(deps: {
-  secret: string;
   auth: AuthService;
   access: AccessService;
   tokens: TokenService;
@@ -41,7 +40,8 @@ export function createAuthMiddleware(deps: {
     new JwtStrategy(
       {
         jwtFromRequest: ExtractJwt.fromAuthHeaderAsBearerToken(),
-        secretOrKey: deps.secret,
+        // The token service's KeyObject (jsonwebtoken takes it as is; a string is re-parsed per call).
+        secretOrKey: deps.tokens.key as unknown as string,
         algorithms: ['HS256'],
         audience: ACCESS_AUDIENCE,
         issuer: TOKEN_ISSUER,

@@ -46,6 +46,15 @@ export class FrameResultRepository {
       await this.manager.insert(FrameResultEntity, rows.slice(i, i + 50));
   }
 
+  /** Inserts, or replaces the frame of the same clip, model and index (its id stays). */
+  async upsertMany(rows: FrameResult[]): Promise<void> {
+    for (let i = 0; i < rows.length; i += 50) {
+      await this.manager.upsert(FrameResultEntity, rows.slice(i, i + 50), {
+        conflictPaths: ['clipId', 'model', 'frameIndex'],
+      });
+    }
+  }
+
   async update(
     id: string,
     patch: Partial<

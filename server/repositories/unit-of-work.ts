@@ -1,3 +1,4 @@
+import { AsyncLocalStorage } from 'node:async_hooks';
 import type { DataSource, EntityManager } from 'typeorm';
 import { AthleteRepository } from './athlete.repository';
 import { AuditRepository } from './audit.repository';
@@ -36,6 +37,10 @@ export interface Repositories {
 }
 
 const bundles = new WeakMap<EntityManager, Repositories>();
+/** The last transaction queued per database; the next one starts when it has settled. */
+const queues = new WeakMap<DataSource, Promise<void>>();
+/** Which database's transaction the current async call chain runs in. */
+const insideTransaction = new AsyncLocalStorage<DataSource>();
 
 /** The repositories of one manager, made once and kept as long as the manager lives. */
 export function repositoriesFor(manager: EntityManager): Repositories {
@@ -83,7 +88,24 @@ export class UnitOfWork {
     return this.make(manager);
   }
 
+  /**
+   * Runs `work` in a transaction of its own. better-sqlite3 gives TypeORM one connection, on which a
+   * second request's transaction would start as a savepoint inside the first (and a rollback of one
+   * could undo the other's writes); so transactions of one database run one after another, in order.
+   * A transaction started from inside one joins it, as before.
+   */
   transaction<T>(work: (manager: EntityManager) => Promise<T>): Promise<T> {
-    return this.dataSource.transaction(work);
+    if (insideTransaction.getStore() === this.dataSource) return this.dataSource.transaction(work);
+    const run = () => insideTransaction.run(this.dataSource, () => this.dataSource.transaction(work));
+    const previous = queues.get(this.dataSource) ?? Promise.resolve();
+    const next = previous.then(run, run);
+    queues.set(
+      this.dataSource,
+      next.then(
+        () => undefined,
+        () => undefined,
+      ),
+    );
+    return next;
   }
 }

@@ -64,7 +64,10 @@ export function clipRoutes(ctx: RouteContext): Router {
     // Session, athletes, consent: checked from the fields that precede the file, so a refused upload
     // is refused before a byte of the video is written.
     precheck: async (req) => {
-      await ctx.clips.precheck(principalOf(req), req.body);
+      // Only when the fields came first (as the app sends them); otherwise they are checked with the file.
+      const fields = req.body as Record<string, unknown> | undefined;
+      if (!fields?.sessionId || !fields.athleteIds || !fields.view) return;
+      await ctx.clips.precheck(principalOf(req), fields);
     },
   });
 

@@ -12,7 +12,7 @@ import type {
   FrameCorrectionInput,
   FrameResultResponse,
 } from '@shared/schemas/frames.schema';
-import { analyzeSeries, estimateFrameRate, type SeriesResult } from '@shared/series';
+import { estimateFrameRate, type SeriesResult } from '@shared/series';
 import { evaluateFrame, evaluateSeries, type ToleranceFlag } from '@shared/tolerance';
 import type { Clip } from '../entities/clip.entity';
 import type { Flag } from '../entities/flag.entity';
@@ -21,6 +21,7 @@ import { HttpError, badRequest, conflict } from '../errors';
 import { toFlagDto, toFrameDto } from '../mappers/frame.mapper';
 import { loadMeasureContext, measureFrame, type BandSource, type ClipMeasureContext } from './clip-measure';
 import type { Clock } from './principal';
+import { sharedSeriesWorker, type SeriesAnalyzer } from '../workers/series-pool';
 import { SeriesCache } from './series-cache';
 
 /**
@@ -31,11 +32,14 @@ import { SeriesCache } from './series-cache';
  */
 export class FrameStore {
   private readonly seriesCache = new SeriesCache();
+  private readonly refreshing = new Map<string, Promise<void>>();
+  private readonly stale = new Set<string>();
 
   constructor(
     private readonly uow: UnitOfWork,
     private readonly bands: BandSource,
     private readonly clock: Clock,
+    private readonly series: SeriesAnalyzer = sharedSeriesWorker(),
   ) {}
 
   async storeBatch(clip: Clip, batch: FrameBatchInput): Promise<FrameBatchResponse> {
@@ -50,8 +54,11 @@ export class FrameStore {
       })),
     );
     const now = this.clock.now();
+    // Read and measured before the transaction, so it holds the database only for the writes. (A view
+    // or snow-line change recomputes every stored frame in its own transaction afterwards.)
+    const ctx = await this.measureContext(this.uow.repos.manager, clip);
+    const measured = batch.frames.map((f) => measureFrame(f.keypoints, ctx, f.frameIndex));
     const result = await this.uow.transaction(async (manager) => {
-      const ctx = await this.measureContext(manager, clip);
       const repo = this.uow.of(manager).frames;
       const existing = new Map(
         (
@@ -62,13 +69,12 @@ export class FrameStore {
           )
         ).map((r) => [r.frameIndex, r]),
       );
-      const inserts: FrameResult[] = [];
       const written: FrameResult[] = [];
-      for (const frame of batch.frames) {
+      for (const [i, frame] of batch.frames.entries()) {
         const prior = existing.get(frame.frameIndex);
         // A coach's correction outranks any later detection of the same frame.
         if (prior?.corrected && !frame.corrected) continue;
-        const m = measureFrame(frame.keypoints, ctx, frame.frameIndex);
+        const m = measured[i];
         const row: FrameResult = {
           id: prior?.id ?? randomUUID(),
           clipId: clip.id,
@@ -82,28 +88,52 @@ export class FrameStore {
           createdAt: prior?.createdAt ?? now,
           updatedAt: now,
         };
-        if (prior) {
-          await repo.update(prior.id, {
-            timeMs: row.timeMs,
-            keypoints: row.keypoints,
-            metrics: row.metrics,
-            reasons: row.reasons,
-            corrected: row.corrected,
-            updatedAt: now,
-          });
-        } else inserts.push(row);
         written.push(row);
       }
-      await repo.insertMany(inserts);
+      // New frames and frames posted again in one statement per chunk (the transaction stays short).
+      await repo.upsertMany(written);
       await this.replaceFrameFlags(manager, clip, batch.model, ctx, written);
-      // Turns need the whole clip: refresh them once the batch reaching the clip's end arrives.
-      const last = clip.frameCount !== null ? clip.frameCount - 1 : null;
-      if (last !== null && batch.frames.some((f) => f.frameIndex === last)) {
-        await this.refreshSeries(manager, clip, batch.model, ctx);
-      } else this.forget(clip.id, batch.model);
-      return { stored: written.length, flags: await this.uow.of(manager).flags.count(clip.id, batch.model) };
+      this.forget(clip.id, batch.model);
+      return { stored: written.length };
     });
-    return result;
+    // Turns need the whole clip: they are refreshed once the batch reaching the clip's end arrives,
+    // in the background (the series worker computes, a short transaction stores the turn flags), so
+    // the answer does not wait and other writers and readers go on. A read waits for it.
+    const last = clip.frameCount !== null ? clip.frameCount - 1 : null;
+    if (last !== null && batch.frames.some((f) => f.frameIndex === last))
+      this.scheduleSeries(clip, batch.model);
+    return { stored: result.stored, flags: await this.uow.repos.flags.count(clip.id, batch.model) };
+  }
+
+  /**
+   * One background series refresh per clip and model at a time; a request during a run asks for one
+   * more run after it (the frames changed meanwhile), never for a pile of them.
+   */
+  private scheduleSeries(clip: Clip, model: PoseModelName): void {
+    const key = `${clip.id}:${model}`;
+    if (this.refreshing.has(key)) {
+      this.stale.add(key);
+      return;
+    }
+    const run = async () => {
+      do {
+        this.stale.delete(key);
+        const ctx = await this.measureContext(this.uow.repos.manager, clip);
+        const frames = await this.uow.repos.frames.listByClip(clip.id, model);
+        const computed = await this.computeSeries(clip, ctx, frames);
+        await this.uow.transaction((m) => this.persistSeries(m, clip, model, ctx, frames, computed));
+      } while (this.stale.has(key));
+    };
+    const done = run()
+      // A failed refresh leaves no cached series, so the next read computes it again and reports why.
+      .catch(() => this.forget(clip.id, model))
+      .finally(() => this.refreshing.delete(key));
+    this.refreshing.set(key, done);
+  }
+
+  /** Resolves when no background series refresh of this clip and model is running. */
+  async seriesSettled(clipId: string, model: PoseModelName): Promise<void> {
+    await this.refreshing.get(`${clipId}:${model}`);
   }
 
   async correct(
@@ -157,16 +187,21 @@ export class FrameStore {
 
   async read(clip: Clip, model?: PoseModelName): Promise<ClipFramesResponse> {
     const chosen = model ?? clip.defaultModel;
+    // A refresh the last batch started is waited for, so a read right after a run shows its turns.
+    await this.seriesSettled(clip.id, chosen);
     const repos = this.uow.repos;
     const frames = await repos.frames.listByClip(clip.id, chosen);
     let series: ClipSeriesDto | null = null;
     if (frames.length > 0) {
       const ctx = await this.measureContext(repos.manager, clip);
       const cached = this.seriesCache.get(clip.id, chosen, SeriesCache.stampOf(clip, frames, ctx));
-      series =
-        cached !== undefined
-          ? cached
-          : await this.uow.transaction((m) => this.refreshSeries(m, clip, chosen, ctx, frames));
+      if (cached !== undefined) series = cached;
+      else {
+        const computed = await this.computeSeries(clip, ctx, frames);
+        series = await this.uow.transaction((m) =>
+          this.persistSeries(m, clip, chosen, ctx, frames, computed),
+        );
+      }
     }
     const flags = await repos.flags.list(clip.id, chosen);
     return { model: chosen, frames: frames.map(toFrameDto), series, flags: flags.map(toFlagDto) };
@@ -305,23 +340,39 @@ export class FrameStore {
     clip: Clip,
     model: PoseModelName,
     ctx: ClipMeasureContext,
-    known?: FrameResult[],
+    frames: FrameResult[],
   ): Promise<ClipSeriesDto | null> {
-    const repos = this.uow.of(manager);
-    const frames = known ?? (await repos.frames.listByClip(clip.id, model));
+    return this.persistSeries(manager, clip, model, ctx, frames, await this.computeSeries(clip, ctx, frames));
+  }
+
+  /** The series of these frames, computed in the series worker (smoothing and turns take a while). */
+  private async computeSeries(
+    clip: Clip,
+    ctx: ClipMeasureContext,
+    frames: FrameResult[],
+  ): Promise<SeriesResult | null> {
     const fps = clip.fps && clip.fps > 0 ? clip.fps : estimateFrameRate(frames);
-    let result: SeriesResult | null = null;
-    if (frames.length > 0 && fps) {
-      result = analyzeSeries(
-        frames.map((f) => {
-          const own = ctx.frameLines.get(f.frameIndex);
-          const keypoints = own ? alignToLine(f.keypoints, own, ctx.referenceLine) : f.keypoints;
-          return { frameIndex: f.frameIndex, timeMs: f.timeMs, keypoints };
-        }),
-        { view: ctx.view, referenceLine: ctx.referenceLine, fps },
-      );
-    }
-    const flags = repos.flags;
+    if (frames.length === 0 || !fps) return null;
+    return this.series.analyze(
+      frames.map((f) => {
+        const own = ctx.frameLines.get(f.frameIndex);
+        const keypoints = own ? alignToLine(f.keypoints, own, ctx.referenceLine) : f.keypoints;
+        return { frameIndex: f.frameIndex, timeMs: f.timeMs, keypoints };
+      }),
+      { view: ctx.view, referenceLine: ctx.referenceLine, fps },
+    );
+  }
+
+  /** Stores the turn flags of a computed series and remembers it. */
+  private async persistSeries(
+    manager: EntityManager,
+    clip: Clip,
+    model: PoseModelName,
+    ctx: ClipMeasureContext,
+    frames: FrameResult[],
+    result: SeriesResult | null,
+  ): Promise<ClipSeriesDto | null> {
+    const flags = this.uow.of(manager).flags;
     await flags.deleteTurnFlags(clip.id, model);
     if (result) {
       const turnBands = ctx.bands.filter((b) => b.band.metric === 'transitionRise').map((b) => b.band);

@@ -1,3 +1,4 @@
+import { createSecretKey, type KeyObject } from 'node:crypto';
 import jwt from 'jsonwebtoken';
 import type { Clock } from './principal';
 
@@ -22,16 +23,24 @@ export interface MediaClaims {
 
 /** Signs access and media JWTs (HS256). Verification of access tokens is passport-jwt's job. */
 export class TokenService {
+  /**
+   * The HMAC key as a KeyObject, made once: given a plain string, jsonwebtoken first tries to read it
+   * as a public or private key on every call, which cost more than the signing itself.
+   */
+  readonly key: KeyObject;
+
   constructor(
-    private readonly secret: string,
+    secret: string,
     private readonly accessTtlMs: number,
     private readonly mediaTtlMs: number,
     private readonly clock: Clock,
-  ) {}
+  ) {
+    this.key = createSecretKey(Buffer.from(secret, 'utf8'));
+  }
 
   private sign(payload: object, audience: string, ttlMs: number): string {
     const iat = Math.floor(this.clock.now().getTime() / 1000);
-    return jwt.sign({ ...payload, iat, exp: iat + Math.max(1, Math.round(ttlMs / 1000)) }, this.secret, {
+    return jwt.sign({ ...payload, iat, exp: iat + Math.max(1, Math.round(ttlMs / 1000)) }, this.key, {
       algorithm: 'HS256',
       audience,
       issuer: TOKEN_ISSUER,
@@ -48,7 +57,7 @@ export class TokenService {
 
   /** Returns the claims, or throws jsonwebtoken's TokenExpiredError / JsonWebTokenError. */
   verifyMedia(token: string): MediaClaims {
-    const payload = jwt.verify(token, this.secret, {
+    const payload = jwt.verify(token, this.key, {
       algorithms: ['HS256'],
       audience: MEDIA_AUDIENCE,
       issuer: TOKEN_ISSUER,

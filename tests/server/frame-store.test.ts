@@ -29,6 +29,15 @@ class FakeFrames {
   async insertMany(rows: FrameResult[]) {
     this.rows.push(...rows.map((r) => ({ ...r })));
   }
+  async upsertMany(rows: FrameResult[]) {
+    for (const r of rows) {
+      const at = this.rows.findIndex(
+        (x) => x.clipId === r.clipId && x.model === r.model && x.frameIndex === r.frameIndex,
+      );
+      if (at >= 0) this.rows[at] = { ...r };
+      else this.rows.push({ ...r });
+    }
+  }
   async update(id: string, patch: Partial<FrameResult>) {
     const row = this.rows.find((r) => r.id === id);
     if (row) Object.assign(row, patch);
