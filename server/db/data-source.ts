@@ -27,6 +27,7 @@ import { PasswordResetEntity } from '../entities/password-reset.entity';
 import { SessionsAndRateLimits1796260000000 } from '../migrations/1796260000000-sessions-and-rate-limits';
 import { ClipProcessingStarts1796260000001 } from '../migrations/1796260000001-clip-processing-starts';
 import { PasswordReset1796260000002 } from '../migrations/1796260000002-password-reset';
+import { FrameResultSummaryIndex1796260000003 } from '../migrations/1796260000003-frame-result-summary-index';
 
 export const ALL_ENTITIES = [
   ClubEntity,
@@ -60,6 +61,7 @@ export const ALL_MIGRATIONS = [
   SessionsAndRateLimits1796260000000,
   ClipProcessingStarts1796260000001,
   PasswordReset1796260000002,
+  FrameResultSummaryIndex1796260000003,
 ];
 
 /** SQLite through better-sqlite3: WAL journal, foreign keys on (the driver always enables them), no synchronize. */

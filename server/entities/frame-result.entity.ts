@@ -38,4 +38,7 @@ export const FrameResultEntity = new EntitySchema<FrameResult>({
   },
   foreignKeys: [foreignKey('Clip', 'clipId', 'CASCADE')],
   uniques: [{ name: 'UQ_frame_result_clip_model_frame', columns: ['clipId', 'model', 'frameIndex'] }],
+  // Covers the per-clip analysis summary (count and latest change per model) without reading the wide
+  // keypoint rows; the clip list asks for it on every load.
+  indices: [{ name: 'IDX_frame_result_clip_model_updated', columns: ['clipId', 'model', 'updatedAt'] }],
 });
