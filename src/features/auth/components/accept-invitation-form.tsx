@@ -4,7 +4,9 @@ import { acceptInvitationSchema, type AcceptInvitationInput } from '@shared/sche
 import { Button } from '@/components/ui/button';
 import { FormError, TextField } from '@/components/ui/field';
 import { errorMessage } from '@/lib/api-client';
+import { fieldIssues } from '@/lib/form-errors';
 import { useAcceptInvitation } from '../api/accept-invitation';
+import { NEW_PASSWORD_HINT } from './password-hint';
 
 interface AcceptInvitationFormProps {
   token: string;
@@ -18,6 +20,7 @@ export function AcceptInvitationForm({ token, email, onSubmitting }: AcceptInvit
   const {
     register,
     handleSubmit,
+    setError,
     formState: { errors },
   } = useForm<AcceptInvitationInput>({
     resolver: zodResolver(acceptInvitationSchema),
@@ -30,7 +33,15 @@ export function AcceptInvitationForm({ token, email, onSubmitting }: AcceptInvit
       className="space-y-4"
       onSubmit={handleSubmit((values) => {
         onSubmitting(true);
-        accept.mutate(values, { onError: () => onSubmitting(false) });
+        accept.mutate(values, {
+          onError: (error) => {
+            onSubmitting(false);
+            // The server's reason (a password too easy to guess) goes beside the field it is about.
+            for (const issue of fieldIssues(error))
+              if (issue.field === 'password' || issue.field === 'name')
+                setError(issue.field, { message: issue.message });
+          },
+        });
       })}
     >
       <TextField label="Email" value={email} readOnly disabled />
@@ -39,11 +50,13 @@ export function AcceptInvitationForm({ token, email, onSubmitting }: AcceptInvit
         label="Choose a password"
         type="password"
         autoComplete="new-password"
-        hint="At least 10 characters. A phrase of three or four unrelated words is strong and easy to remember."
+        hint={NEW_PASSWORD_HINT}
         error={errors.password?.message}
         {...register('password')}
       />
-      <FormError message={accept.isError ? errorMessage(accept.error) : null} />
+      <FormError
+        message={accept.isError && fieldIssues(accept.error).length === 0 ? errorMessage(accept.error) : null}
+      />
       <Button type="submit" className="w-full" busy={accept.isPending}>
         Join the club
       </Button>

@@ -7,9 +7,7 @@ import { useToast } from '@/components/ui/toast';
 import { errorMessage } from '@/lib/api-client';
 import { fieldIssues } from '@/lib/form-errors';
 import { useChangePassword } from '../api/change-password';
-
-const PASSWORD_HINT =
-  'At least 10 characters. A phrase of three or four unrelated words is strong and easy to remember.';
+import { NEW_PASSWORD_HINT } from './password-hint';
 
 /** Change the signed-in member's password; the server says on which field a problem lies. */
 export function ChangePasswordForm() {
@@ -58,7 +56,7 @@ export function ChangePasswordForm() {
         label="New password"
         type="password"
         autoComplete="new-password"
-        hint={PASSWORD_HINT}
+        hint={NEW_PASSWORD_HINT}
         error={errors.newPassword?.message}
         {...register('newPassword')}
       />

@@ -6,6 +6,7 @@ import { FormError, TextField } from '@/components/ui/field';
 import { errorMessage } from '@/lib/api-client';
 import { fieldIssues } from '@/lib/form-errors';
 import { useCompletePasswordReset } from '../api/complete-password-reset';
+import { NEW_PASSWORD_HINT } from './password-hint';
 
 interface ResetPasswordFormProps {
   token: string;
@@ -47,7 +48,7 @@ export function ResetPasswordForm({ token, email, onSubmitting }: ResetPasswordF
         label="New password"
         type="password"
         autoComplete="new-password"
-        hint="At least 10 characters. A phrase of three or four unrelated words is strong and easy to remember."
+        hint={NEW_PASSWORD_HINT}
         error={errors.password?.message}
         {...register('password')}
       />
