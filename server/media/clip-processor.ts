@@ -1,4 +1,3 @@
-import { repositoriesFor } from '../repositories/unit-of-work';
 import { createWriteStream } from 'node:fs';
 import fs from 'node:fs/promises';
 import path from 'node:path';
@@ -12,6 +11,7 @@ import { makePoster } from './poster';
 import { countVideoPackets, oversizeReason, probeVideo, type VideoProbe } from './probe';
 import { makeProxy, proxyReason } from './proxy';
 import { makeThumbnailStrip } from './thumbnails';
+import { repositoriesFor } from '../repositories/unit-of-work';
 
 /** A failure the coach is shown as the clip's failure reason. */
 export class ClipProcessingError extends Error {

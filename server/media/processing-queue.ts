@@ -1,8 +1,8 @@
-import { repositoriesFor } from '../repositories/unit-of-work';
 import fs from 'node:fs/promises';
 import fastq, { type queueAsPromised } from 'fastq';
 import { MediaJobAborted } from './ffmpeg-run';
 import { processClip, type ClipProcessorDeps } from './clip-processor';
+import { repositoriesFor } from '../repositories/unit-of-work';
 
 /**
  * Clips are processed one at a time, in the order they arrived, by ffmpeg child processes, so the

@@ -1,4 +1,3 @@
-import { repositoriesFor } from '../repositories/unit-of-work';
 import { createHash, randomUUID } from 'node:crypto';
 import { createReadStream } from 'node:fs';
 import fs from 'node:fs/promises';
@@ -19,6 +18,7 @@ import type { FrameStore } from '../services/frame-store';
 import { systemClock, type Clock } from '../services/principal';
 import type { ObjectStorage } from '../storage/object-storage';
 import { DEMO_ATHLETES } from './demo-club';
+import { repositoriesFor } from '../repositories/unit-of-work';
 
 /** The phantom skier's clips (rendered by fixtures/phantom, so the true angles are known). */
 export const DEMO_FOOTAGE_DIR = path.join('fixtures', 'phantom', 'demo');

@@ -1,4 +1,3 @@
-import { repositoriesFor, UnitOfWork } from '../repositories/unit-of-work';
 import { randomUUID } from 'node:crypto';
 import bcrypt from 'bcryptjs';
 import type { DataSource } from 'typeorm';
@@ -16,6 +15,7 @@ import {
   DEMO_STAFF,
   DEMO_VENUE,
 } from './demo-club';
+import { repositoriesFor, UnitOfWork } from '../repositories/unit-of-work';
 
 export { DEMO_PASSWORD, DEMO_SIGN_INS } from './demo-club';
 

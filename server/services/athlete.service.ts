@@ -1,4 +1,3 @@
-import type { UnitOfWork } from '../repositories/unit-of-work';
 import { randomUUID } from 'node:crypto';
 import type {
   AgeGroupListResponse,
@@ -13,6 +12,7 @@ import { toAgeGroupDto, toAthleteDetailDto, toAthleteDto } from '../mappers/athl
 import type { AccessService } from './access.service';
 import type { AuditService } from './audit.service';
 import type { Clock, Principal } from './principal';
+import type { UnitOfWork } from '../repositories/unit-of-work';
 
 export class AthleteService {
   constructor(

@@ -1,7 +1,7 @@
-import { repositoriesFor } from '../repositories/unit-of-work';
 import { randomUUID } from 'node:crypto';
 import type { EntityManager } from 'typeorm';
 import type { Clock } from './principal';
+import { repositoriesFor } from '../repositories/unit-of-work';
 
 export interface AuditEntry {
   clubId: string | null;

@@ -1,4 +1,3 @@
-import type { UnitOfWork } from '../repositories/unit-of-work';
 import { randomUUID } from 'node:crypto';
 import bcrypt from 'bcryptjs';
 import type { EntityManager } from 'typeorm';
@@ -10,6 +9,7 @@ import type { AuditService } from './audit.service';
 import type { Clock, Principal } from './principal';
 import { hashSecretToken, newSecretToken } from './secret-token';
 import type { TokenService } from './token.service';
+import type { UnitOfWork } from '../repositories/unit-of-work';
 
 const REUSE_GRACE_MS = 30_000;
 

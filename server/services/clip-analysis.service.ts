@@ -1,4 +1,3 @@
-import type { UnitOfWork } from '../repositories/unit-of-work';
 import { randomUUID } from 'node:crypto';
 import type { PoseModelName } from '@shared/keypoints';
 import type { ClipResponse, UpdateClipInput } from '@shared/schemas/clip.schema';
@@ -16,6 +15,7 @@ import type { AuditService } from './audit.service';
 import type { ClipService } from './clip.service';
 import type { FrameStore } from './frame-store';
 import type { Clock, Principal } from './principal';
+import type { UnitOfWork } from '../repositories/unit-of-work';
 
 /** Access rules and audit around the FrameStore: who may read, post, correct and set up a clip. */
 export class ClipAnalysisService {

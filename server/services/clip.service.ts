@@ -1,4 +1,3 @@
-import type { UnitOfWork } from '../repositories/unit-of-work';
 import { randomUUID } from 'node:crypto';
 import fs from 'node:fs/promises';
 import {
@@ -20,6 +19,7 @@ import { mayStoreClipsOf } from './consent.rules';
 import type { Clock, Principal } from './principal';
 import type { SessionService } from './session.service';
 import type { TokenService } from './token.service';
+import type { UnitOfWork } from '../repositories/unit-of-work';
 
 /** A file multer has streamed to the temp folder, hashed on the way. */
 export interface StagedUpload {

@@ -1,6 +1,6 @@
-import type { UnitOfWork } from '../repositories/unit-of-work';
 import type { ClubMemberListResponse } from '@shared/schemas/club.schema';
 import type { Clock, Principal } from './principal';
+import type { UnitOfWork } from '../repositories/unit-of-work';
 
 export class ClubService {
   constructor(

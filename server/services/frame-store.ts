@@ -1,4 +1,3 @@
-import type { UnitOfWork } from '../repositories/unit-of-work';
 import { randomUUID } from 'node:crypto';
 import type { EntityManager } from 'typeorm';
 import { alignToLine } from '@shared/geometry';
@@ -23,6 +22,7 @@ import { loadMeasureContext, measureFrame, type BandSource, type ClipMeasureCont
 import type { Clock } from './principal';
 import { sharedSeriesWorker, type SeriesAnalyzer } from '../workers/series-pool';
 import { SeriesCache } from './series-cache';
+import type { UnitOfWork } from '../repositories/unit-of-work';
 
 /**
  * Stored pose results of a clip: batches from the browser, corrections, the snow line and view.
@@ -166,16 +166,7 @@ export class FrameStore {
         createdAt: prior?.createdAt ?? now,
         updatedAt: now,
       };
-      if (prior) {
-        await repo.update(prior.id, {
-          timeMs,
-          keypoints: row.keypoints,
-          metrics: row.metrics,
-          reasons: row.reasons,
-          corrected: true,
-          updatedAt: now,
-        });
-      } else await repo.insertMany([row]);
+      await repo.upsertMany([row]);
       await this.replaceFrameFlags(manager, clip, body.model, ctx, [row]);
       // Turns need the whole clip (about a second for 3,000 frames): they are refreshed on the
       // next read, so the corrected numbers come back at once.

@@ -1,4 +1,3 @@
-import type { UnitOfWork } from '../repositories/unit-of-work';
 import { randomUUID } from 'node:crypto';
 import type {
   AcceptInvitationInput,
@@ -17,6 +16,7 @@ import type { AuditService } from './audit.service';
 import type { AuthService, SignedIn } from './auth.service';
 import type { Clock, Principal } from './principal';
 import { hashSecretToken, newSecretToken } from './secret-token';
+import type { UnitOfWork } from '../repositories/unit-of-work';
 
 export class InvitationService {
   constructor(

@@ -1,4 +1,3 @@
-import type { UnitOfWork } from '../repositories/unit-of-work';
 import { randomUUID } from 'node:crypto';
 import type {
   CreateNoteBody,
@@ -15,6 +14,7 @@ import type { ClipAnalysisService } from './clip-analysis.service';
 import type { ClipService } from './clip.service';
 import { notesToWebVtt } from './notes-vtt';
 import type { Clock, Principal } from './principal';
+import type { UnitOfWork } from '../repositories/unit-of-work';
 
 /** A note's frame must be one of the clip's frames (when the clip's length is known). */
 function checkFrame(clip: Clip, frameIndex: number | null | undefined): void {

@@ -1,4 +1,3 @@
-import type { UnitOfWork } from '../repositories/unit-of-work';
 import { randomUUID } from 'node:crypto';
 import type {
   CreateSessionInput,
@@ -11,6 +10,7 @@ import { toSessionDto } from '../mappers/session.mapper';
 import type { AccessService } from './access.service';
 import type { AuditService } from './audit.service';
 import type { Clock, Principal } from './principal';
+import type { UnitOfWork } from '../repositories/unit-of-work';
 
 export class SessionService {
   constructor(

@@ -1,4 +1,3 @@
-import type { UnitOfWork } from '../repositories/unit-of-work';
 import { randomUUID } from 'node:crypto';
 import type { EntityManager } from 'typeorm';
 import type { View } from '@shared/keypoints';
@@ -15,6 +14,7 @@ import { ClubEntity } from '../entities/club.entity';
 import type { ToleranceBand } from '../entities/tolerance-band.entity';
 import { notFound } from '../errors';
 import type { Clock, Principal } from './principal';
+import type { UnitOfWork } from '../repositories/unit-of-work';
 
 /** The view a band's metric is measured in; transitionRise comes from front-view turns. */
 export function bandView(metric: BandMetricKey): View | 'both' {

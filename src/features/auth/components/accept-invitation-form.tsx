@@ -4,7 +4,7 @@ import { acceptInvitationSchema, type AcceptInvitationInput } from '@shared/sche
 import { Button } from '@/components/ui/button';
 import { FormError, TextField } from '@/components/ui/field';
 import { errorMessage } from '@/lib/api-client';
-import { fieldIssues } from '@/lib/form-errors';
+import { fieldIssues, placeFieldIssues } from '@/lib/form-errors';
 import { useAcceptInvitation } from '../api/accept-invitation';
 import { NEW_PASSWORD_HINT } from './password-hint';
 
@@ -37,9 +37,7 @@ export function AcceptInvitationForm({ token, email, onSubmitting }: AcceptInvit
           onError: (error) => {
             onSubmitting(false);
             // The server's reason (a password too easy to guess) goes beside the field it is about.
-            for (const issue of fieldIssues(error))
-              if (issue.field === 'password' || issue.field === 'name')
-                setError(issue.field, { message: issue.message });
+            placeFieldIssues(error, ['password', 'name'] as const, setError);
           },
         });
       })}

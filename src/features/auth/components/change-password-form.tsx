@@ -5,7 +5,7 @@ import { Button } from '@/components/ui/button';
 import { FormError, TextField } from '@/components/ui/field';
 import { useToast } from '@/components/ui/toast';
 import { errorMessage } from '@/lib/api-client';
-import { fieldIssues } from '@/lib/form-errors';
+import { fieldIssues, placeFieldIssues } from '@/lib/form-errors';
 import { useChangePassword } from '../api/change-password';
 import { NEW_PASSWORD_HINT } from './password-hint';
 
@@ -37,10 +37,7 @@ export function ChangePasswordForm() {
             toast.success('Password changed. Your other devices are signed out.');
           },
           onError: (error) => {
-            for (const issue of fieldIssues(error)) {
-              if (issue.field === 'currentPassword' || issue.field === 'newPassword')
-                setError(issue.field, { message: issue.message });
-            }
+            placeFieldIssues(error, ['currentPassword', 'newPassword'] as const, setError);
           },
         }),
       )}

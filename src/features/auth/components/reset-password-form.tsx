@@ -4,7 +4,7 @@ import { passwordResetCompleteSchema, type PasswordResetCompleteInput } from '@s
 import { Button } from '@/components/ui/button';
 import { FormError, TextField } from '@/components/ui/field';
 import { errorMessage } from '@/lib/api-client';
-import { fieldIssues } from '@/lib/form-errors';
+import { fieldIssues, placeFieldIssues } from '@/lib/form-errors';
 import { useCompletePasswordReset } from '../api/complete-password-reset';
 import { NEW_PASSWORD_HINT } from './password-hint';
 
@@ -37,8 +37,7 @@ export function ResetPasswordForm({ token, email, onSubmitting }: ResetPasswordF
         complete.mutate(values, {
           onError: (error) => {
             onSubmitting(false);
-            for (const issue of fieldIssues(error))
-              if (issue.field === 'password') setError('password', { message: issue.message });
+            placeFieldIssues(error, ['password'] as const, setError);
           },
         });
       })}
