@@ -43,6 +43,9 @@ import { systemClock, type Clock } from './services/principal';
 import { SessionService } from './services/session.service';
 import { TokenService } from './services/token.service';
 import { ToleranceBandService } from './services/tolerance-band.service';
+import { FlagService } from './services/flag.service';
+import type { JobRunner } from './services/job-runner';
+import { flagRoutes } from './routes/flags.routes';
 import type { ObjectStorage } from './storage/object-storage';
 import { UnitOfWork } from './repositories/unit-of-work';
 
@@ -53,6 +56,8 @@ export interface AppDeps {
   mailer: Mailer;
   /** Where uploaded clips go for probing, playable copies, posters and thumbnails (Runtime.mediaQueue). */
   mediaQueue: MediaPipeline;
+  /** Durable background jobs (Runtime.jobs): a band change queues one and wakes it. */
+  jobs: Pick<JobRunner, 'resume'>;
   /** Set when the embedded SMTP fake is in use: mounts the /dev/mailbox inbox page. */
   mailbox?: Mailbox;
   jwtSecret: string;
@@ -80,7 +85,7 @@ export function createApp(deps: AppDeps): Express {
   const auth = new AuthService(uow, tokens, audit, clock, config.refreshTtlMs, config.bcryptRounds);
   const sessions = new SessionService(uow, access, audit, clock);
   const clips = new ClipService(uow, access, sessions, deps.storage, tokens, audit, clock, deps.mediaQueue);
-  const toleranceBands = new ToleranceBandService(uow, clock);
+  const toleranceBands = new ToleranceBandService(uow, clock, access, () => deps.jobs.resume());
   const frameStore = new FrameStore(uow, toleranceBands, clock);
   const analysis = new ClipAnalysisService(uow, access, clips, frameStore, audit, clock);
   const ctx: RouteContext = {
@@ -98,6 +103,7 @@ export function createApp(deps: AppDeps): Express {
     analysis,
     notes: new NoteService(uow, clips, analysis, audit, clock),
     toleranceBands,
+    flags: new FlagService(uow, access, tokens, clock),
     invitations: new InvitationService(
       uow,
       access,
@@ -130,6 +136,7 @@ export function createApp(deps: AppDeps): Express {
   app.use(clipAnalysisRoutes(ctx));
   app.use(noteRoutes(ctx));
   app.use(toleranceBandRoutes(ctx));
+  app.use(flagRoutes(ctx));
   app.use(invitationRoutes(ctx));
   app.use(clubRoutes(ctx));
   app.use('/api', apiNotFound);

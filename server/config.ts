@@ -82,6 +82,11 @@ const envSchema = z.object({
   CLEANUP_GRACE: duration.default(24 * 3_600_000),
   CLEANUP_INTERVAL: duration.default(3_600_000),
   STARTUP_CLEANUP_GRACE: duration.default(0),
+  /**
+   * Pause between the steps (one clip each) of a background job such as re-judging flags after a band
+   * changed: 0 runs them back to back, each step already yields to waiting requests.
+   */
+  JOB_STEP_PAUSE: duration.default(0),
 });
 
 export interface Config {
@@ -116,6 +121,7 @@ export interface Config {
   cleanupGraceMs: number;
   cleanupIntervalMs: number;
   startupCleanupGraceMs: number;
+  jobStepPauseMs: number;
 }
 
 export class ConfigError extends Error {
@@ -162,5 +168,6 @@ export function loadConfig(env: Record<string, string | undefined>): Config {
     cleanupGraceMs: e.CLEANUP_GRACE,
     cleanupIntervalMs: e.CLEANUP_INTERVAL,
     startupCleanupGraceMs: e.STARTUP_CLEANUP_GRACE,
+    jobStepPauseMs: e.JOB_STEP_PAUSE,
   };
 }

@@ -10,6 +10,7 @@ import { startEmbeddedSmtp, type EmbeddedSmtp, type Mailbox } from './mail/embed
 import { createMailer, type Mailer } from './mail/mailer';
 import { startEmbeddedS3, type EmbeddedS3 } from './storage/embedded-s3';
 import { ObjectStorage } from './storage/object-storage';
+import { JobRunner } from './services/job-runner';
 
 /** Everything the app talks to, started from one Config; `close()` stops what it started. */
 export interface Runtime {
@@ -21,6 +22,8 @@ export interface Runtime {
   s3Endpoint: string;
   /** Probe, playable copy, poster and thumbnails of uploaded clips, one clip at a time. */
   mediaQueue: ClipProcessingQueue;
+  /** Durable background jobs (flags judged again after a band changed); `resume()` at start. */
+  jobs: JobRunner;
   /** Set with the local S3 stand-in: sweeps its multipart folders (it has no API for them). */
   sweepStandInUploads?: (before: Date) => Promise<number>;
   close(): Promise<void>;
@@ -77,6 +80,8 @@ export async function startRuntime(config: Config): Promise<Runtime> {
       workDir: path.join(config.dataDir, 'media-work'),
     });
     closers.push(() => mediaQueue.close());
+    const jobs = new JobRunner(dataSource, createLogger(config.logLevel), { pauseMs: config.jobStepPauseMs });
+    closers.push(() => jobs.close());
 
     const jwtSecret = await readOrCreateSecret(config);
     return {
@@ -87,6 +92,7 @@ export async function startRuntime(config: Config): Promise<Runtime> {
       jwtSecret,
       s3Endpoint,
       mediaQueue,
+      jobs,
       sweepStandInUploads: embeddedS3 ? (before) => embeddedS3!.sweepIncompleteUploads(before) : undefined,
       close: closeAll,
     };

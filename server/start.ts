@@ -12,7 +12,7 @@ import { FrameStore } from './services/frame-store';
 import { StorageJanitor } from './services/storage-janitor';
 import { UnitOfWork } from './repositories/unit-of-work';
 import { systemClock } from './services/principal';
-import { ToleranceBandService } from './services/tolerance-band.service';
+import { bandService } from './services/tolerance-band.service';
 import type { Clock } from './services/principal';
 
 /** The checkout: the demo footage and keypoints live under its fixtures/. */
@@ -55,7 +55,7 @@ export async function startStanceline(opts: StartOptions = {}): Promise<StartedS
         ? await seedDemoClub(runtime.dataSource, { bcryptRounds: config.bcryptRounds, clock: opts.clock })
         : null;
     if (seeded) logger.info({ club: seeded.clubName }, 'seeded the demo club');
-    const bands = new ToleranceBandService(new UnitOfWork(runtime.dataSource), opts.clock ?? systemClock);
+    const bands = bandService(new UnitOfWork(runtime.dataSource), opts.clock ?? systemClock);
     const added = await bands.ensureDefaultsForAllClubs();
     if (added > 0) logger.info({ bands: added }, 'seeded common-practice tolerance bands');
     if (seeded) {
@@ -89,6 +89,8 @@ export async function startStanceline(opts: StartOptions = {}): Promise<StartedS
         .catch((error: unknown) => logger.warn({ err: error }, 'cleanup failed'));
     }, config.cleanupIntervalMs);
     sweeper.unref();
+    // Background jobs a previous run left unfinished (flags judged again after a band change).
+    runtime.jobs.resume();
     // Clips a previous run left uploaded or half processed.
     const resumed = await runtime.mediaQueue.resume();
     if (resumed > 0) logger.info({ clips: resumed }, 'resumed clip processing');
@@ -99,6 +101,7 @@ export async function startStanceline(opts: StartOptions = {}): Promise<StartedS
       dataSource: runtime.dataSource,
       storage: runtime.storage,
       mediaQueue: runtime.mediaQueue,
+      jobs: runtime.jobs,
       mailer: runtime.mailer,
       mailbox: runtime.mailbox,
       jwtSecret: runtime.jwtSecret,

@@ -17,6 +17,9 @@ import { ReviewEntity } from '../entities/review.entity';
 import { ToleranceBandEntity } from '../entities/tolerance-band.entity';
 import { TrainingSessionEntity } from '../entities/training-session.entity';
 import { UserEntity } from '../entities/user.entity';
+import { ToleranceBandChangeEntity } from '../entities/tolerance-band-change.entity';
+import { JobEntity } from '../entities/job.entity';
+import { ClipTurnsEntity } from '../entities/clip-turns.entity';
 
 import { DataSource } from 'typeorm';
 import { InitialSchema1796163026000 } from '../migrations/1796163026000-initial-schema';
@@ -28,6 +31,7 @@ import { SessionsAndRateLimits1796260000000 } from '../migrations/1796260000000-
 import { ClipProcessingStarts1796260000001 } from '../migrations/1796260000001-clip-processing-starts';
 import { PasswordReset1796260000002 } from '../migrations/1796260000002-password-reset';
 import { FrameResultSummaryIndex1796260000003 } from '../migrations/1796260000003-frame-result-summary-index';
+import { StandardsAndFlags1796270000000 } from '../migrations/1796270000000-standards-and-flags';
 
 export const ALL_ENTITIES = [
   ClubEntity,
@@ -51,6 +55,9 @@ export const ALL_ENTITIES = [
   AuditEventEntity,
   RateLimitHitEntity,
   PasswordResetEntity,
+  ToleranceBandChangeEntity,
+  JobEntity,
+  ClipTurnsEntity,
 ];
 
 // Listed explicitly (no globs): bundlers and tsx cannot resolve migration globs reliably.
@@ -62,6 +69,7 @@ export const ALL_MIGRATIONS = [
   ClipProcessingStarts1796260000001,
   PasswordReset1796260000002,
   FrameResultSummaryIndex1796260000003,
+  StandardsAndFlags1796270000000,
 ];
 
 /** SQLite through better-sqlite3: WAL journal, foreign keys on (the driver always enables them), no synchronize. */

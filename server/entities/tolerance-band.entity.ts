@@ -13,8 +13,10 @@ export interface ToleranceBand {
   min: number | null;
   max: number | null;
   target: number | null;
-  /** "common practice" for seeded rules of thumb, "club" once a head coach sets it. */
+  /** "common practice" for seeded rules of thumb, "club" once a coach sets it. */
   source: 'common practice' | 'club';
+  /** 1 when seeded, one more with every change (tolerance_band_change keeps each). */
+  version: number;
   updatedById: string | null;
   updatedAt: Date;
 }
@@ -32,6 +34,7 @@ export const ToleranceBandEntity = new EntitySchema<ToleranceBand>({
     max: { type: 'real', nullable: true },
     target: { type: 'real', nullable: true },
     source: { type: 'varchar', length: 20, default: 'common practice' },
+    version: { type: 'integer', default: 1 },
     updatedById: nullableUuidColumn,
     updatedAt: timestampColumn,
   },

@@ -1,5 +1,6 @@
 import type { MetricKey } from '@shared/metrics';
-import type { FlagDto, FrameResultDto } from '@shared/schemas/frames.schema';
+import type { ClipFlagDto } from '@shared/schemas/flag.schema';
+import type { FrameResultDto } from '@shared/schemas/frames.schema';
 import type { Flag } from '../entities/flag.entity';
 import type { FrameResult } from '../entities/frame-result.entity';
 
@@ -14,11 +15,11 @@ export function toFrameDto(row: FrameResult): FrameResultDto {
   };
 }
 
-export function toFlagDto(row: Flag): FlagDto {
+export function toClipFlagDto(row: Flag): ClipFlagDto {
   return {
     id: row.id,
     model: row.model,
-    metric: row.metric as FlagDto['metric'],
+    metric: row.metric as ClipFlagDto['metric'],
     value: row.value,
     min: row.bandMin,
     max: row.bandMax,
@@ -26,5 +27,10 @@ export function toFlagDto(row: Flag): FlagDto {
     side: row.severity === 'low' ? 'below' : 'above',
     frameIndex: row.frameIndex,
     turnIndex: row.turnIndex,
+    firstFrame: row.firstFrame,
+    lastFrame: row.lastFrame,
+    frameCount: row.frameCount,
+    bandVersion: row.bandVersion,
+    status: row.status,
   };
 }

@@ -13,6 +13,12 @@ export interface ClipFilter {
 export class ClipRepository {
   constructor(private readonly manager: EntityManager) {}
 
+  findByIds(ids: string[]): Promise<Clip[]> {
+    return ids.length === 0
+      ? Promise.resolve([])
+      : this.manager.findBy(ClipEntity, { id: In([...new Set(ids)]) });
+  }
+
   findById(id: string): Promise<Clip | null> {
     return this.manager.findOneBy(ClipEntity, { id });
   }
@@ -41,13 +47,30 @@ export class ClipRepository {
     return qb.getMany();
   }
 
-  /** Tagged athlete ids per clip. */
   /** Every clip id in the database (maintenance: which stored objects still belong to a clip). */
   async allIds(): Promise<string[]> {
     const rows = await this.manager.find(ClipEntity, { select: { id: true } });
     return rows.map((r) => r.id);
   }
 
+  /** Ids of the club's clips showing an athlete of these age groups (null: every clip), in id order. */
+  async idsInAgeGroups(clubId: string, ageGroupIds: string[] | null): Promise<string[]> {
+    if (ageGroupIds !== null && ageGroupIds.length === 0) return [];
+    const qb = this.manager
+      .createQueryBuilder(ClipEntity, 'c')
+      .select('c.id', 'id')
+      .where('c.clubId = :clubId', { clubId })
+      .orderBy('c.id', 'ASC');
+    if (ageGroupIds !== null) {
+      qb.andWhere(
+        'EXISTS (SELECT 1 FROM clip_athlete ca INNER JOIN athlete a ON a.id = ca.athleteId WHERE ca.clipId = c.id AND a.ageGroupId IN (:...groups))',
+        { groups: ageGroupIds },
+      );
+    }
+    return (await qb.getRawMany<{ id: string }>()).map((r) => r.id);
+  }
+
+  /** Tagged athlete ids per clip. */
   async athleteIdsByClip(clipIds: string[]): Promise<Map<string, string[]>> {
     const result = new Map<string, string[]>();
     if (clipIds.length === 0) return result;

@@ -1,8 +1,16 @@
-import { In, IsNull, Not, type EntityManager } from 'typeorm';
+import { In, type EntityManager } from 'typeorm';
 import type { PoseModelName } from '@shared/keypoints';
+import type { FlagQuery, FlagStatus } from '@shared/schemas/flag.schema';
 import { FlagEntity, type Flag } from '../entities/flag.entity';
 
-const CHUNK = 500;
+const CHUNK = 200;
+
+/** What a club-wide flag search is narrowed to, on top of the query's own filters. */
+export interface FlagScope {
+  clubId: string;
+  /** Null: every athlete of the club. */
+  athleteIds: string[] | null;
+}
 
 export class FlagRepository {
   constructor(private readonly manager: EntityManager) {}
@@ -10,7 +18,7 @@ export class FlagRepository {
   list(clipId: string, model: PoseModelName): Promise<Flag[]> {
     return this.manager.find(FlagEntity, {
       where: { clipId, model },
-      order: { frameIndex: 'ASC', metric: 'ASC' },
+      order: { firstFrame: 'ASC', metric: 'ASC' },
     });
   }
 
@@ -18,27 +26,93 @@ export class FlagRepository {
     return this.manager.countBy(FlagEntity, { clipId, model });
   }
 
-  /** Removes the per-frame flags of these frames (turn flags are replaced separately). */
-  async deleteFrameFlags(clipId: string, model: PoseModelName, frameIndices: number[]): Promise<void> {
-    for (let i = 0; i < frameIndices.length; i += CHUNK) {
-      await this.manager.delete(FlagEntity, {
-        clipId,
-        model,
-        turnIndex: IsNull(),
-        frameIndex: In(frameIndices.slice(i, i + CHUNK)),
-      });
-    }
+  findById(id: string): Promise<Flag | null> {
+    return this.manager.findOneBy(FlagEntity, { id });
   }
 
-  async deleteTurnFlags(clipId: string, model: PoseModelName): Promise<void> {
-    await this.manager.delete(FlagEntity, { clipId, model, turnIndex: Not(IsNull()) });
+  /**
+   * Makes the stored flags of a clip and model exactly `fresh`. A flag found again (same metric and
+   * turn or stretch) keeps its id, review state and first-raised time; the rest are new; the ones no
+   * longer found are removed. The unique key (clip, model, metric, group) keeps a flag from being
+   * stored twice, whatever runs this twice.
+   */
+  async replace(
+    clipId: string,
+    model: PoseModelName,
+    fresh: Flag[],
+  ): Promise<{ added: number; removed: number }> {
+    const existing = new Map(
+      (await this.manager.findBy(FlagEntity, { clipId, model })).map((f) => [`${f.metric}|${f.groupKey}`, f]),
+    );
+    let kept = 0;
+    const rows = fresh.map((flag) => {
+      const prior = existing.get(`${flag.metric}|${flag.groupKey}`);
+      existing.delete(`${flag.metric}|${flag.groupKey}`);
+      if (prior) kept += 1;
+      return prior
+        ? {
+            ...flag,
+            id: prior.id,
+            status: prior.status,
+            statusComment: prior.statusComment,
+            statusById: prior.statusById,
+            statusAt: prior.statusAt,
+            createdAt: prior.createdAt,
+          }
+        : flag;
+    });
+    const gone = [...existing.values()].map((f) => f.id);
+    for (let i = 0; i < gone.length; i += CHUNK)
+      await this.manager.delete(FlagEntity, { id: In(gone.slice(i, i + CHUNK)) });
+    for (let i = 0; i < rows.length; i += 100) {
+      await this.manager.upsert(FlagEntity, rows.slice(i, i + 100), {
+        conflictPaths: ['clipId', 'model', 'metric', 'groupKey'],
+      });
+    }
+    return { added: rows.length - kept, removed: gone.length };
   }
 
   async deleteAll(clipId: string, model?: PoseModelName): Promise<void> {
     await this.manager.delete(FlagEntity, model ? { clipId, model } : { clipId });
   }
 
-  async insertMany(rows: Flag[]): Promise<void> {
-    for (let i = 0; i < rows.length; i += 100) await this.manager.insert(FlagEntity, rows.slice(i, i + 100));
+  async setStatus(
+    id: string,
+    patch: { status: FlagStatus; statusComment: string | null; statusById: string; statusAt: Date },
+  ): Promise<void> {
+    await this.manager.update(FlagEntity, { id }, patch);
+  }
+
+  /**
+   * The club's flags of each clip's default model, newest first, filtered and paged. Dates are the
+   * training session's day.
+   */
+  async search(scope: FlagScope, query: FlagQuery): Promise<{ rows: Flag[]; total: number }> {
+    if (scope.athleteIds !== null && scope.athleteIds.length === 0) return { rows: [], total: 0 };
+    const qb = this.manager
+      .createQueryBuilder(FlagEntity, 'f')
+      .innerJoin('Clip', 'c', 'c.id = f.clipId')
+      .leftJoin('TrainingSession', 's', 's.id = c.sessionId')
+      .where('c.clubId = :clubId', { clubId: scope.clubId })
+      .andWhere('f.model = c.defaultModel');
+    if (scope.athleteIds !== null) qb.andWhere('f.athleteId IN (:...scoped)', { scoped: scope.athleteIds });
+    if (query.athleteId) qb.andWhere('f.athleteId = :athleteId', { athleteId: query.athleteId });
+    if (query.clipId) qb.andWhere('f.clipId = :clipId', { clipId: query.clipId });
+    if (query.ageGroupId) qb.andWhere('f.ageGroupId = :ageGroupId', { ageGroupId: query.ageGroupId });
+    if (query.metric) qb.andWhere('f.metric = :metric', { metric: query.metric });
+    if (query.status) qb.andWhere('f.status = :status', { status: query.status });
+    if (query.from) qb.andWhere('s.date >= :from', { from: query.from });
+    if (query.to) qb.andWhere('s.date <= :to', { to: query.to });
+    const total = await qb.getCount();
+    const rows = await qb
+      .orderBy('f.createdAt', 'DESC')
+      .addOrderBy('s.date', 'DESC')
+      .addOrderBy('f.clipId', 'ASC')
+      .addOrderBy('f.firstFrame', 'ASC')
+      .addOrderBy('f.metric', 'ASC')
+      .offset((query.page - 1) * query.pageSize)
+      .limit(query.pageSize)
+      .getMany();
+    return { rows, total };
   }
 }

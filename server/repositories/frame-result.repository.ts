@@ -22,6 +22,38 @@ export class FrameResultRepository {
     });
   }
 
+  /** Frame indices and metrics only (no keypoints): what judging against bands reads. */
+  async listMetrics(
+    clipId: string,
+    model: PoseModelName,
+  ): Promise<{ frameIndex: number; metrics: FrameResult['metrics'] }[]> {
+    return this.manager.find(FrameResultEntity, {
+      select: { frameIndex: true, metrics: true },
+      where: { clipId, model },
+      order: { frameIndex: 'ASC' },
+    });
+  }
+
+  /** (clip, model, stored frames) of every clip with frames among these, in clip id then model order. */
+  async framesPerClipModel(
+    clipIds: string[],
+  ): Promise<{ clipId: string; model: PoseModelName; frames: number }[]> {
+    const out: { clipId: string; model: PoseModelName; frames: number }[] = [];
+    for (let i = 0; i < clipIds.length; i += CHUNK) {
+      const rows = await this.manager
+        .createQueryBuilder(FrameResultEntity, 'f')
+        .select('f.clipId', 'clipId')
+        .addSelect('f.model', 'model')
+        .addSelect('COUNT(*)', 'frames')
+        .where('f.clipId IN (:...ids)', { ids: clipIds.slice(i, i + CHUNK) })
+        .groupBy('f.clipId')
+        .addGroupBy('f.model')
+        .getRawMany<{ clipId: string; model: PoseModelName; frames: number | string }>();
+      out.push(...rows.map((r) => ({ clipId: r.clipId, model: r.model, frames: Number(r.frames) })));
+    }
+    return out.sort((a, b) => a.clipId.localeCompare(b.clipId) || a.model.localeCompare(b.model));
+  }
+
   findOne(clipId: string, model: PoseModelName, frameIndex: number): Promise<FrameResult | null> {
     return this.manager.findOneBy(FrameResultEntity, { clipId, model, frameIndex });
   }

@@ -10,6 +10,12 @@ export class SessionRepository {
     return this.manager.findOneBy(TrainingSessionEntity, { id });
   }
 
+  findByIds(ids: string[]): Promise<TrainingSession[]> {
+    return ids.length === 0
+      ? Promise.resolve([])
+      : this.manager.findBy(TrainingSessionEntity, { id: In([...new Set(ids)]) });
+  }
+
   /** Sessions of a club, newest first; `sessionIds` null means all of them. */
   list(clubId: string, sessionIds: string[] | null): Promise<TrainingSession[]> {
     if (sessionIds && sessionIds.length === 0) return Promise.resolve([]);

@@ -5,9 +5,11 @@ import { AuditRepository } from './audit.repository';
 import { AuthRepository } from './auth.repository';
 import { ClipMediaRepository } from './clip-media.repository';
 import { ClipRepository } from './clip.repository';
+import { ClipTurnsRepository } from './clip-turns.repository';
 import { ClubRepository } from './club.repository';
 import { FlagRepository } from './flag.repository';
 import { FrameResultRepository } from './frame-result.repository';
+import { JobRepository } from './job.repository';
 import { MemberRepository } from './member.repository';
 import { NoteRepository } from './note.repository';
 import { RateLimitRepository } from './rate-limit.repository';
@@ -24,9 +26,11 @@ export interface Repositories {
   readonly auth: AuthRepository;
   readonly clipMedia: ClipMediaRepository;
   readonly clips: ClipRepository;
+  readonly clipTurns: ClipTurnsRepository;
   readonly club: ClubRepository;
   readonly flags: FlagRepository;
   readonly frames: FrameResultRepository;
+  readonly jobs: JobRepository;
   readonly members: MemberRepository;
   readonly notes: NoteRepository;
   readonly rateLimits: RateLimitRepository;
@@ -53,9 +57,11 @@ export function repositoriesFor(manager: EntityManager): Repositories {
       auth: new AuthRepository(manager),
       clipMedia: new ClipMediaRepository(manager),
       clips: new ClipRepository(manager),
+      clipTurns: new ClipTurnsRepository(manager),
       club: new ClubRepository(manager),
       flags: new FlagRepository(manager),
       frames: new FrameResultRepository(manager),
+      jobs: new JobRepository(manager),
       members: new MemberRepository(manager),
       notes: new NoteRepository(manager),
       rateLimits: new RateLimitRepository(manager),

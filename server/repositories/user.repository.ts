@@ -1,4 +1,4 @@
-import type { EntityManager } from 'typeorm';
+import { In, type EntityManager } from 'typeorm';
 import { AthleteEntity } from '../entities/athlete.entity';
 import { CoachAssignmentEntity } from '../entities/coach-assignment.entity';
 import { GuardianLinkEntity } from '../entities/guardian-link.entity';
@@ -15,6 +15,17 @@ export class UserRepository {
 
   findById(id: string): Promise<User | null> {
     return this.manager.findOneBy(UserEntity, { id });
+  }
+
+  /** Display names of these users (people who changed a band or reviewed a flag). */
+  async namesByIds(ids: string[]): Promise<Map<string, string>> {
+    const unique = [...new Set(ids)];
+    if (unique.length === 0) return new Map();
+    const rows = await this.manager.find(UserEntity, {
+      select: { id: true, name: true },
+      where: { id: In(unique) },
+    });
+    return new Map(rows.map((u) => [u.id, u.name]));
   }
 
   findByEmail(email: string): Promise<User | null> {

@@ -166,6 +166,8 @@ export async function seedDemoClips(deps: DemoClipDeps, clubId: string): Promise
       });
       await deps.frames.storeBatch(ready, batch);
     }
+    // Turns and flags are found in the background after the last batch; the demo opens with them.
+    await deps.frames.seriesSettled(id, keypoints.model);
   }
   return ids;
 }

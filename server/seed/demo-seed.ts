@@ -4,7 +4,7 @@ import type { DataSource } from 'typeorm';
 import type { AgeGroup } from '../entities/age-group.entity';
 import type { User } from '../entities/user.entity';
 import { systemClock, type Clock } from '../services/principal';
-import { ToleranceBandService } from '../services/tolerance-band.service';
+import { bandService } from '../services/tolerance-band.service';
 import {
   DEMO_AGE_GROUPS,
   DEMO_ATHLETES,
@@ -117,10 +117,7 @@ export async function seedDemoClub(
         createdAt: now,
       });
     }
-    await new ToleranceBandService(new UnitOfWork(dataSource), opts.clock ?? systemClock).ensureDefaults(
-      manager,
-      clubId,
-    );
+    await bandService(new UnitOfWork(dataSource), opts.clock ?? systemClock).ensureDefaults(manager, clubId);
     return { clubId, clubName: DEMO_CLUB_NAME };
   });
 }

@@ -22,10 +22,15 @@ const FORBIDDEN_MESSAGES: Record<Permission, string> = {
   'note:read': 'Notes are shared with athletes and guardians only when a review is published',
   'note:write': 'Only coaches and the head coach can write notes',
   'tolerance:read': 'Your role cannot view tolerance bands',
+  'tolerance:write': 'Only coaches and the head coach can change tolerance bands',
+  'flag:read': 'Your role cannot view flags',
+  'flag:review': 'Only coaches and the head coach can review flags',
+  'job:read': 'Your role cannot follow background jobs',
   'invitation:create': 'Only coaches and the head coach can invite members',
   'club:members': 'Only the head coach can see the member list',
   'section:home': 'Your role has no home page of its own',
   'section:athletes': 'Your role cannot browse the athlete list',
+  'section:tolerances': 'Athletes and guardians see their target ranges on their own clips',
   'section:sessions': 'Your role cannot browse training sessions',
 };
 

@@ -14,6 +14,9 @@ export interface ClipMeasureContext {
   /** Lines set on single frames; each replaces the clip's line for its own frame. */
   frameLines: Map<number, ReferenceLine>;
   bands: { band: SharedBand; row: ToleranceBand }[];
+  /** The clip's first tagged athlete and their age group, whose bands apply (null: none tagged). */
+  athleteId: string | null;
+  ageGroupId: string | null;
 }
 
 /** The bands lookup a measure context needs (the tolerance-band service, or a test's stand-in). */
@@ -55,5 +58,7 @@ export async function loadMeasureContext(
     referenceLine,
     frameLines,
     bands: rows.filter((b) => b.row.view === 'both' || b.row.view === clip.view),
+    athleteId: first?.id ?? null,
+    ageGroupId: first?.ageGroupId ?? null,
   };
 }

@@ -121,30 +121,14 @@ export class ClipService {
       const tagged = shown(tags.get(clip.id) ?? [])
         .map((id) => athletes.get(id))
         .filter((a): a is Athlete => Boolean(a));
-      const token = this.tokens.signMedia({
-        sub: principal.user.id,
-        ver: principal.user.tokenVersion,
-        sid: principal.sessionId ?? '',
-        clip: clip.id,
-      });
-      const query = `?token=${encodeURIComponent(token)}`;
       const first = firsts.get(tags.get(clip.id)?.[0] ?? '');
       const group = first ? groups.get(first.ageGroupId) : undefined;
-      return toClipDto(
-        clip,
-        tagged,
-        {
-          media: `/api/clips/${clip.id}/media${query}`,
-          poster: `/api/clips/${clip.id}/poster${query}`,
-          thumbnails: `/api/clips/${clip.id}/thumbnails${query}`,
-        },
-        {
-          referenceLine: lines.get(clip.id) ?? null,
-          frameReferenceLines: frameLines.get(clip.id) ?? [],
-          ageGroup: group ? { id: group.id, name: group.name } : null,
-          analyses: analyses.get(clip.id) ?? [],
-        },
-      );
+      return toClipDto(clip, tagged, this.tokens.clipLinks(principal, clip.id), {
+        referenceLine: lines.get(clip.id) ?? null,
+        frameReferenceLines: frameLines.get(clip.id) ?? [],
+        ageGroup: group ? { id: group.id, name: group.name } : null,
+        analyses: analyses.get(clip.id) ?? [],
+      });
     });
   }
 

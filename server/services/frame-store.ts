@@ -2,7 +2,6 @@ import { randomUUID } from 'node:crypto';
 import type { EntityManager } from 'typeorm';
 import { alignToLine } from '@shared/geometry';
 import type { PoseModelName } from '@shared/keypoints';
-import type { MetricKey } from '@shared/metrics';
 import type {
   ClipFramesResponse,
   ClipSeriesDto,
@@ -11,13 +10,13 @@ import type {
   FrameCorrectionInput,
   FrameResultResponse,
 } from '@shared/schemas/frames.schema';
-import { estimateFrameRate, type SeriesResult } from '@shared/series';
-import { evaluateFrame, evaluateSeries, type ToleranceFlag } from '@shared/tolerance';
+import { estimateFrameRate, stretchGapFrames, type SeriesResult } from '@shared/series';
+import { groupFlags, type FlagGroup, type TurnWindow } from '@shared/tolerance';
 import type { Clip } from '../entities/clip.entity';
 import type { Flag } from '../entities/flag.entity';
 import type { FrameResult } from '../entities/frame-result.entity';
 import { HttpError, badRequest, conflict } from '../errors';
-import { toFlagDto, toFrameDto } from '../mappers/frame.mapper';
+import { toClipFlagDto, toFrameDto } from '../mappers/frame.mapper';
 import { loadMeasureContext, measureFrame, type BandSource, type ClipMeasureContext } from './clip-measure';
 import type { Clock } from './principal';
 import { sharedSeriesWorker, type SeriesAnalyzer } from '../workers/series-pool';
@@ -26,9 +25,10 @@ import type { UnitOfWork } from '../repositories/unit-of-work';
 
 /**
  * Stored pose results of a clip: batches from the browser, corrections, the snow line and view.
- * Metrics are always recomputed here from keypoints (client numbers are never stored), and the
- * tolerance bands of the clip's age group turn them into flags. Callers check access first
- * (ClipAnalysisService); the demo seed writes through here too.
+ * Metrics are always recomputed here from keypoints (client numbers are never stored). Once the
+ * clip's turns are known (the series), the tolerance bands of the clip's age group turn the metrics
+ * into flags, one per habit and turn. Callers check access first (ClipAnalysisService); the demo
+ * seed writes through here too.
  */
 export class FrameStore {
   private readonly seriesCache = new SeriesCache();
@@ -92,13 +92,13 @@ export class FrameStore {
       }
       // New frames and frames posted again in one statement per chunk (the transaction stays short).
       await repo.upsertMany(written);
-      await this.replaceFrameFlags(manager, clip, batch.model, ctx, written);
       this.forget(clip.id, batch.model);
       return { stored: written.length };
     });
-    // Turns need the whole clip: they are refreshed once the batch reaching the clip's end arrives,
-    // in the background (the series worker computes, a short transaction stores the turn flags), so
-    // the answer does not wait and other writers and readers go on. A read waits for it.
+    // Turns, and with them the flags, need the whole clip: they are refreshed once the batch reaching
+    // the clip's end arrives, in the background (the series worker computes, a short transaction
+    // stores turns and flags), so the answer does not wait and other writers and readers go on. A read
+    // waits for it.
     const last = clip.frameCount !== null ? clip.frameCount - 1 : null;
     if (last !== null && batch.frames.some((f) => f.frameIndex === last))
       this.scheduleSeries(clip, batch.model);
@@ -145,35 +145,39 @@ export class FrameStore {
     this.requireReady(clip);
     this.checkFrameRange(clip, [{ frameIndex, path: ['frameIndex'], timeMs: body.timeMs }]);
     const now = this.clock.now();
-    return this.uow.transaction(async (manager) => {
-      const ctx = await this.measureContext(manager, clip);
-      const repo = this.uow.of(manager).frames;
-      const prior = await repo.findOne(clip.id, body.model, frameIndex);
-      const timeMs = body.timeMs ?? prior?.timeMs ?? (clip.fps ? (frameIndex * 1000) / clip.fps : null);
-      if (timeMs === null)
-        throw badRequest('time_unknown', 'Send timeMs: the clip’s frame rate is not known');
-      const m = measureFrame(body.keypoints, ctx, frameIndex);
-      const row: FrameResult = {
-        id: prior?.id ?? randomUUID(),
-        clipId: clip.id,
-        frameIndex,
-        timeMs,
-        model: body.model,
-        keypoints: body.keypoints,
-        metrics: m.metrics,
-        reasons: m.reasons as Record<string, string>,
-        corrected: true,
-        createdAt: prior?.createdAt ?? now,
-        updatedAt: now,
-      };
-      await repo.upsertMany([row]);
-      await this.replaceFrameFlags(manager, clip, body.model, ctx, [row]);
-      // Turns need the whole clip (about a second for 3,000 frames): they are refreshed on the
-      // next read, so the corrected numbers come back at once.
-      this.forget(clip.id, body.model);
-      await record(manager);
-      return { frame: toFrameDto(row) };
-    });
+    return this.uow
+      .transaction(async (manager) => {
+        const ctx = await this.measureContext(manager, clip);
+        const repo = this.uow.of(manager).frames;
+        const prior = await repo.findOne(clip.id, body.model, frameIndex);
+        const timeMs = body.timeMs ?? prior?.timeMs ?? (clip.fps ? (frameIndex * 1000) / clip.fps : null);
+        if (timeMs === null)
+          throw badRequest('time_unknown', 'Send timeMs: the clip’s frame rate is not known');
+        const m = measureFrame(body.keypoints, ctx, frameIndex);
+        const row: FrameResult = {
+          id: prior?.id ?? randomUUID(),
+          clipId: clip.id,
+          frameIndex,
+          timeMs,
+          model: body.model,
+          keypoints: body.keypoints,
+          metrics: m.metrics,
+          reasons: m.reasons as Record<string, string>,
+          corrected: true,
+          createdAt: prior?.createdAt ?? now,
+          updatedAt: now,
+        };
+        await repo.upsertMany([row]);
+        this.forget(clip.id, body.model);
+        await record(manager);
+        return { frame: toFrameDto(row) };
+      })
+      .then((answer) => {
+        // Turns and flags need the whole clip (about a second for 3,000 frames): they are refreshed in
+        // the background, so the corrected numbers come back at once; a read waits for the refresh.
+        this.scheduleSeries(clip, body.model);
+        return answer;
+      });
   }
 
   async read(clip: Clip, model?: PoseModelName): Promise<ClipFramesResponse> {
@@ -195,7 +199,7 @@ export class FrameStore {
       }
     }
     const flags = await repos.flags.list(clip.id, chosen);
-    return { model: chosen, frames: frames.map(toFrameDto), series, flags: flags.map(toFlagDto) };
+    return { model: chosen, frames: frames.map(toFrameDto), series, flags: flags.map(toClipFlagDto) };
   }
 
   /** Every stored frame of every model of the clip, measured again with the clip's current view and line. */
@@ -214,11 +218,39 @@ export class FrameStore {
       list.push(row);
       byModel.set(row.model, list);
     }
-    await this.uow.of(manager).flags.deleteAll(clip.id);
-    for (const [model, rows] of byModel) {
-      await this.replaceFrameFlags(manager, clip, model, ctx, rows);
-      await this.refreshSeries(manager, clip, model, ctx, rows);
+    for (const [model, rows] of byModel) await this.refreshSeries(manager, clip, model, ctx, rows);
+  }
+
+  /**
+   * Judges the stored frames and turns of a clip again against its age group's bands as they are now,
+   * and stores the flags; `record` runs in the same transaction (a job's progress, so a step is done
+   * once or not at all). Turns come from the stored series; a clip whose turns were never found gets
+   * its series computed first. Returns the number of frames judged.
+   */
+  async reevaluate(
+    clip: Clip,
+    model: PoseModelName,
+    record: (manager: EntityManager) => Promise<void>,
+  ): Promise<number> {
+    const repos = this.uow.repos;
+    const stored = await repos.clipTurns.find(clip.id, model);
+    if (!stored) {
+      const ctx = await this.measureContext(repos.manager, clip);
+      const frames = await repos.frames.listByClip(clip.id, model);
+      const computed = await this.computeSeries(clip, ctx, frames);
+      await this.uow.transaction(async (manager) => {
+        await this.persistSeries(manager, clip, model, ctx, frames, computed);
+        await record(manager);
+      });
+      return frames.length;
     }
+    const frames = await repos.frames.listMetrics(clip.id, model);
+    await this.uow.transaction(async (manager) => {
+      const ctx = await this.measureContext(manager, clip);
+      await this.storeFlags(manager, clip, model, ctx, frames, stored.turns, stored.maxGapFrames);
+      await record(manager);
+    });
+    return frames.length;
   }
 
   private requireReady(clip: Clip): void {
@@ -277,52 +309,65 @@ export class FrameStore {
     return loadMeasureContext(this.uow.of(manager), this.bands, clip, manager);
   }
 
-  private flagRow(
-    clip: Clip,
-    model: PoseModelName,
-    ctx: ClipMeasureContext,
-    flag: ToleranceFlag,
-    frameResultId: string | null,
-  ): Flag {
-    const band = ctx.bands.find((b) => b.band.metric === flag.metric);
-    return {
-      id: randomUUID(),
-      clipId: clip.id,
-      frameResultId,
-      toleranceBandId: band?.row.id ?? null,
-      model,
-      frameIndex: flag.frameIndex ?? 0,
-      turnIndex: flag.turnIndex,
-      metric: flag.metric,
-      value: flag.value,
-      bandMin: flag.min,
-      bandMax: flag.max,
-      distance: flag.distance,
-      severity: flag.side === 'below' ? 'low' : 'high',
-      createdAt: this.clock.now(),
-    };
-  }
-
-  private async replaceFrameFlags(
+  /** Flags of these frames and turns against the clip's bands, stored in place of the old ones. */
+  private async storeFlags(
     manager: EntityManager,
     clip: Clip,
     model: PoseModelName,
     ctx: ClipMeasureContext,
-    rows: FrameResult[],
+    frames: readonly { frameIndex: number; metrics: Record<string, number | null> }[],
+    turns: readonly TurnWindow[],
+    maxGapFrames: number,
   ): Promise<void> {
-    const flags = this.uow.of(manager).flags;
-    await flags.deleteFrameFlags(
+    const groups = groupFlags(
+      frames,
+      turns,
+      ctx.bands.map((b) => b.band),
+      { maxGapFrames },
+    );
+    const now = this.clock.now();
+    await this.uow.of(manager).flags.replace(
       clip.id,
       model,
-      rows.map((r) => r.frameIndex),
+      groups.map((g) => this.flagRow(clip, model, ctx, g, now)),
     );
-    const bands = ctx.bands.map((b) => b.band);
-    const fresh = rows.flatMap((row) =>
-      evaluateFrame(row.metrics as Record<MetricKey, number | null>, bands, row.frameIndex).map((f) =>
-        this.flagRow(clip, model, ctx, f, row.id),
-      ),
-    );
-    await flags.insertMany(fresh);
+  }
+
+  private flagRow(
+    clip: Clip,
+    model: PoseModelName,
+    ctx: ClipMeasureContext,
+    group: FlagGroup,
+    now: Date,
+  ): Flag {
+    const band = ctx.bands.find((b) => b.band.metric === group.metric);
+    return {
+      id: randomUUID(),
+      clipId: clip.id,
+      model,
+      metric: group.metric,
+      groupKey: group.groupKey,
+      turnIndex: group.turnIndex,
+      firstFrame: group.firstFrame,
+      lastFrame: group.lastFrame,
+      frameCount: group.frameCount,
+      frameIndex: group.worstFrame,
+      value: group.value,
+      bandMin: group.min,
+      bandMax: group.max,
+      toleranceBandId: band?.row.id ?? null,
+      bandVersion: band?.row.version ?? 1,
+      distance: group.distance,
+      severity: group.side === 'below' ? 'low' : 'high',
+      athleteId: ctx.athleteId,
+      ageGroupId: ctx.ageGroupId,
+      status: 'unreviewed',
+      statusComment: null,
+      statusById: null,
+      statusAt: null,
+      createdAt: now,
+      updatedAt: now,
+    };
   }
 
   /** Series over the stored frames (turns, transitions, summary), cached, with the per-turn flags stored. */
@@ -354,7 +399,7 @@ export class FrameStore {
     );
   }
 
-  /** Stores the turn flags of a computed series and remembers it. */
+  /** Stores the turns of a computed series and the flags they group, and remembers the series. */
   private async persistSeries(
     manager: EntityManager,
     clip: Clip,
@@ -363,13 +408,26 @@ export class FrameStore {
     frames: FrameResult[],
     result: SeriesResult | null,
   ): Promise<ClipSeriesDto | null> {
-    const flags = this.uow.of(manager).flags;
-    await flags.deleteTurnFlags(clip.id, model);
-    if (result) {
-      const turnBands = ctx.bands.filter((b) => b.band.metric === 'transitionRise').map((b) => b.band);
-      const turnFlags = evaluateSeries({ ...result, frames: [] }, turnBands);
-      await flags.insertMany(turnFlags.map((f) => this.flagRow(clip, model, ctx, f, null)));
-    }
+    const turns: TurnWindow[] = (result?.turns ?? []).map((t) => ({
+      index: t.index,
+      startFrame: t.startFrame,
+      apexFrame: t.apexFrame,
+      endFrame: t.endFrame,
+      transitionRise: t.transitionRise,
+      insideShoulderDrop: t.insideShoulderDrop,
+      apexValues: { inclination: t.apexValues.inclination, angulation: t.apexValues.angulation },
+    }));
+    const fps = clip.fps && clip.fps > 0 ? clip.fps : (estimateFrameRate(frames) ?? 25);
+    const maxGapFrames = stretchGapFrames(frames, fps);
+    await this.uow.of(manager).clipTurns.save({
+      id: randomUUID(),
+      clipId: clip.id,
+      model,
+      turns,
+      maxGapFrames,
+      updatedAt: this.clock.now(),
+    });
+    await this.storeFlags(manager, clip, model, ctx, frames, turns, maxGapFrames);
     const series: ClipSeriesDto | null = result
       ? {
           turns: result.turns,

@@ -1,6 +1,7 @@
 import { createSecretKey, type KeyObject } from 'node:crypto';
 import jwt from 'jsonwebtoken';
-import type { Clock } from './principal';
+import type { ClipLinks } from '../mappers/clip.mapper';
+import type { Clock, Principal } from './principal';
 
 export const ACCESS_AUDIENCE = 'stanceline-api';
 export const MEDIA_AUDIENCE = 'stanceline-media';
@@ -53,6 +54,22 @@ export class TokenService {
 
   signMedia(claims: MediaClaims): string {
     return this.sign(claims, MEDIA_AUDIENCE, this.mediaTtlMs);
+  }
+
+  /** Video, poster and thumbnail-strip addresses of a clip that an <img> or <video> can load as this caller. */
+  clipLinks(principal: Principal, clipId: string): ClipLinks {
+    const token = this.signMedia({
+      sub: principal.user.id,
+      ver: principal.user.tokenVersion,
+      sid: principal.sessionId ?? '',
+      clip: clipId,
+    });
+    const query = `?token=${encodeURIComponent(token)}`;
+    return {
+      media: `/api/clips/${clipId}/media${query}`,
+      poster: `/api/clips/${clipId}/poster${query}`,
+      thumbnails: `/api/clips/${clipId}/thumbnails${query}`,
+    };
   }
 
   /** Returns the claims, or throws jsonwebtoken's TokenExpiredError / JsonWebTokenError. */

@@ -25,10 +25,16 @@ export const PERMISSIONS = {
   'note:read': ['head_coach', 'coach', 'analyst'],
   'note:write': ['head_coach', 'coach'],
   'tolerance:read': ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'],
+  // Coaches set the bands of the groups they coach, the head coach every group's (narrowed in the service).
+  'tolerance:write': ['head_coach', 'coach'],
+  'flag:read': ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'],
+  'flag:review': ['head_coach', 'coach'],
+  'job:read': ['head_coach', 'coach', 'analyst'],
   'invitation:create': ['head_coach', 'coach'],
   'club:members': ['head_coach'],
   // Sections of the app: which pages a role is sent to. The reads behind them are the rows above.
-  'section:home': ['head_coach', 'athlete', 'guardian'],
+  'section:home': ['head_coach', 'coach', 'athlete', 'guardian'],
+  'section:tolerances': ['head_coach', 'coach', 'analyst'],
   'section:athletes': ['head_coach', 'coach', 'analyst'],
   'section:sessions': ['head_coach', 'coach', 'analyst'],
 } as const satisfies Record<string, readonly Role[]>;

@@ -8,7 +8,7 @@ import {
 } from '../keypoints';
 import type { MetricKey } from '../metrics';
 import type { FilterRecord, SeriesSummary, Turn } from '../series';
-import type { BandMetricKey } from '../tolerance';
+import type { ClipFlagDto } from './flag.schema';
 
 /** No training clip is longer: a time past it is a mistake (it also keeps WebVTT cues valid). */
 export const MAX_CLIP_TIME_MS = 6 * 3600 * 1000;
@@ -112,21 +112,6 @@ export interface FrameResultDto {
   corrected: boolean;
 }
 
-/** A value outside its age group's band: per frame (turnIndex null) or per turn (transitionRise). */
-export interface FlagDto {
-  id: string;
-  model: PoseModelName;
-  metric: BandMetricKey;
-  value: number;
-  min: number | null;
-  max: number | null;
-  /** How far outside the band, in the metric's unit; always positive. */
-  distance: number;
-  side: 'below' | 'above';
-  frameIndex: number;
-  turnIndex: number | null;
-}
-
 export interface ClipSeriesDto {
   turns: Turn[];
   transitions: { frameIndex: number; timeMs: number }[];
@@ -139,13 +124,14 @@ export interface ClipFramesResponse {
   frames: FrameResultDto[];
   /** Null when no frames are stored yet (or the frame rate is not known). */
   series: ClipSeriesDto | null;
-  flags: FlagDto[];
+  /** Flags of this model: one per habit and turn (or stretch outside turns). */
+  flags: ClipFlagDto[];
 }
 
 export interface FrameBatchResponse {
   /** Frames written; a corrected frame is never replaced by a detected one, so skipped ones are not counted. */
   stored: number;
-  /** Flags now stored for this clip and model. */
+  /** Flags now stored for this clip and model (they are refreshed with the turns, after the clip's last frame). */
   flags: number;
 }
 

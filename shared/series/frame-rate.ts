@@ -21,3 +21,19 @@ export function estimateFrameRate(frames: readonly TimedFrame[]): number | null 
   if (msPerFrame.length === 0) return null;
   return 1000 / median(msPerFrame);
 }
+
+/** The smallest step between analysed frames (1 for every frame, N for every Nth). */
+export function frameStep(frames: readonly { frameIndex: number }[]): number {
+  let step = Infinity;
+  const sorted = frames.map((f) => f.frameIndex).sort((a, b) => a - b);
+  for (let i = 1; i < sorted.length; i++) step = Math.min(step, sorted[i] - sorted[i - 1] || Infinity);
+  return Number.isFinite(step) ? step : 1;
+}
+
+/** Frames closer than a quarter second read as one moment: one stretch of a flag outside turns. */
+export const FLAG_STRETCH_GAP_S = 0.25;
+
+/** The largest frame gap still one stretch: a quarter second, and never less than the analysis step. */
+export function stretchGapFrames(frames: readonly { frameIndex: number }[], fps: number): number {
+  return Math.max(frameStep(frames), Math.round(fps * FLAG_STRETCH_GAP_S));
+}

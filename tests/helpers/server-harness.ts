@@ -74,6 +74,7 @@ export async function createTestServer(env: Record<string, string> = {}): Promis
     dataSource: runtime.dataSource,
     storage: runtime.storage,
     mediaQueue: runtime.mediaQueue,
+    jobs: runtime.jobs,
     mailer: runtime.mailer,
     mailbox: runtime.mailbox,
     jwtSecret: runtime.jwtSecret,

@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestServer, type DemoRole, type TestServer } from '../helpers/server-harness';
 import { listRoutes } from '../helpers/route-list';
@@ -25,6 +26,11 @@ interface Ids {
   /** One throwaway note per role (by head, and by coach) for DELETE, so each call has its own target. */
   doomedByHead: Record<DemoRole, string>;
   doomedByCoach: Record<DemoRole, string>;
+  /** A flag on Elsie's clip (U14, coached by coach@) and one on Signe's (U16, not). */
+  flagElsie: string;
+  flagSigne: string;
+  /** A re-evaluation job the head coach's band change queued. */
+  job: string;
 }
 
 type Expect = Record<DemoRole, number>;
@@ -351,6 +357,64 @@ const ROWS: Row[] = [
     expect: all(200),
   },
   {
+    route: 'GET /api/tolerance-bands/history',
+    target: 'U14',
+    path: (i) => `/api/tolerance-bands/history?ageGroupId=${i.u14}`,
+    expect: all(200),
+  },
+  {
+    route: 'PUT /api/tolerance-bands/:ageGroupId/:metric',
+    target: 'a group the coach coaches (U14)',
+    path: (i) => `/api/tolerance-bands/${i.u14}/kneeSeparationRatio`,
+    body: () => ({ min: 0.75, max: 1.3, target: 1 }),
+    expect: { ...staffOnly(200), analyst: 403 },
+  },
+  {
+    route: 'PUT /api/tolerance-bands/:ageGroupId/:metric',
+    target: 'a group the coach does not coach (U16)',
+    path: (i) => `/api/tolerance-bands/${i.u16}/kneeSeparationRatio`,
+    body: () => ({ min: 0.75, max: 1.3, target: 1 }),
+    expect: { ...staffOnly(200), coach: 403, analyst: 403 },
+  },
+  {
+    route: 'POST /api/tolerance-bands/:ageGroupId/:metric/reset',
+    target: 'U14',
+    path: (i) => `/api/tolerance-bands/${i.u14}/kneeSeparationRatio/reset`,
+    expect: { ...staffOnly(200), analyst: 403 },
+  },
+  {
+    route: 'POST /api/tolerance-bands/:ageGroupId/:metric/reset',
+    target: 'U16',
+    path: (i) => `/api/tolerance-bands/${i.u16}/kneeSeparationRatio/reset`,
+    expect: { ...staffOnly(200), coach: 403, analyst: 403 },
+  },
+  {
+    route: 'GET /api/jobs/:id',
+    target: 'a re-evaluation of the club',
+    path: (i) => `/api/jobs/${i.job}`,
+    expect: { head: 200, coach: 200, analyst: 200, athlete: 403, guardian: 403 },
+  },
+  {
+    route: 'GET /api/flags',
+    target: 'the caller’s reach',
+    path: () => '/api/flags?status=unreviewed',
+    expect: all(200),
+  },
+  {
+    route: 'PATCH /api/flags/:id',
+    target: 'flag on Elsie’s clip (U14)',
+    path: (i) => `/api/flags/${i.flagElsie}`,
+    body: () => ({ status: 'reviewed', comment: 'Seen' }),
+    expect: { ...staffOnly(200), analyst: 403 },
+  },
+  {
+    route: 'PATCH /api/flags/:id',
+    target: 'flag on Signe’s clip (U16)',
+    path: (i) => `/api/flags/${i.flagSigne}`,
+    body: () => ({ status: 'dismissed', comment: null }),
+    expect: { ...staffOnly(200), coach: 404, analyst: 403 },
+  },
+  {
     route: 'GET /api/clips/:id/notes',
     target: 'own clip (notes are unpublished)',
     path: (i) => `/api/clips/${i.clipElsie}/notes`,
@@ -475,9 +539,31 @@ beforeAll(async () => {
     for (const r of ROLES) out[r] = await note(role, `To be deleted by ${r}`);
     return out;
   };
+  // Flags of a model no row posts frames for, so the band changes below do not judge them away.
+  const flag = async (clipId: string, athleteId: string, ageGroupId: string) => {
+    const id = randomUUID();
+    await server.runtime.dataSource.query(
+      `INSERT INTO flag (id, clipId, model, metric, groupKey, turnIndex, firstFrame, lastFrame, frameCount, frameIndex,
+         value, bandMin, bandMax, bandVersion, distance, severity, athleteId, ageGroupId, status, createdAt, updatedAt)
+       VALUES (?, ?, 'blazepose', 'kneeSeparationRatio', 't0', 0, 2, 9, 8, 5, 0.6, 0.8, 1.3, 1, 0.2, 'low', ?, ?,
+         'unreviewed', datetime('now'), datetime('now'))`,
+      [id, clipId, athleteId, ageGroupId],
+    );
+    return id;
+  };
+  const change = await server.http
+    .put(`/api/tolerance-bands/${base.u14}/shoulderTilt`)
+    .set(await server.bearer('head'))
+    .send({ min: -9, max: 9, target: 0 });
+  if (change.status !== 200)
+    throw new Error(`seed band change: ${change.status} ${JSON.stringify(change.body)}`);
+  await server.runtime.jobs.idle();
   ids = {
     ...base,
     ...clips,
+    flagElsie: await flag(clips.clipElsie, base.elsie, base.u14),
+    flagSigne: await flag(clips.clipSigne, base.signe, base.u16),
+    job: change.body.job.id as string,
     noteByHead: await note('head', 'Stance wider through the apex'),
     noteByCoach: await note('coach', 'Level shoulders at the apex'),
     doomedByHead: await doomed('head'),

@@ -2,7 +2,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Keypoint } from '@shared/keypoints';
 import { computeFrameMetrics } from '@shared/metrics';
 import type { ClipDto } from '@shared/schemas/clip.schema';
-import type { ClipFramesResponse, FlagDto } from '@shared/schemas/frames.schema';
+import type { ClipFlagDto as FlagDto } from '@shared/schemas/flag.schema';
+import type { ClipFramesResponse } from '@shared/schemas/frames.schema';
 import { createTestServer, type TestServer } from '../helpers/server-harness';
 import { clip as syntheticClip } from '../shared/series/synthetic-clip';
 import { removeRenderedVideos, renderVideo, settled, uploadClip } from './clip-fixtures';
@@ -51,8 +52,10 @@ async function readFrames(clipId: string, model = 'lightning'): Promise<ClipFram
   return res.body as ClipFramesResponse;
 }
 
+// Flags group neighbouring frames outside a band (one per turn or stretch): the shoulder-tilt flag
+// whose stretch holds this frame.
 const tiltFlags = (flags: FlagDto[], frameIndex: number) =>
-  flags.filter((f) => f.metric === 'shoulderTilt' && f.frameIndex === frameIndex);
+  flags.filter((f) => f.metric === 'shoulderTilt' && f.firstFrame <= frameIndex && frameIndex <= f.lastFrame);
 
 beforeAll(async () => {
   server = await createTestServer();

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { ToleranceBandDto } from '@shared/schemas/tolerance.schema';
 import { DEFAULT_BANDS } from '@shared/tolerance';
-import { defaultSetFor, ToleranceBandService } from '@server/services/tolerance-band.service';
+import { bandService, defaultSetFor } from '@server/services/tolerance-band.service';
 import { createTestServer, type TestServer } from '../helpers/server-harness';
 import { UnitOfWork } from '@server/repositories/unit-of-work';
 
@@ -67,7 +67,7 @@ describe('GET /api/tolerance-bands', () => {
 
 describe('seeding the defaults', () => {
   it('is idempotent and fills in only what is missing, leaving an edited band alone', async () => {
-    const service = new ToleranceBandService(new UnitOfWork(server.runtime.dataSource), server.clock);
+    const service = bandService(new UnitOfWork(server.runtime.dataSource), server.clock);
     expect(await service.ensureDefaultsForAllClubs()).toBe(0);
     const u12 = await server.ageGroupId('U12');
     await server.runtime.dataSource.query(
