@@ -34,6 +34,8 @@ export interface BandMetricInfo {
   per: 'frame' | 'turn';
   /** The view the value exists in; "both" for either. */
   view: View | 'both';
+  /** The per-frame readout that shows this value (a per-turn value is read from one). */
+  readout: MetricKey;
   /** The values the metric can take at all; a band edge outside them is refused. */
   range: readonly [number, number];
   /** What a value under `v` means, in words ("knees closer together than 0.80 of hip width"). */
@@ -52,6 +54,15 @@ export function formatUnitValue(value: number, unit: MetricUnit): string {
     case 'shin lengths':
       return `${value.toFixed(2)} shin lengths`;
   }
+}
+
+/** "0.80 to 1.30", "at most 0.05", "at least 2.0°", "no limits" for a band's edges. */
+export function formatBandRange(band: { min: number | null; max: number | null }, unit: MetricUnit): string {
+  const f = (v: number) => formatUnitValue(v, unit);
+  if (band.min !== null && band.max !== null) return `${f(band.min)} to ${f(band.max)}`;
+  if (band.max !== null) return `at most ${f(band.max)}`;
+  if (band.min !== null) return `at least ${f(band.min)}`;
+  return 'no limits';
 }
 
 type Words = Pick<BandMetricInfo, 'below' | 'above'>;
@@ -76,6 +87,13 @@ const signed = (positive: string, negative: string, unit: MetricUnit): Words => 
   };
 };
 
+const READOUT_OF_TURN_VALUE: Record<TurnValueKey, MetricKey> = {
+  transitionRise: 'legExtension',
+  apexInclination: 'inclination',
+  apexAngulation: 'angulation',
+  insideShoulderDrop: 'shoulderTilt',
+};
+
 const ANGLE: readonly [number, number] = [-180, 180];
 const LEAN: readonly [number, number] = [-90, 90];
 
@@ -87,6 +105,7 @@ function frameMetric(key: MetricKey, range: readonly [number, number], words: Wo
     unit: d.unit,
     per: 'frame',
     view: d.views.length === 1 ? d.views[0] : 'both',
+    readout: key,
     range,
     ...words,
   };
@@ -189,7 +208,7 @@ function buildCatalogue(): Record<BandMetricKey, BandMetricInfo> {
     unit: MetricUnit,
     range: readonly [number, number],
     words: Words,
-  ): BandMetricInfo => ({ key, label, unit, per: 'turn', view: 'front', range, ...words });
+  ): BandMetricInfo => ({ key, label, unit, per: 'turn', view: 'front', readout: READOUT_OF_TURN_VALUE[key], range, ...words });
   return {
     ...frame,
     transitionRise: turn('transitionRise', 'Transition rise', 'ratio', [-1, 1], {

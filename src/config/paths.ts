@@ -17,6 +17,17 @@ export const paths = {
     path: '/upload',
     href: (sessionId?: string) => (sessionId ? `/upload?session=${sessionId}` : '/upload'),
   },
-  clip: { path: '/clips/:clipId', href: (id: string) => `/clips/${id}` },
+  clip: {
+    path: '/clips/:clipId',
+    /** At a frame, with a metric's readout in view (a flag opens its clip this way). */
+    href: (id: string, at?: { frame?: number; metric?: string }) => {
+      const query = new URLSearchParams();
+      if (at?.frame !== undefined) query.set('frame', String(at.frame));
+      if (at?.metric) query.set('metric', at.metric);
+      const text = query.toString();
+      return text ? `/clips/${id}?${text}` : `/clips/${id}`;
+    },
+  },
+  tolerances: { path: '/tolerances', href: () => '/tolerances' },
   club: { path: '/club', href: () => '/club' },
 } as const;

@@ -3,7 +3,6 @@ import {
   chartRows,
   flagMarkers,
   flagSpans,
-  frameStep,
   metricsForView,
   nearestFrame,
   turnShading,
@@ -86,70 +85,31 @@ describe('metrics and values', () => {
   });
 });
 
-describe('flag spans', () => {
-  const flag = (metric: string, frameIndex: number, value: number, distance: number) => ({
-    metric,
-    frameIndex,
-    value,
-    distance,
-    turnIndex: null,
-  });
-
-  it('merges neighbouring flagged frames of a metric and points at the worst one', () => {
-    // Shoulder tilt band ±8°: 9° (1° out) at frame 10, 12° (4° out) at 11, 10° (2° out) at 12, then 9° at 20.
-    const spans = flagSpans(
-      [
-        flag('shoulderTilt', 11, 12, 4),
-        flag('shoulderTilt', 10, 9, 1),
-        flag('shoulderTilt', 12, 10, 2),
-        flag('shoulderTilt', 20, 9, 1),
-        flag('stanceWidthRatio', 11, 0.7, 0.1),
-      ],
-      1,
-    );
-    expect(spans).toEqual([
-      {
-        key: 'shoulderTilt-10',
-        metric: 'shoulderTilt',
-        firstFrame: 10,
-        lastFrame: 12,
-        worstFrame: 11,
-        worstValue: 12,
-        count: 3,
-      },
-      {
-        key: 'stanceWidthRatio-11',
-        metric: 'stanceWidthRatio',
-        firstFrame: 11,
-        lastFrame: 11,
-        worstFrame: 11,
-        worstValue: 0.7,
-        count: 1,
-      },
-      {
-        key: 'shoulderTilt-20',
-        metric: 'shoulderTilt',
-        firstFrame: 20,
-        lastFrame: 20,
-        worstFrame: 20,
-        worstValue: 9,
-        count: 1,
-      },
+describe('flag chips', () => {
+  it('shows the server’s grouped flags as chips in time order, pointing at each worst frame', () => {
+    const flag = (id: string, metric: 'shoulderTilt' | 'hipTilt', firstFrame: number, lastFrame: number, worst: number) =>
+      ({
+        id,
+        model: 'lightning',
+        metric,
+        value: 12,
+        min: -8,
+        max: 8,
+        distance: 4,
+        side: 'above',
+        frameIndex: worst,
+        turnIndex: 1,
+        firstFrame,
+        lastFrame,
+        frameCount: lastFrame - firstFrame + 1,
+        bandVersion: 2,
+        status: 'unreviewed',
+      }) as const;
+    const spans = flagSpans([flag('b', 'shoulderTilt', 20, 30, 25), flag('a', 'hipTilt', 10, 12, 11)]);
+    expect(spans.map((s) => [s.key, s.firstFrame, s.worstFrame, s.count])).toEqual([
+      ['a', 10, 11, 3],
+      ['b', 20, 25, 11],
     ]);
-  });
-
-  it('treats every-Nth frames as neighbours and skips flags without a frame', () => {
-    const spans = flagSpans(
-      [flag('hipTilt', 0, 1, 1), flag('hipTilt', 3, 1, 1), { ...flag('hipTilt', 0, 1, 1), frameIndex: null }],
-      3,
-    );
-    expect(spans).toHaveLength(1);
-    expect(spans[0]).toMatchObject({ firstFrame: 0, lastFrame: 3, count: 2 });
-  });
-
-  it('finds the analysis step', () => {
-    expect(frameStep([{ frameIndex: 0 }, { frameIndex: 3 }, { frameIndex: 6 }])).toBe(3);
-    expect(frameStep([{ frameIndex: 4 }])).toBe(1);
   });
 });
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { stripSlots, tileForTime } from '@/features/clip-workspace/lib/thumbnail-strip';
+import { stripSlots, tileForTime } from '@/lib/thumbnail-strip';
 
 // A sprite of 25 tiles, 5 columns, each 160×90, one tile per second (worked by hand).
 const strip = { url: '/s.jpg', count: 25, tileWidth: 160, tileHeight: 90, columns: 5, intervalMs: 1000 };

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { computeFrameMetrics } from '@shared/metrics';
-import { analyzeSeries, fillGaps, segmentTurns, SeriesInputError } from '@shared/series';
+import { analyzeSeries, fillGaps, frameStep, segmentTurns, SeriesInputError, stretchGapFrames } from '@shared/series';
 import { toKeypoints } from '../figures';
 import { clip, frontPose } from './synthetic-clip';
 
@@ -157,5 +157,15 @@ describe('bad options', () => {
     expect(r.frames).toEqual([]);
     expect(r.turns).toEqual([]);
     expect(r.summary.inclination.count).toBe(0);
+  });
+});
+
+describe('frame step and flag stretches (shared/series/frame-rate)', () => {
+  it('finds the analysis step and a quarter-second stretch gap never below it', () => {
+    expect(frameStep([{ frameIndex: 0 }, { frameIndex: 3 }, { frameIndex: 6 }])).toBe(3);
+    expect(frameStep([{ frameIndex: 4 }])).toBe(1);
+    // 25 fps: a quarter second is 6.25 frames, rounded to 6; every 10th frame analysed: 10.
+    expect(stretchGapFrames([{ frameIndex: 0 }, { frameIndex: 1 }], 25)).toBe(6);
+    expect(stretchGapFrames([{ frameIndex: 0 }, { frameIndex: 10 }], 25)).toBe(10);
   });
 });

@@ -1,26 +1,8 @@
-import type { MetricKey, MetricUnit } from '@shared/metrics';
+import type { MetricKey } from '@shared/metrics';
 import { checkBand, type ToleranceBand, type ToleranceFlag } from '@shared/tolerance';
 
-/** A metric value with its unit: degrees to 0.1°, ratios to 0.01, shin lengths to 0.01. */
-export function formatMetricValue(value: number, unit: MetricUnit): string {
-  switch (unit) {
-    case 'deg':
-      return `${value.toFixed(1)}°`;
-    case 'ratio':
-      return value.toFixed(2);
-    case 'shin lengths':
-      return `${value.toFixed(2)} shin lengths`;
-  }
-}
-
-/** "0.80 to 1.30", "at most 0.05", "at least 2.0°" for a band's limits. */
-export function formatBandRange(band: Pick<ToleranceBand, 'min' | 'max'>, unit: MetricUnit): string {
-  const f = (v: number) => formatMetricValue(v, unit);
-  if (band.min !== null && band.max !== null) return `${f(band.min)} to ${f(band.max)}`;
-  if (band.max !== null) return `at most ${f(band.max)}`;
-  if (band.min !== null) return `at least ${f(band.min)}`;
-  return 'no limits';
-}
+// One formatting for every screen: the tolerances page, the inbox and the workspace show the same text.
+export { formatBandRange, formatUnitValue as formatMetricValue } from '@shared/tolerance';
 
 export type BandCheck =
   | { state: 'none' }

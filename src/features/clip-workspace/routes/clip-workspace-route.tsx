@@ -1,5 +1,5 @@
-import { useCallback, useState } from 'react';
-import { Link, useParams } from 'react-router-dom';
+import { useCallback, useEffect, useRef, useState } from 'react';
+import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { Notice } from '@/components/ui/notice';
 import { PageHeader } from '@/components/ui/page-header';
 import { QueryError } from '@/components/ui/query-error';
@@ -20,6 +20,7 @@ import { ScrubBar } from '../components/player/scrub-bar';
 import { ReadoutsPanel } from '../components/readouts/readouts-panel';
 import { TransportBar } from '../components/player/transport-bar';
 import { ClipStageProvider, StageView } from '../components/stage/clip-stage';
+import { useStage, useStageClock } from '../components/stage/stage-context';
 import { useWorkspaceKeys } from '../hooks/use-workspace-keys';
 
 export function ClipWorkspaceRoute() {
@@ -102,6 +103,21 @@ function ClipHeader({ clip }: { clip: ClipDto }) {
   );
 }
 
+/** `?frame=N` (a flag, a shared link): seeks there once the video can show a frame. */
+function OpenAtFrame() {
+  const [params] = useSearchParams();
+  const { seekToFrame } = useStage();
+  const ready = useStageClock((s) => s.mediaReady);
+  const done = useRef(false);
+  const frame = Number(params.get('frame'));
+  useEffect(() => {
+    if (done.current || !ready || !params.has('frame') || !Number.isInteger(frame) || frame < 0) return;
+    done.current = true;
+    seekToFrame(frame);
+  }, [ready, frame, params, seekToFrame]);
+  return null;
+}
+
 function Workspace() {
   const [helpOpen, setHelpOpen] = useState(false);
   const toggleHelp = useCallback(() => setHelpOpen((open) => !open), []);
@@ -109,6 +125,7 @@ function Workspace() {
 
   return (
     <RenderProbe id="page">
+      <OpenAtFrame />
       <div className="grid gap-6 xl:grid-cols-[minmax(0,1fr)_23rem]">
         <div className="min-w-0 space-y-3">
           <OverlayToolbar />

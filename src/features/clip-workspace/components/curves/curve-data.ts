@@ -1,3 +1,4 @@
+import type { ClipFlagDto } from '@shared/schemas/flag.schema';
 import type { View } from '@shared/keypoints';
 import { METRIC_DEFINITIONS, METRIC_KEYS, type MetricKey, type MetricUnit } from '@shared/metrics';
 
@@ -135,58 +136,23 @@ export interface FlagSpan {
   worstFrame: number;
   worstValue: number;
   count: number;
+  turnIndex: number | null;
+  status: ClipFlagDto['status'];
 }
 
-/**
- * Flags of one metric on neighbouring analysed frames merge into one span, so a long stretch
- * outside a band reads as one moment. `maxGap` is the largest frame step still counted as neighbours
- * (the every-Nth step of the analysis).
- */
-export function flagSpans(flags: readonly (CurveFlag & { distance: number })[], maxGap: number): FlagSpan[] {
-  const byMetric = new Map<string, (CurveFlag & { distance: number; frameIndex: number })[]>();
-  for (const f of flags) {
-    if (f.frameIndex === null) continue;
-    const list = byMetric.get(f.metric) ?? [];
-    list.push(f as CurveFlag & { distance: number; frameIndex: number });
-    byMetric.set(f.metric, list);
-  }
-  const spans: FlagSpan[] = [];
-  for (const [metric, list] of byMetric) {
-    list.sort((a, b) => a.frameIndex - b.frameIndex);
-    let span: FlagSpan | null = null;
-    let worst = -Infinity;
-    for (const f of list) {
-      if (span && f.frameIndex - span.lastFrame <= maxGap) {
-        span.lastFrame = f.frameIndex;
-        span.count += 1;
-      } else {
-        if (span) spans.push(span);
-        span = {
-          key: `${metric}-${f.frameIndex}`,
-          metric,
-          firstFrame: f.frameIndex,
-          lastFrame: f.frameIndex,
-          worstFrame: f.frameIndex,
-          worstValue: f.value,
-          count: 1,
-        };
-        worst = -Infinity;
-      }
-      if (f.distance > worst) {
-        worst = f.distance;
-        span.worstFrame = f.frameIndex;
-        span.worstValue = f.value;
-      }
-    }
-    if (span) spans.push(span);
-  }
-  return spans.sort((a, b) => a.firstFrame - b.firstFrame || a.metric.localeCompare(b.metric));
-}
-
-/** The smallest step between analysed frames (1 for every frame, N for every Nth). */
-export function frameStep(frames: readonly { frameIndex: number }[]): number {
-  let step = Infinity;
-  const sorted = frames.map((f) => f.frameIndex).sort((a, b) => a - b);
-  for (let i = 1; i < sorted.length; i++) step = Math.min(step, sorted[i] - sorted[i - 1] || Infinity);
-  return Number.isFinite(step) ? step : 1;
+/** The server's flags (one per habit and turn, or stretch outside turns) as chips, in time order. */
+export function flagSpans(flags: readonly ClipFlagDto[]): FlagSpan[] {
+  return flags
+    .map((f) => ({
+      key: f.id,
+      metric: f.metric,
+      firstFrame: f.firstFrame,
+      lastFrame: f.lastFrame,
+      worstFrame: f.frameIndex,
+      worstValue: f.value,
+      count: f.frameCount,
+      turnIndex: f.turnIndex,
+      status: f.status,
+    }))
+    .sort((a, b) => a.firstFrame - b.firstFrame || a.metric.localeCompare(b.metric));
 }

@@ -14,11 +14,14 @@ import {
 } from 'recharts';
 import { Flag } from 'lucide-react';
 import type { View } from '@shared/keypoints';
-import { METRIC_DEFINITIONS, isMetricKey, type MetricKey } from '@shared/metrics';
+import { METRIC_DEFINITIONS, type MetricKey } from '@shared/metrics';
+import { BAND_METRICS, isBandMetricKey } from '@shared/tolerance';
+import { useUser } from '@/lib/auth';
 import { EmptyState } from '@/components/ui/empty-state';
 import { Notice } from '@/components/ui/notice';
 import { Spinner } from '@/components/ui/spinner';
 import { cn } from '@/lib/format';
+import { clipExtras } from '../../api/clip-contract';
 import { useClipFrames } from '../../api/get-clip-frames';
 import { formatClipTime } from '../../lib/frame-time';
 import { formatMetricValue } from '../../lib/metric-format';
@@ -31,7 +34,6 @@ import {
   defaultChartMetrics,
   flagMarkers,
   flagSpans,
-  frameStep,
   metricsForView,
   nearestFrame,
   turnShading,
@@ -39,7 +41,6 @@ import {
 } from './curve-data';
 
 const CHART_HEIGHT = 300;
-const FLAG_MERGE_S = 0.25;
 const MAX_FLAG_CHIPS = 40;
 
 /** Clip time (s) under the pointer, from the plot area's box (the grid) and the fixed time axis. */
@@ -57,14 +58,14 @@ function timeAtPointer(
 }
 
 function metricLabel(metric: string): string {
-  if (isMetricKey(metric)) return METRIC_DEFINITIONS[metric].label;
-  if (metric === 'transitionRise') return 'Transition rise';
-  return metric;
+  return isBandMetricKey(metric) ? BAND_METRICS[metric].label : metric;
 }
 
 function metricValue(metric: string, value: number): string {
-  return isMetricKey(metric) ? formatMetricValue(value, METRIC_DEFINITIONS[metric].unit) : value.toFixed(2);
+  return isBandMetricKey(metric) ? formatMetricValue(value, BAND_METRICS[metric].unit) : value.toFixed(2);
 }
+
+const STATUS_WORDS = { unreviewed: null, reviewed: 'reviewed', dismissed: 'dismissed' } as const;
 
 /**
  * The clip's curves. Nothing here reads the frame on screen: while the clip plays, the cursor moves by
@@ -94,11 +95,7 @@ export function CurvesPanel() {
   const transitions = data?.series?.transitions ?? [];
   const flags = useMemo(() => data?.flags ?? [], [data]);
   const markers = useMemo(() => flagMarkers(flags, frames, chosen), [flags, frames, chosen]);
-  // Flags closer than a quarter second read as one moment.
-  const spans = useMemo(
-    () => flagSpans(flags, Math.max(frameStep(frames), Math.round(fps * FLAG_MERGE_S))),
-    [flags, frames, fps],
-  );
+  const spans = useMemo(() => flagSpans(flags), [flags]);
 
   const hasDeg = chosen.some((k) => METRIC_DEFINITIONS[k].unit === 'deg');
   const hasRatio = chosen.some((k) => METRIC_DEFINITIONS[k].unit !== 'deg');
@@ -282,7 +279,13 @@ export function CurvesPanel() {
             </ResponsiveContainer>
             <FrameCursor box={chartBox} durationS={durationS} fps={fps} />
           </div>
-          <FlagList spans={spans} fps={fps} bandsCount={bands.length} onSeek={seekToFrame} />
+          <FlagList
+            spans={spans}
+            fps={fps}
+            bandsCount={bands.length}
+            onSeek={seekToFrame}
+            ageGroup={clipExtras(clip).ageGroup?.name ?? null}
+          />
         </>
       )}
     </section>
@@ -293,43 +296,68 @@ interface FlagListProps {
   spans: FlagSpan[];
   fps: number;
   bandsCount: number;
+  ageGroup: string | null;
   onSeek(frameIndex: number): void;
 }
 
-function FlagList({ spans, fps, bandsCount, onSeek }: FlagListProps) {
+/**
+ * The clip's flags, one per habit and turn. Coaches read them as coaching points with their review
+ * state; athletes and guardians read the same moments as their target range, without alarm colours.
+ */
+function FlagList({ spans, fps, bandsCount, ageGroup, onSeek }: FlagListProps) {
+  const { role } = useUser();
+  const forAthlete = role === 'athlete' || role === 'guardian';
   // The flag holding the frame on screen; the list re-renders only when that changes.
   const activeKey = useStageClock(
     (s) => spans.find((span) => s.frame >= span.firstFrame && s.frame <= span.lastFrame)?.key ?? null,
   );
+  const range = ageGroup ? `the target range for ${ageGroup}` : 'the age-group target range';
   if (spans.length === 0) {
     return (
       <p className="mt-2 text-sm text-spruce-700">
-        No value of this clip is outside its age-group band{bandsCount === 0 ? ' (no bands set)' : ''}.
+        {forAthlete
+          ? `Every measured value of this clip is inside ${range}.`
+          : `No value of this clip is outside its age-group band${bandsCount === 0 ? ' (no bands set)' : ''}.`}
       </p>
     );
   }
   return (
     <div className="mt-3">
       <h3 className="text-sm font-medium text-granite-800">
-        Outside the age-group band <span className="font-mono text-granite-600">({spans.length})</span>
+        {forAthlete ? `Moments outside ${range}` : 'Outside the age-group band'}{' '}
+        <span className="font-mono text-granite-600">({spans.length})</span>
       </h3>
+      {forAthlete ? (
+        <p className="text-xs text-granite-600">
+          Something to work on with your coach, one per turn; not a mark of anything wrong with your body.
+        </p>
+      ) : null}
       <ul className="mt-1 flex flex-wrap gap-1.5" aria-label="Flagged moments">
         {spans.slice(0, MAX_FLAG_CHIPS).map((s) => (
           <li key={s.key}>
             <button
               type="button"
               onClick={() => onSeek(s.worstFrame)}
+              title={`${s.count} ${s.count === 1 ? 'frame' : 'frames'} outside, frames ${s.firstFrame}–${s.lastFrame}`}
               className={cn(
-                'inline-flex items-center gap-1 rounded border border-alarm-500/40 bg-alarm-500/5 px-2 py-0.5 text-xs text-granite-800 hover:bg-alarm-500/10',
-                s.key === activeKey && 'ring-2 ring-alarm-500/50',
+                'inline-flex items-center gap-1 rounded border px-2 py-0.5 text-xs text-granite-800',
+                forAthlete
+                  ? 'border-glacier-300 bg-glacier-50 hover:bg-glacier-100'
+                  : 'border-alarm-500/40 bg-alarm-500/5 hover:bg-alarm-500/10',
+                s.status !== 'unreviewed' && !forAthlete && 'border-granite-200 bg-granite-50 text-granite-600',
+                s.key === activeKey && 'ring-2 ring-glacier-500/50',
               )}
             >
-              <Flag aria-hidden="true" className="h-3 w-3 text-alarm-600" />
+              {forAthlete ? null : <Flag aria-hidden="true" className="h-3 w-3 text-alarm-600" />}
               {metricLabel(s.metric)}{' '}
               <span className="font-mono tabular-nums">{metricValue(s.metric, s.worstValue)}</span>
+              <span className="text-granite-600">{s.turnIndex === null ? '' : `turn ${s.turnIndex + 1}`}</span>
               <span className="font-mono text-granite-600 tabular-nums">
                 {formatClipTime((s.worstFrame / fps) * 1000)}
               </span>
+              {!forAthlete && STATUS_WORDS[s.status] ? (
+                <span className="text-granite-600">· {STATUS_WORDS[s.status]}</span>
+              ) : null}
             </button>
           </li>
         ))}

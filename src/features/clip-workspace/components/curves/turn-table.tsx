@@ -24,16 +24,9 @@ export function signedFixed(value: number, digits: number): string {
   return Number(text) === 0 ? (0).toFixed(digits) : text;
 }
 
-/** Flags raised inside a turn: per-turn ones (transition rise) and per-frame ones within its span. */
+/** The flags of a turn: one per habit outside its band somewhere in the turn (and its per-turn values). */
 export function flagsInTurn(turn: Turn, flags: readonly ClipFlagDto[]): ClipFlagDto[] {
-  return flags.filter(
-    (f) =>
-      f.turnIndex === turn.index ||
-      (f.turnIndex === null &&
-        f.frameIndex !== null &&
-        f.frameIndex >= turn.startFrame &&
-        f.frameIndex < turn.endFrame),
-  );
+  return flags.filter((f) => f.turnIndex === turn.index);
 }
 
 export function TurnTable() {
@@ -140,6 +133,7 @@ export function TurnTable() {
                     <td className="py-1.5 pr-3">{turn.insideSide === 'left' ? 'Left leg' : 'Right leg'}</td>
                     {columns.map((key) => {
                       const value = turn.apexValues[key];
+                      // Red when the value at the apex itself is the turn's worst outside its band.
                       const flagged = own.some((f) => f.metric === key && f.frameIndex === turn.apexFrame);
                       return (
                         <td

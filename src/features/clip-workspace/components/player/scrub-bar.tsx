@@ -1,7 +1,7 @@
 import { useEffect, useRef, useState } from 'react';
 import { clipExtras } from '../../api/clip-contract';
 import { formatClipTime, frameStartMs } from '../../lib/frame-time';
-import { stripSlots, tileForTime } from '../../lib/thumbnail-strip';
+import { stripSlots, tileForTime } from '@/lib/thumbnail-strip';
 import { useAnnotations } from '../stage/annotations-context';
 import { useStage, useStageFrame } from '../stage/stage-context';
 

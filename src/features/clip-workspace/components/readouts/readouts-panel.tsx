@@ -1,7 +1,10 @@
 import { METRIC_DEFINITIONS, METRIC_KEYS, type MetricDefinition } from '@shared/metrics';
 import { POSE_MODEL_INFO } from '@shared/pose/pose-models';
 import { POSE_MODELS, type PoseModelName } from '@shared/keypoints';
+import { useEffect, useRef } from 'react';
+import { useSearchParams } from 'react-router-dom';
 import { Spinner } from '@/components/ui/spinner';
+import { useUser } from '@/lib/auth';
 import { cn } from '@/lib/format';
 import { clipExtras } from '../../api/clip-contract';
 import {
@@ -67,22 +70,38 @@ function LineInForce() {
   return <p className="text-xs text-granite-400">Tilts and leans against {text}</p>;
 }
 
-function MetricRow({ definition, pose }: { definition: MetricDefinition; pose: PoseFrameResult | null }) {
+interface MetricRowProps {
+  definition: MetricDefinition;
+  pose: PoseFrameResult | null;
+  /** Athletes and guardians read bands as their target range, not as alarms. */
+  forAthlete: boolean;
+  /** The metric a flag opened the clip for: kept in view and marked. */
+  focused: boolean;
+}
+
+function MetricRow({ definition, pose, forAthlete, focused }: MetricRowProps) {
   const { bands } = useAnalysis();
   const { clip } = useStage();
   const value = pose?.metrics[definition.key] ?? null;
   const confidence = pose?.confidence[definition.key];
   const check = value === null ? null : checkMetricBands(definition.key, value, bands);
-  const outside = check?.state === 'outside';
+  const outside = check?.state === 'outside' && !forAthlete;
   const ageGroup = clipExtras(clip).ageGroup?.name;
+  const row = useRef<HTMLLIElement>(null);
+  useEffect(() => {
+    if (focused) row.current?.scrollIntoView({ block: 'nearest' });
+  }, [focused]);
 
   return (
     <li
+      ref={row}
       className={cn(
         'grid grid-cols-[1fr_auto] gap-x-3 gap-y-0.5 border-b border-granite-100 px-3 py-2 last:border-b-0',
         outside && 'bg-alarm-500/5',
+        focused && 'ring-2 ring-glacier-500 ring-inset',
       )}
       data-metric={definition.key}
+      aria-current={focused ? 'true' : undefined}
     >
       <span className="text-sm text-granite-800" title={definition.description}>
         {definition.label}
@@ -114,7 +133,12 @@ function MetricRow({ definition, pose }: { definition: MetricDefinition; pose: P
                 points {Math.round(confidence * 100)}% sure
               </span>
             ) : null}
-            {check && check.state !== 'none' ? (
+            {check && check.state !== 'none' && forAthlete ? (
+              <span className="ml-2 text-glacier-700">
+                target range for {ageGroup ?? 'the age group'} {formatBandRange(check.band, definition.unit)}
+              </span>
+            ) : null}
+            {check && check.state !== 'none' && !forAthlete ? (
               <span className={cn('ml-2', outside ? 'text-alarm-600' : 'text-spruce-600')}>
                 {outside ? 'outside' : 'within'} {ageGroup ?? 'age-group'} band{' '}
                 {formatBandRange(check.band, definition.unit)}
@@ -131,6 +155,10 @@ function MetricRow({ definition, pose }: { definition: MetricDefinition; pose: P
 /** Every metric of the clip's view for the frame on screen, with units, confidence and band marks. */
 export function ReadoutsPanel() {
   const { view } = useStage().clip;
+  const { role } = useUser();
+  const forAthlete = role === 'athlete' || role === 'guardian';
+  const [params] = useSearchParams();
+  const focusedMetric = params.get('metric');
   const { model, setModel } = useAnalysis();
   const currentPose = useCurrentPose();
   const { poseStatus } = useFramePoseState();
@@ -161,7 +189,13 @@ export function ReadoutsPanel() {
       </header>
       <ul>
         {definitions.map((definition) => (
-          <MetricRow key={definition.key} definition={definition} pose={currentPose} />
+          <MetricRow
+            key={definition.key}
+            definition={definition}
+            pose={currentPose}
+            forAthlete={forAthlete}
+            focused={definition.key === focusedMetric}
+          />
         ))}
       </ul>
     </section>

@@ -1,4 +1,4 @@
-import type { ClipThumbnails } from '../api/clip-contract';
+import type { ThumbnailStripDto as ClipThumbnails } from '@shared/schemas/clip.schema';
 
 export interface TileOffset {
   index: number;
