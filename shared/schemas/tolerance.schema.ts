@@ -62,6 +62,8 @@ export function toleranceBandInputSchema(metric: BandMetricKey) {
 }
 
 export type ToleranceBandInput = z.infer<ReturnType<typeof toleranceBandInputSchema>>;
+/** What a form holds before parsing (target may be left out). */
+export type ToleranceBandFormValues = z.input<ReturnType<typeof toleranceBandInputSchema>>;
 
 export const toleranceHistoryQuerySchema = z.object({
   ageGroupId: z.string().uuid('Choose an age group').optional(),

@@ -208,7 +208,16 @@ function buildCatalogue(): Record<BandMetricKey, BandMetricInfo> {
     unit: MetricUnit,
     range: readonly [number, number],
     words: Words,
-  ): BandMetricInfo => ({ key, label, unit, per: 'turn', view: 'front', readout: READOUT_OF_TURN_VALUE[key], range, ...words });
+  ): BandMetricInfo => ({
+    key,
+    label,
+    unit,
+    per: 'turn',
+    view: 'front',
+    readout: READOUT_OF_TURN_VALUE[key],
+    range,
+    ...words,
+  });
   return {
     ...frame,
     transitionRise: turn('transitionRise', 'Transition rise', 'ratio', [-1, 1], {

@@ -59,6 +59,9 @@ export const routes: RouteObject[] = [
               guarded(paths.upload.path, 'clips.upload', async () => ({
                 Component: (await import('./routes/upload')).UploadPage,
               })),
+              guarded(paths.tolerances.path, 'tolerances.view', async () => ({
+                Component: (await import('@/features/standards/routes/tolerances-route')).TolerancesRoute,
+              })),
               guarded(paths.club.path, 'club.manage', async () => ({
                 Component: (await import('./routes/club')).ClubPage,
               })),

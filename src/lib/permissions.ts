@@ -13,7 +13,9 @@ export type Capability =
   | 'sessions.create'
   | 'clips.upload'
   | 'clips.analyse'
-  | 'club.manage';
+  | 'club.manage'
+  | 'tolerances.view'
+  | 'flags.review';
 
 // Each control the client hides maps onto a row of the one role table the server enforces.
 const CAPABILITY_PERMISSION: Record<Capability, Permission> = {
@@ -26,6 +28,8 @@ const CAPABILITY_PERMISSION: Record<Capability, Permission> = {
   'clips.upload': 'clip:upload',
   'clips.analyse': 'clip:analyse',
   'club.manage': 'club:members',
+  'tolerances.view': 'section:tolerances',
+  'flags.review': 'flag:review',
 };
 
 export const ROLE_LABELS: Record<Role, string> = {
@@ -51,6 +55,7 @@ const NAV: readonly NavItem[] = [
   { label: 'Athletes', to: paths.athletes.href(), capability: 'athletes.view' },
   { label: 'Sessions', to: paths.sessions.href(), capability: 'sessions.view' },
   { label: 'Upload', to: paths.upload.href(), capability: 'clips.upload' },
+  { label: 'Standards', to: paths.tolerances.href(), capability: 'tolerances.view' },
   { label: 'Club', to: paths.club.href(), capability: 'club.manage' },
 ];
 

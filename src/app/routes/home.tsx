@@ -9,12 +9,54 @@ import { useAthletes } from '@/features/athletes/api/get-athletes';
 import { ConsentBadge } from '@/features/athletes/components/consent-badge';
 import { useClips } from '@/features/clips/api/get-clips';
 import { ClipList } from '@/features/clips/components/clip-list';
+import { FlagInbox } from '@/features/flags/components/flag-inbox';
 import { HomeGreeting } from '@/features/home/components/home-greeting';
 import { StatTile } from '@/features/home/components/stat-tile';
 import { useSessions } from '@/features/sessions/api/get-sessions';
 import { useUser } from '@/lib/auth';
 import { formatDay } from '@/lib/format';
+import { can } from '@/lib/permissions';
 import { HomeOrLanding } from '../guards';
+
+/** The head coach's and a coach's inbox: flags of the groups they coach (the head coach: all). */
+function FlagsToReview({ user }: { user: UserDto }) {
+  return (
+    <Card title="Flags to review">
+      <p className="mb-2 text-sm text-granite-600">
+        One item per habit and turn outside its age-group band, newest first.{' '}
+        <Link className="text-glacier-700 hover:underline" to={paths.tolerances.href()}>
+          Set the bands
+        </Link>
+      </p>
+      <FlagInbox
+        canReview={can(user.role, 'flags.review')}
+        emptyText="No value of your athletes' analysed clips is outside its band. New flags appear here after clips are analysed or a band changes."
+      />
+    </Card>
+  );
+}
+
+function CoachHome({ user }: { user: UserDto }) {
+  const clips = useClips();
+  return (
+    <>
+      <HomeGreeting user={user} title="Home" />
+      <div className="grid gap-6 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
+        <FlagsToReview user={user} />
+        <section aria-label="Latest clips">
+          <h2 className="mb-3 text-base font-semibold text-granite-900">Latest clips of your athletes</h2>
+          {clips.isError ? (
+            <QueryError error={clips.error} what="clips" retry={() => void clips.refetch()} />
+          ) : null}
+          {clips.isPending ? <PageSpinner label="Loading clips" /> : null}
+          {clips.data ? (
+            <ClipList clips={clips.data.slice(0, 4)} emptyText="Clips appear here once you upload them." />
+          ) : null}
+        </section>
+      </div>
+    </>
+  );
+}
 
 function ClubOverview({ user }: { user: UserDto }) {
   const athletes = useAthletes();
@@ -34,6 +76,9 @@ function ClubOverview({ user }: { user: UserDto }) {
           to={paths.athletes.href()}
           note="Under-18s whose clips cannot be stored yet"
         />
+      </div>
+      <div className="mb-6">
+        <FlagsToReview user={user} />
       </div>
       <div className="grid gap-6 lg:grid-cols-2">
         <Card title="Waiting for guardian consent">
@@ -171,6 +216,8 @@ export function HomePage() {
         <MyClips user={user} />
       ) : user.role === 'guardian' ? (
         <GuardianHome user={user} />
+      ) : user.role === 'coach' ? (
+        <CoachHome user={user} />
       ) : (
         <ClubOverview user={user} />
       )}

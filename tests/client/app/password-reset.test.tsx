@@ -78,6 +78,9 @@ describe('forgotten password', () => {
       // The coach lands on Athletes after signing in.
       http.get(`${ORIGIN}/api/age-groups`, () => HttpResponse.json({ ageGroups: [] })),
       http.get(`${ORIGIN}/api/athletes`, () => HttpResponse.json({ athletes: [] })),
+      // A coach lands on Home: the flag inbox and the latest clips.
+      http.get(`${ORIGIN}/api/flags`, () => HttpResponse.json({ flags: [], total: 0, page: 1, pageSize: 10 })),
+      http.get(`${ORIGIN}/api/clips`, () => HttpResponse.json({ clips: [] })),
       http.get(`${ORIGIN}/api/me`, () =>
         HttpResponse.json({ user: member, club: { id: member.clubId, name: 'Test Club' } }),
       ),
@@ -93,7 +96,8 @@ describe('forgotten password', () => {
     await user.click(screen.getByRole('button', { name: 'Set the new password' }));
     expect(await screen.findByRole('navigation', { name: 'Main' })).toBeTruthy();
     expect(bodies).toEqual([{ password: 'password1234' }, { password: 'harbor kite seven maples' }]);
-    expect(router.state.location.pathname).toBe('/athletes');
+    expect(router.state.location.pathname).toBe('/');
+    expect(await screen.findByText('Nothing to review')).toBeTruthy();
   });
 
   it('says plainly when a link was used already, with a way to ask again', async () => {

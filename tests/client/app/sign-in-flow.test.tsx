@@ -73,9 +73,11 @@ describe('signing in', () => {
     expect(router.state.location.pathname).toBe('/athletes');
     const nav = screen.getByRole('navigation', { name: 'Main' });
     expect(Array.from(nav.querySelectorAll('a')).map((a) => a.textContent)).toEqual([
+      'Home',
       'Athletes',
       'Sessions',
       'Upload',
+      'Standards',
     ]);
   });
 

@@ -87,7 +87,13 @@ describe('metrics and values', () => {
 
 describe('flag chips', () => {
   it('shows the server’s grouped flags as chips in time order, pointing at each worst frame', () => {
-    const flag = (id: string, metric: 'shoulderTilt' | 'hipTilt', firstFrame: number, lastFrame: number, worst: number) =>
+    const flag = (
+      id: string,
+      metric: 'shoulderTilt' | 'hipTilt',
+      firstFrame: number,
+      lastFrame: number,
+      worst: number,
+    ) =>
       ({
         id,
         model: 'lightning',

@@ -6,9 +6,9 @@ import { can, landingPathFor, navFor } from '@/lib/permissions';
 // navigation (head coach: all; coach: Athletes, Sessions, Upload; athlete and guardian: Home; analyst:
 // Athletes, Sessions, read-only).
 const NAV: Record<(typeof ROLES)[number], string[]> = {
-  head_coach: ['Home', 'Athletes', 'Sessions', 'Upload', 'Club'],
-  coach: ['Athletes', 'Sessions', 'Upload'],
-  analyst: ['Athletes', 'Sessions'],
+  head_coach: ['Home', 'Athletes', 'Sessions', 'Upload', 'Standards', 'Club'],
+  coach: ['Home', 'Athletes', 'Sessions', 'Upload', 'Standards'],
+  analyst: ['Athletes', 'Sessions', 'Standards'],
   athlete: ['Home'],
   guardian: ['Home'],
 };
@@ -20,7 +20,8 @@ describe('role navigation', () => {
 
   it('lands each role on its first section', () => {
     expect(landingPathFor('head_coach')).toBe('/');
-    expect(landingPathFor('coach')).toBe('/athletes');
+    // Coaches land on their flag inbox.
+    expect(landingPathFor('coach')).toBe('/');
     expect(landingPathFor('analyst')).toBe('/athletes');
     expect(landingPathFor('athlete')).toBe('/');
     expect(landingPathFor('guardian')).toBe('/');

@@ -1,6 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import { computeFrameMetrics } from '@shared/metrics';
-import { analyzeSeries, fillGaps, frameStep, segmentTurns, SeriesInputError, stretchGapFrames } from '@shared/series';
+import {
+  analyzeSeries,
+  fillGaps,
+  frameStep,
+  segmentTurns,
+  SeriesInputError,
+  stretchGapFrames,
+} from '@shared/series';
 import { toKeypoints } from '../figures';
 import { clip, frontPose } from './synthetic-clip';
 

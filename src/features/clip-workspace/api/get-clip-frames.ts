@@ -4,7 +4,11 @@ import type { ClipFramesResponse } from '@shared/schemas/frames.schema';
 import { api } from '@/lib/api-client';
 import { clipWorkspaceKeys } from './keys';
 
-export type { ClipFramesResponse, ClipSeriesDto, FrameResultDto as StoredFrameDto } from '@shared/schemas/frames.schema';
+export type {
+  ClipFramesResponse,
+  ClipSeriesDto,
+  FrameResultDto as StoredFrameDto,
+} from '@shared/schemas/frames.schema';
 export type { ClipFlagDto } from '@shared/schemas/flag.schema';
 
 export function getClipFrames(clipId: string, model: PoseModelName): Promise<ClipFramesResponse> {

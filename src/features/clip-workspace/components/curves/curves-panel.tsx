@@ -344,14 +344,18 @@ function FlagList({ spans, fps, bandsCount, ageGroup, onSeek }: FlagListProps) {
                 forAthlete
                   ? 'border-glacier-300 bg-glacier-50 hover:bg-glacier-100'
                   : 'border-alarm-500/40 bg-alarm-500/5 hover:bg-alarm-500/10',
-                s.status !== 'unreviewed' && !forAthlete && 'border-granite-200 bg-granite-50 text-granite-600',
+                s.status !== 'unreviewed' &&
+                  !forAthlete &&
+                  'border-granite-200 bg-granite-50 text-granite-600',
                 s.key === activeKey && 'ring-2 ring-glacier-500/50',
               )}
             >
               {forAthlete ? null : <Flag aria-hidden="true" className="h-3 w-3 text-alarm-600" />}
               {metricLabel(s.metric)}{' '}
               <span className="font-mono tabular-nums">{metricValue(s.metric, s.worstValue)}</span>
-              <span className="text-granite-600">{s.turnIndex === null ? '' : `turn ${s.turnIndex + 1}`}</span>
+              <span className="text-granite-600">
+                {s.turnIndex === null ? '' : `turn ${s.turnIndex + 1}`}
+              </span>
               <span className="font-mono text-granite-600 tabular-nums">
                 {formatClipTime((s.worstFrame / fps) * 1000)}
               </span>
