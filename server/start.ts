@@ -8,6 +8,7 @@ import { createLogger } from './logger';
 import { startRuntime } from './runtime';
 import { seedDemoClips } from './seed/demo-clips';
 import { seedDemoClub } from './seed/demo-seed';
+import { seedDemoBandChanges, seedDemoFlagReviews } from './seed/demo-standards';
 import { FrameStore } from './services/frame-store';
 import { StorageJanitor } from './services/storage-janitor';
 import { UnitOfWork } from './repositories/unit-of-work';
@@ -59,6 +60,7 @@ export async function startStanceline(opts: StartOptions = {}): Promise<StartedS
     const added = await bands.ensureDefaultsForAllClubs();
     if (added > 0) logger.info({ bands: added }, 'seeded common-practice tolerance bands');
     if (seeded) {
+      await seedDemoBandChanges(runtime.dataSource, opts.clock);
       const clips = await seedDemoClips(
         {
           dataSource: runtime.dataSource,
@@ -72,6 +74,7 @@ export async function startStanceline(opts: StartOptions = {}): Promise<StartedS
         seeded.clubId,
       );
       logger.info({ clips: clips.length }, 'seeded the demo clips');
+      await seedDemoFlagReviews(runtime.dataSource, opts.clock);
     }
     // What an earlier run left when it was killed mid-upload: scratch files, parts, unrecorded objects.
     const janitor = new StorageJanitor({

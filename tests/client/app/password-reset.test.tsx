@@ -79,7 +79,9 @@ describe('forgotten password', () => {
       http.get(`${ORIGIN}/api/age-groups`, () => HttpResponse.json({ ageGroups: [] })),
       http.get(`${ORIGIN}/api/athletes`, () => HttpResponse.json({ athletes: [] })),
       // A coach lands on Home: the flag inbox and the latest clips.
-      http.get(`${ORIGIN}/api/flags`, () => HttpResponse.json({ flags: [], total: 0, page: 1, pageSize: 10 })),
+      http.get(`${ORIGIN}/api/flags`, () =>
+        HttpResponse.json({ flags: [], total: 0, page: 1, pageSize: 10 }),
+      ),
       http.get(`${ORIGIN}/api/clips`, () => HttpResponse.json({ clips: [] })),
       http.get(`${ORIGIN}/api/me`, () =>
         HttpResponse.json({ user: member, club: { id: member.clubId, name: 'Test Club' } }),
