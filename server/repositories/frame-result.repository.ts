@@ -22,16 +22,25 @@ export class FrameResultRepository {
     });
   }
 
-  /** Frame indices and metrics only (no keypoints): what judging against bands reads. */
+  /**
+   * Frame indices and metrics only (no keypoints), in frame order from `afterFrame`: what judging
+   * against bands reads. Read raw, as entity hydration of thousands of rows would hold the event loop
+   * many times longer.
+   */
   async listMetrics(
     clipId: string,
     model: PoseModelName,
+    page: { afterFrame: number; limit: number } = { afterFrame: -1, limit: 1_000_000 },
   ): Promise<{ frameIndex: number; metrics: FrameResult['metrics'] }[]> {
-    return this.manager.find(FrameResultEntity, {
-      select: { frameIndex: true, metrics: true },
-      where: { clipId, model },
-      order: { frameIndex: 'ASC' },
-    });
+    const rows = (await this.manager.query(
+      `SELECT "frameIndex", "metrics" FROM "frame_result" WHERE "clipId" = ? AND "model" = ? AND "frameIndex" > ?
+       ORDER BY "frameIndex" LIMIT ?`,
+      [clipId, model, page.afterFrame, page.limit],
+    )) as { frameIndex: number; metrics: string }[];
+    return rows.map((r) => ({
+      frameIndex: r.frameIndex,
+      metrics: JSON.parse(r.metrics) as FrameResult['metrics'],
+    }));
   }
 
   /** (clip, model, stored frames) of every clip with frames among these, in clip id then model order. */

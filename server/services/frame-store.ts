@@ -30,6 +30,11 @@ import type { UnitOfWork } from '../repositories/unit-of-work';
  * into flags, one per habit and turn. Callers check access first (ClipAnalysisService); the demo
  * seed writes through here too.
  */
+/** Stored frames read per slice of a re-check (about 2 ms of work). */
+const METRICS_PAGE = 500;
+
+const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
+
 export class FrameStore {
   private readonly seriesCache = new SeriesCache();
   private readonly refreshing = new Map<string, Promise<void>>();
@@ -244,10 +249,23 @@ export class FrameStore {
       });
       return frames.length;
     }
-    const frames = await repos.frames.listMetrics(clip.id, model);
+    // Read in pages, and between the reads, the judging and the write the event loop takes waiting
+    // requests: on one thread with a synchronous database, a step that never yields would hold every
+    // request back for its whole length.
+    const frames: { frameIndex: number; metrics: Record<string, number | null> }[] = [];
+    for (;;) {
+      const afterFrame = frames.length > 0 ? frames[frames.length - 1].frameIndex : -1;
+      const page = await repos.frames.listMetrics(clip.id, model, { afterFrame, limit: METRICS_PAGE });
+      frames.push(...page);
+      await yieldToEventLoop();
+      if (page.length < METRICS_PAGE) break;
+    }
+    const ctx = await this.measureContext(repos.manager, clip);
+    const stamp = this.clock.now();
+    const rows = this.flagRows(clip, model, ctx, frames, stored.turns, stored.maxGapFrames, stamp);
+    await yieldToEventLoop();
     await this.uow.transaction(async (manager) => {
-      const ctx = await this.measureContext(manager, clip);
-      await this.storeFlags(manager, clip, model, ctx, frames, stored.turns, stored.maxGapFrames);
+      await this.uow.of(manager).flags.replace(clip.id, model, rows);
       await record(manager);
     });
     return frames.length;
@@ -319,18 +337,29 @@ export class FrameStore {
     turns: readonly TurnWindow[],
     maxGapFrames: number,
   ): Promise<void> {
+    const stamp = this.clock.now();
+    await this.uow
+      .of(manager)
+      .flags.replace(clip.id, model, this.flagRows(clip, model, ctx, frames, turns, maxGapFrames, stamp));
+  }
+
+  /** The flag rows of these frames and turns against the clip's bands (shared groupFlags). */
+  private flagRows(
+    clip: Clip,
+    model: PoseModelName,
+    ctx: ClipMeasureContext,
+    frames: readonly { frameIndex: number; metrics: Record<string, number | null> }[],
+    turns: readonly TurnWindow[],
+    maxGapFrames: number,
+    now: Date,
+  ): Flag[] {
     const groups = groupFlags(
       frames,
       turns,
       ctx.bands.map((b) => b.band),
       { maxGapFrames },
     );
-    const now = this.clock.now();
-    await this.uow.of(manager).flags.replace(
-      clip.id,
-      model,
-      groups.map((g) => this.flagRow(clip, model, ctx, g, now)),
-    );
+    return groups.map((g) => this.flagRow(clip, model, ctx, g, now));
   }
 
   private flagRow(

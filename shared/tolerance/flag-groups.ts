@@ -37,6 +37,29 @@ export interface FrameValues {
   metrics: Partial<Record<MetricKey, number | null>>;
 }
 
+function openGroup(
+  metric: MetricKey,
+  groupKey: string,
+  turnIndex: number | null,
+  frameIndex: number,
+  band: ToleranceBand,
+): FlagGroup {
+  return {
+    metric,
+    groupKey,
+    turnIndex,
+    firstFrame: frameIndex,
+    lastFrame: frameIndex,
+    frameCount: 0,
+    worstFrame: frameIndex,
+    value: 0,
+    distance: -1,
+    side: 'above',
+    min: band.min,
+    max: band.max,
+  };
+}
+
 /** The per-turn value a band on `key` judges: apex lean and angulation unsigned, into the turn. */
 export function turnValue(turn: TurnWindow, key: TurnValueKey): number | null {
   switch (key) {
@@ -123,46 +146,38 @@ export function groupFlags(
       continue;
     }
     const metric = band.metric as MetricKey;
+    const { min, max } = band;
     const byTurn = new Map<number, FlagGroup>();
     let stretch: FlagGroup | null = null;
+    // The hot loop of a re-check (every stored frame × every band): no allocation unless outside.
     for (const frame of sortedFrames) {
       const value = frame.metrics[metric];
-      if (value === null || value === undefined) continue;
-      const flag = checkBand(band, value, { frameIndex: frame.frameIndex, turnIndex: null });
-      if (!flag) continue;
+      if (value === null || value === undefined || !Number.isFinite(value)) continue;
+      const below = min !== null && value < min;
+      if (!below && !(max !== null && value > max)) continue;
+      const distance = below ? (min as number) - value : value - (max as number);
       const turn = locate(frame.frameIndex);
-      const fresh = (groupKey: string): FlagGroup => ({
-        metric,
-        groupKey,
-        turnIndex: turn?.index ?? null,
-        firstFrame: frame.frameIndex,
-        lastFrame: frame.frameIndex,
-        frameCount: 0,
-        worstFrame: frame.frameIndex,
-        value,
-        distance: -1,
-        side: flag.side,
-        min: band.min,
-        max: band.max,
-      });
-      let group: FlagGroup;
+      let group: FlagGroup | undefined;
       if (turn) {
-        group = byTurn.get(turn.index) ?? fresh(`t${turn.index}`);
-        byTurn.set(turn.index, group);
+        group = byTurn.get(turn.index);
+        if (!group) {
+          group = openGroup(metric, `t${turn.index}`, turn.index, frame.frameIndex, band);
+          byTurn.set(turn.index, group);
+        }
       } else {
         if (!stretch || frame.frameIndex - stretch.lastFrame > options.maxGapFrames) {
-          stretch = fresh(`r${frame.frameIndex}`);
+          stretch = openGroup(metric, `r${frame.frameIndex}`, null, frame.frameIndex, band);
           groups.push(stretch);
         }
         group = stretch;
       }
       group.lastFrame = frame.frameIndex;
       group.frameCount += 1;
-      if (flag.distance > group.distance) {
-        group.distance = flag.distance;
+      if (distance > group.distance) {
+        group.distance = distance;
         group.worstFrame = frame.frameIndex;
         group.value = value;
-        group.side = flag.side;
+        group.side = below ? 'below' : 'above';
       }
     }
     groups.push(...byTurn.values());

@@ -29,14 +29,16 @@ function clipTime(ms: number): string {
 
 function ReviewControls({ flag }: { flag: FlagDto }) {
   const update = useUpdateFlag();
+  const [commenting, setCommenting] = useState(false);
   const [comment, setComment] = useState(flag.comment ?? '');
   const commentId = `flag-comment-${flag.id}`;
   const set = (status: FlagStatus) =>
     update.mutate({ flagId: flag.id, input: { status, comment: comment.trim() || null } });
+  const busy = (status: FlagStatus) => update.isPending && update.variables?.input.status === status;
   if (flag.status !== 'unreviewed') {
     return (
-      <div className="mt-2 flex flex-wrap items-center gap-2">
-        <Button size="sm" variant="quiet" busy={update.isPending} onClick={() => set('unreviewed')}>
+      <div className="mt-1 flex flex-wrap items-center gap-2">
+        <Button size="sm" variant="quiet" busy={busy('unreviewed')} onClick={() => set('unreviewed')}>
           Back to review
         </Button>
         <FormError message={update.isError ? errorMessage(update.error) : null} />
@@ -44,35 +46,36 @@ function ReviewControls({ flag }: { flag: FlagDto }) {
     );
   }
   return (
-    <div className="mt-2 space-y-2">
-      <label htmlFor={commentId} className="sr-only">
-        Comment for the other coaches
-      </label>
-      <textarea
-        id={commentId}
-        rows={1}
-        maxLength={1000}
-        value={comment}
-        onChange={(event) => setComment(event.target.value)}
-        placeholder="Comment for the other coaches (optional)"
-        className="block w-full rounded-md border border-granite-200 px-2 py-1 text-sm"
-      />
+    <div className="mt-1 space-y-2">
+      {commenting ? (
+        <div>
+          <label htmlFor={commentId} className="sr-only">
+            Comment for the other coaches
+          </label>
+          <textarea
+            id={commentId}
+            rows={2}
+            maxLength={1000}
+            value={comment}
+            autoFocus
+            onChange={(event) => setComment(event.target.value)}
+            placeholder="What you saw, what you will work on (other coaches read it)"
+            className="block w-full rounded-md border border-granite-200 px-2 py-1 text-sm"
+          />
+        </div>
+      ) : null}
       <div className="flex flex-wrap gap-2">
-        <Button
-          size="sm"
-          busy={update.isPending && update.variables?.input.status === 'reviewed'}
-          onClick={() => set('reviewed')}
-        >
+        <Button size="sm" busy={busy('reviewed')} onClick={() => set('reviewed')}>
           Mark reviewed
         </Button>
-        <Button
-          size="sm"
-          variant="secondary"
-          busy={update.isPending && update.variables?.input.status === 'dismissed'}
-          onClick={() => set('dismissed')}
-        >
+        <Button size="sm" variant="secondary" busy={busy('dismissed')} onClick={() => set('dismissed')}>
           Dismiss
         </Button>
+        {commenting ? null : (
+          <Button size="sm" variant="quiet" onClick={() => setCommenting(true)}>
+            Add a comment
+          </Button>
+        )}
       </div>
       <FormError message={update.isError ? errorMessage(update.error) : null} />
     </div>
