@@ -11,7 +11,7 @@ import type {
   FrameResultResponse,
 } from '@shared/schemas/frames.schema';
 import { estimateFrameRate, stretchGapFrames, type SeriesResult } from '@shared/series';
-import { groupFlags, type FlagGroup, type TurnWindow } from '@shared/tolerance';
+import { groupFlags, turnWindow, type FlagGroup, type TurnWindow } from '@shared/tolerance';
 import type { Clip } from '../entities/clip.entity';
 import type { Flag } from '../entities/flag.entity';
 import type { FrameResult } from '../entities/frame-result.entity';
@@ -437,15 +437,7 @@ export class FrameStore {
     frames: FrameResult[],
     result: SeriesResult | null,
   ): Promise<ClipSeriesDto | null> {
-    const turns: TurnWindow[] = (result?.turns ?? []).map((t) => ({
-      index: t.index,
-      startFrame: t.startFrame,
-      apexFrame: t.apexFrame,
-      endFrame: t.endFrame,
-      transitionRise: t.transitionRise,
-      insideShoulderDrop: t.insideShoulderDrop,
-      apexValues: { inclination: t.apexValues.inclination, angulation: t.apexValues.angulation },
-    }));
+    const turns: TurnWindow[] = (result?.turns ?? []).map(turnWindow);
     const fps = clip.fps && clip.fps > 0 ? clip.fps : (estimateFrameRate(frames) ?? 25);
     const maxGapFrames = stretchGapFrames(frames, fps);
     await this.uow.of(manager).clipTurns.save({

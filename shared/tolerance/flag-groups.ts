@@ -9,6 +9,19 @@ export type TurnWindow = Pick<
   'index' | 'startFrame' | 'apexFrame' | 'endFrame' | 'transitionRise' | 'insideShoulderDrop'
 > & { apexValues: Partial<Record<MetricKey, number | null>> };
 
+/** The part of a series turn that grouping and per-turn bands read (what a clip's stored turns keep). */
+export function turnWindow(turn: Turn): TurnWindow {
+  return {
+    index: turn.index,
+    startFrame: turn.startFrame,
+    apexFrame: turn.apexFrame,
+    endFrame: turn.endFrame,
+    transitionRise: turn.transitionRise,
+    insideShoulderDrop: turn.insideShoulderDrop,
+    apexValues: { inclination: turn.apexValues.inclination, angulation: turn.apexValues.angulation },
+  };
+}
+
 /**
  * One coaching point: a habit (a band's metric) outside its band in one turn, however many frames of
  * the turn it lasted; between turns (or in a clip without turns) one per stretch of neighbouring frames.

@@ -6,6 +6,7 @@ import type { AddressInfo } from 'node:net';
 import { performance } from 'node:perf_hooks';
 import { computeFrameMetrics } from '@shared/metrics';
 import { analyzeSeries, stretchGapFrames } from '@shared/series';
+import { turnWindow } from '@shared/tolerance';
 import type { FrameResult } from '@server/entities/frame-result.entity';
 import { UnitOfWork } from '@server/repositories/unit-of-work';
 import { createTestServer } from '../helpers/server-harness';
@@ -60,15 +61,7 @@ try {
   }));
   const metrics = frames.map((f) => computeFrameMetrics({ keypoints: f.keypoints, view: 'front' }));
   const series = analyzeSeries(frames, { view: 'front', fps: FPS });
-  const turns = series.turns.map((t) => ({
-    index: t.index,
-    startFrame: t.startFrame,
-    apexFrame: t.apexFrame,
-    endFrame: t.endFrame,
-    transitionRise: t.transitionRise,
-    insideShoulderDrop: t.insideShoulderDrop,
-    apexValues: { inclination: t.apexValues.inclination, angulation: t.apexValues.angulation },
-  }));
+  const turns = series.turns.map(turnWindow);
   const ds = server.runtime.dataSource;
   const columns = ((await ds.query(`PRAGMA table_info(clip)`)) as { name: string }[]).map(
     (c) => `"${c.name}"`,

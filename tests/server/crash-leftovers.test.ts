@@ -9,6 +9,7 @@ import { createLogger } from '@server/logger';
 import { UnitOfWork } from '@server/repositories/unit-of-work';
 import { StorageJanitor } from '@server/services/storage-janitor';
 import { startStanceline } from '@server/start';
+import { signInOver, startServerProcess } from '../helpers/server-process';
 import { createTestServer, type TestServer } from '../helpers/server-harness';
 import { removeRenderedVideos, renderVideo, settled, uploadClip } from './clip-fixtures';
 
@@ -119,42 +120,10 @@ describe('a server killed while a clip streams in', () => {
   });
 
   it('leaves no scratch file behind after its next start', { timeout: 120_000 }, async () => {
-    const port = await new Promise<number>((resolve) => {
-      const probe = http.createServer().listen(0, '127.0.0.1', () => {
-        const p = (probe.address() as { port: number }).port;
-        probe.close(() => resolve(p));
-      });
-    });
-    child = spawn(process.execPath, ['--import', 'tsx', 'server/main.ts'], {
-      cwd: process.cwd(),
-      env: {
-        ...process.env,
-        DATA_DIR: dataDir,
-        PORT: String(port),
-        HOST: '127.0.0.1',
-        BCRYPT_ROUNDS: '4',
-        LOG_LEVEL: 'warn',
-      },
-      stdio: ['ignore', 'pipe', 'pipe'],
-    });
-    const base = `http://127.0.0.1:${port}`;
-    const deadline = Date.now() + 90_000;
-    for (;;) {
-      const ok = await fetch(`${base}/api/health`).then(
-        (r) => r.ok,
-        () => false,
-      );
-      if (ok) break;
-      if (Date.now() > deadline) throw new Error('the server did not start');
-      await new Promise((r) => setTimeout(r, 300));
-    }
-    const login = await fetch(`${base}/api/auth/login`, {
-      method: 'POST',
-      headers: { 'Content-Type': 'application/json' },
-      body: JSON.stringify({ email: 'coach@larchwood.example', password: 'stanceline-demo' }),
-    });
-    const { accessToken } = (await login.json()) as { accessToken: string };
-    const auth = { Authorization: `Bearer ${accessToken}` };
+    const started = await startServerProcess(dataDir);
+    child = started.child;
+    const base = started.base;
+    const auth = await signInOver(base, 'coach@larchwood.example');
     const sessions = (await (await fetch(`${base}/api/sessions`, { headers: auth })).json()) as {
       sessions: { id: string }[];
     };

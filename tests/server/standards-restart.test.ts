@@ -1,11 +1,11 @@
-import { spawn, type ChildProcess } from 'node:child_process';
+import type { ChildProcess } from 'node:child_process';
 import fs from 'node:fs/promises';
-import http from 'node:http';
 import os from 'node:os';
 import path from 'node:path';
 import Database from 'better-sqlite3';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startStanceline } from '@server/start';
+import { signInOver, startServerProcess } from '../helpers/server-process';
 
 // A band change's re-check is a durable job: a server killed in the middle of it goes on after the
 // last finished step at its next start, and no flag is stored twice.
@@ -21,14 +21,6 @@ afterAll(async () => {
   await fs.rm(dataDir, { recursive: true, force: true });
 });
 
-const freePort = () =>
-  new Promise<number>((resolve) => {
-    const probe = http.createServer().listen(0, '127.0.0.1', () => {
-      const p = (probe.address() as { port: number }).port;
-      probe.close(() => resolve(p));
-    });
-  });
-
 async function waitFor<T>(what: string, probe: () => Promise<T | null>, seconds = 90): Promise<T> {
   const deadline = Date.now() + seconds * 1000;
   for (;;) {
@@ -37,16 +29,6 @@ async function waitFor<T>(what: string, probe: () => Promise<T | null>, seconds 
     if (Date.now() > deadline) throw new Error(`gave up waiting for ${what}`);
     await new Promise((r) => setTimeout(r, 100));
   }
-}
-
-async function signIn(base: string): Promise<Record<string, string>> {
-  const login = await fetch(`${base}/api/auth/login`, {
-    method: 'POST',
-    headers: { 'Content-Type': 'application/json' },
-    body: JSON.stringify({ email: 'head@larchwood.example', password: 'stanceline-demo' }),
-  });
-  const { accessToken } = (await login.json()) as { accessToken: string };
-  return { Authorization: `Bearer ${accessToken}`, 'Content-Type': 'application/json' };
 }
 
 interface JobView {
@@ -60,28 +42,11 @@ describe('a server killed while it re-checks flags', () => {
     'resumes the job after a restart and finishes it, with every flag once',
     { timeout: 240_000 },
     async () => {
-      const port = await freePort();
       // Two seconds between steps, so the kill lands between the first and the last clip.
-      child = spawn(process.execPath, ['--import', 'tsx', 'server/main.ts'], {
-        cwd: process.cwd(),
-        env: {
-          ...process.env,
-          DATA_DIR: dataDir,
-          PORT: String(port),
-          HOST: '127.0.0.1',
-          BCRYPT_ROUNDS: '4',
-          LOG_LEVEL: 'warn',
-          JOB_STEP_PAUSE: '2000ms',
-        },
-        stdio: ['ignore', 'ignore', 'inherit'],
-      });
-      const base = `http://127.0.0.1:${port}`;
-      await waitFor(
-        'the first start',
-        async () => ((await fetch(`${base}/api/health`)).ok ? true : null),
-        180,
-      );
-      const auth = await signIn(base);
+      const started = await startServerProcess(dataDir, { JOB_STEP_PAUSE: '2000ms' }, 180);
+      child = started.child;
+      const base = started.base;
+      const auth = await signInOver(base, 'head@larchwood.example');
       const groups = (await (await fetch(`${base}/api/age-groups`, { headers: auth })).json()) as {
         ageGroups: { id: string; name: string }[];
       };
@@ -120,7 +85,7 @@ describe('a server killed while it re-checks flags', () => {
         env: { BCRYPT_ROUNDS: '4' },
       });
       try {
-        const auth2 = await signIn(again.url);
+        const auth2 = await signInOver(again.url, 'head@larchwood.example');
         const finished = await waitFor('the resumed job', async () => {
           const view = (await (
             await fetch(`${again.url}/api/jobs/${job.id}`, { headers: auth2 })
