@@ -67,3 +67,8 @@ export function navFor(role: Role): NavItem[] {
 export function landingPathFor(role: Role): string {
   return navFor(role)[0]?.to ?? paths.home.href();
 }
+
+/** Athletes and guardians read a band as their target range, never as an alarm about the athlete. */
+export function readsBandsAsTarget(role: Role): boolean {
+  return readsBandsAsTarget(role);
+}

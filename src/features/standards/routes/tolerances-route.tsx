@@ -53,6 +53,11 @@ export function TolerancesRoute() {
     return <QueryError error={bands.error} what="the tolerance bands" retry={() => void bands.refetch()} />;
 
   const editable = selected !== null && bands.data.editableAgeGroupIds.includes(selected.id);
+  // The job this page's last change queued, or the club's newest one if another coach changed a band since.
+  const job =
+    [change.data?.job, bands.data.job]
+      .filter((j): j is NonNullable<typeof j> => Boolean(j))
+      .sort((a, b) => b.createdAt.localeCompare(a.createdAt))[0] ?? null;
   const shown = bands.data.bands.filter((b) => b.ageGroupId === selected?.id);
   const editingBand = editing ? (shown.find((b) => b.metric === editing) ?? null) : null;
   const save = (metric: BandMetricKey, input: Parameters<typeof change.mutateAsync>[0]['input']) =>
@@ -82,7 +87,7 @@ export function TolerancesRoute() {
         }
       />
       <div className="space-y-5">
-        <JobProgress job={bands.data.job} />
+        <JobProgress key={job?.id ?? 'none'} job={job} />
         <nav aria-label="Age groups">
           <ul className="flex flex-wrap gap-1.5">
             {groups.map((group) => (

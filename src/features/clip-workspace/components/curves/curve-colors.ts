@@ -14,4 +14,6 @@ export const SERIES_STYLES = [
 export const TURN_FILL = { left: '#94bfdc', right: '#f5b443' } as const;
 export const TURN_FILL_OPACITY = { left: 0.28, right: 0.22 } as const;
 export const FLAG_COLOR = '#b83422';
+/** The same moments for athletes and guardians: a target to work toward, not an alarm. */
+export const TARGET_COLOR = '#1f6f9f';
 export const CURSOR_COLOR = '#11243a';

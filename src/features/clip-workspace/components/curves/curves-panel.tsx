@@ -17,6 +17,7 @@ import type { View } from '@shared/keypoints';
 import { METRIC_DEFINITIONS, type MetricKey } from '@shared/metrics';
 import { BAND_METRICS, isBandMetricKey } from '@shared/tolerance';
 import { useUser } from '@/lib/auth';
+import { readsBandsAsTarget } from '@/lib/permissions';
 import { EmptyState } from '@/components/ui/empty-state';
 import { Notice } from '@/components/ui/notice';
 import { Spinner } from '@/components/ui/spinner';
@@ -27,7 +28,14 @@ import { formatClipTime } from '../../lib/frame-time';
 import { formatMetricValue } from '../../lib/metric-format';
 import { useAnalysis } from '../stage/analysis-context';
 import { useStage, useStageClock } from '../stage/stage-context';
-import { CURSOR_COLOR, FLAG_COLOR, SERIES_STYLES, TURN_FILL, TURN_FILL_OPACITY } from './curve-colors';
+import {
+  CURSOR_COLOR,
+  FLAG_COLOR,
+  SERIES_STYLES,
+  TARGET_COLOR,
+  TURN_FILL,
+  TURN_FILL_OPACITY,
+} from './curve-colors';
 import {
   axisFor,
   chartRows,
@@ -74,6 +82,8 @@ const STATUS_WORDS = { unreviewed: null, reviewed: 'reviewed', dismissed: 'dismi
 export function CurvesPanel() {
   const stage = useStage();
   const { model, bands } = useAnalysis();
+  const { role } = useUser();
+  const forAthlete = readsBandsAsTarget(role);
   const { clip, fps, frameCount, seekToFrame } = stage;
   const view = clip.view;
   const query = useClipFrames(clip.id, model);
@@ -252,7 +262,7 @@ export function CurvesPanel() {
                     x={m.t}
                     y={m.value}
                     r={3.5}
-                    fill={FLAG_COLOR}
+                    fill={forAthlete ? TARGET_COLOR : FLAG_COLOR}
                     stroke="#ffffff"
                     strokeWidth={1}
                     ifOverflow="extendDomain"
@@ -306,7 +316,7 @@ interface FlagListProps {
  */
 function FlagList({ spans, fps, bandsCount, ageGroup, onSeek }: FlagListProps) {
   const { role } = useUser();
-  const forAthlete = role === 'athlete' || role === 'guardian';
+  const forAthlete = readsBandsAsTarget(role);
   // The flag holding the frame on screen; the list re-renders only when that changes.
   const activeKey = useStageClock(
     (s) => spans.find((span) => s.frame >= span.firstFrame && s.frame <= span.lastFrame)?.key ?? null,

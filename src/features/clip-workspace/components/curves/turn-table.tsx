@@ -1,5 +1,7 @@
 import { useMemo } from 'react';
 import { Flag } from 'lucide-react';
+import { useUser } from '@/lib/auth';
+import { readsBandsAsTarget } from '@/lib/permissions';
 import type { View } from '@shared/keypoints';
 import { METRIC_DEFINITIONS, type MetricKey } from '@shared/metrics';
 import type { Turn } from '@shared/series';
@@ -31,6 +33,11 @@ export function flagsInTurn(turn: Turn, flags: readonly ClipFlagDto[]): ClipFlag
 
 export function TurnTable() {
   const { clip, seekToFrame } = useStage();
+  const { role } = useUser();
+  // Athletes and guardians read the same marks as their target range, not as alarms.
+  const forAthlete = readsBandsAsTarget(role);
+  const markClass = forAthlete ? 'text-glacier-700' : 'text-alarm-600';
+  const markText = forAthlete ? ' (outside the target range)' : ' (outside band)';
   const { model } = useAnalysis();
   const query = useClipFrames(clip.id, model);
   const turns = useMemo(() => query.data?.series?.turns ?? [], [query.data]);
@@ -140,31 +147,30 @@ export function TurnTable() {
                           key={key}
                           className={cn(
                             'py-1.5 pr-3 text-right font-mono tabular-nums',
-                            flagged && 'text-alarm-600',
+                            flagged && markClass,
                           )}
                         >
                           {value === null ? '—' : formatMetricValue(value, METRIC_DEFINITIONS[key].unit)}
-                          {flagged ? <span className="sr-only"> (outside band)</span> : null}
+                          {flagged ? <span className="sr-only">{markText}</span> : null}
                         </td>
                       );
                     })}
                     <td
-                      className={cn(
-                        'py-1.5 pr-3 text-right font-mono tabular-nums',
-                        riseFlag && 'text-alarm-600',
-                      )}
+                      className={cn('py-1.5 pr-3 text-right font-mono tabular-nums', riseFlag && markClass)}
                     >
                       {turn.transitionRise === null ? '—' : signedFixed(turn.transitionRise, 2)}
-                      {riseFlag ? <span className="sr-only"> (outside band)</span> : null}
+                      {riseFlag ? <span className="sr-only">{markText}</span> : null}
                     </td>
                     <td className="py-1.5">
                       {own.length > 0 ? (
-                        <span className="inline-flex items-center gap-1 text-alarm-600">
+                        <span className={cn('inline-flex items-center gap-1', markClass)}>
                           <Flag aria-hidden="true" className="h-3.5 w-3.5" />
                           <span className="font-mono tabular-nums">
                             {new Set(own.map((f) => f.metric)).size}
                           </span>
-                          <span className="sr-only">metrics outside band</span>
+                          <span className="sr-only">
+                            {forAthlete ? 'metrics outside the target range' : 'metrics outside band'}
+                          </span>
                         </span>
                       ) : (
                         <span className="text-granite-400">none</span>

@@ -5,6 +5,7 @@ import { useEffect, useRef } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { Spinner } from '@/components/ui/spinner';
 import { useUser } from '@/lib/auth';
+import { readsBandsAsTarget } from '@/lib/permissions';
 import { cn } from '@/lib/format';
 import { clipExtras } from '../../api/clip-contract';
 import {
@@ -156,7 +157,7 @@ function MetricRow({ definition, pose, forAthlete, focused }: MetricRowProps) {
 export function ReadoutsPanel() {
   const { view } = useStage().clip;
   const { role } = useUser();
-  const forAthlete = role === 'athlete' || role === 'guardian';
+  const forAthlete = readsBandsAsTarget(role);
   const [params] = useSearchParams();
   const focusedMetric = params.get('metric');
   const { model, setModel } = useAnalysis();
