@@ -70,5 +70,5 @@ export function landingPathFor(role: Role): string {
 
 /** Athletes and guardians read a band as their target range, never as an alarm about the athlete. */
 export function readsBandsAsTarget(role: Role): boolean {
-  return readsBandsAsTarget(role);
+  return role === 'athlete' || role === 'guardian';
 }

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { ROLES } from '@shared/schemas/auth.schema';
-import { can, landingPathFor, navFor } from '@/lib/permissions';
+import { can, landingPathFor, navFor, readsBandsAsTarget } from '@/lib/permissions';
 
 // Expected sections per role: the role table (shared/access/permissions.ts) as the foundation work spelled it out for the
 // navigation (head coach: all; coach: Athletes, Sessions, Upload; athlete and guardian: Home; analyst:
@@ -16,6 +16,10 @@ const NAV: Record<(typeof ROLES)[number], string[]> = {
 describe('role navigation', () => {
   it.each(ROLES)('%s sees exactly its sections', (role) => {
     expect(navFor(role).map((item) => item.label)).toEqual(NAV[role]);
+  });
+
+  it('has athletes and guardians read bands as their target range, staff as flags', () => {
+    expect(ROLES.filter((role) => readsBandsAsTarget(role))).toEqual(['athlete', 'guardian']);
   });
 
   it('lands each role on its first section', () => {
