@@ -14,6 +14,7 @@ export type Capability =
   | 'clips.upload'
   | 'clips.analyse'
   | 'club.manage'
+  | 'notes.read'
   | 'tolerances.view'
   | 'flags.review';
 
@@ -28,6 +29,7 @@ const CAPABILITY_PERMISSION: Record<Capability, Permission> = {
   'clips.upload': 'clip:upload',
   'clips.analyse': 'clip:analyse',
   'club.manage': 'club:members',
+  'notes.read': 'note:read',
   'tolerances.view': 'section:tolerances',
   'flags.review': 'flag:review',
 };

@@ -278,6 +278,45 @@ describe('bad band input', () => {
     expect(await server.count('tolerance_band_change')).toBe(changes);
   });
 
+  it('refuses malformed ids and queries on the other band and job routes with a 400', async () => {
+    const head = await as('head');
+    const cases: [string, Promise<{ status: number; body: { error: { message: string } } }>, string][] = [
+      [
+        'reset of an unknown metric',
+        server.http.post(`/api/tolerance-bands/${u14}/kneeAngle/reset`).set(head),
+        'metric',
+      ],
+      [
+        'reset of a group that is not an id',
+        server.http.post('/api/tolerance-bands/U14/shoulderTilt/reset').set(head),
+        'ageGroupId',
+      ],
+      ['a job id that is not an id', server.http.get('/api/jobs/latest').set(head), 'id'],
+      [
+        'history of a group that is not an id',
+        server.http.get('/api/tolerance-bands/history?ageGroupId=U14').set(head),
+        'ageGroupId',
+      ],
+      [
+        'history with no room for a change',
+        server.http.get('/api/tolerance-bands/history?limit=0').set(head),
+        'limit',
+      ],
+      [
+        'a flag id that is not an id',
+        server.http.patch('/api/flags/first').set(head).send({ status: 'reviewed' }),
+        'id',
+      ],
+    ];
+    for (const [what, request, field] of cases) {
+      const res = await request;
+      expect(res.status, what).toBe(400);
+      expect(JSON.stringify(res.body.error), what).toContain(field);
+    }
+    const missing = await server.http.get('/api/jobs/00000000-0000-4000-8000-000000000000').set(head);
+    expect(missing.status).toBe(404);
+  });
+
   it('refuses an age group that is not an id (400) and one of no club group (404)', async () => {
     const bad = await putBand('head', 'U14', 'shoulderTilt', { min: -8, max: 8 });
     expect(bad.status).toBe(400);

@@ -119,6 +119,7 @@ function OpenAtFrame() {
 }
 
 function Workspace() {
+  const user = useUser();
   const [helpOpen, setHelpOpen] = useState(false);
   const toggleHelp = useCallback(() => setHelpOpen((open) => !open), []);
   useWorkspaceKeys({ toggleHelp });
@@ -138,9 +139,12 @@ function Workspace() {
           <RenderProbe id="readouts">
             <ReadoutsPanel />
           </RenderProbe>
-          <RenderProbe id="notes">
-            <NotesPanel />
-          </RenderProbe>
+          {/* Notes reach athletes and guardians with a published review, not from the workspace. */}
+          {can(user.role, 'notes.read') ? (
+            <RenderProbe id="notes">
+              <NotesPanel />
+            </RenderProbe>
+          ) : null}
           <Notice tone="info" title="2D estimates, not medical advice">
             Angles come from one camera and depend on where it stood and how sure the pose model is of each
             joint. They are a coaching aid, not a medical or injury assessment: pain or injury goes to a

@@ -167,7 +167,7 @@ export function CurvesPanel() {
         </div>
       ) : (
         <>
-          <TurnLegend hasTurns={shades.length > 0} view={view} />
+          <TurnLegend hasTurns={shades.length > 0} view={view} forAthlete={forAthlete} />
           <div className="relative mt-2 cursor-crosshair" data-testid="curves-chart" ref={chartBox}>
             <ResponsiveContainer width="100%" height={CHART_HEIGHT}>
               <LineChart
@@ -386,7 +386,15 @@ function FlagList({ spans, fps, bandsCount, ageGroup, onSeek }: FlagListProps) {
   );
 }
 
-function TurnLegend({ hasTurns, view }: { hasTurns: boolean; view: 'front' | 'side' }) {
+function TurnLegend({
+  hasTurns,
+  view,
+  forAthlete,
+}: {
+  hasTurns: boolean;
+  view: 'front' | 'side';
+  forAthlete: boolean;
+}) {
   if (!hasTurns) {
     return (
       <p className="mt-2 text-xs text-granite-600">
@@ -413,8 +421,14 @@ function TurnLegend({ hasTurns, view }: { hasTurns: boolean; view: 'front' | 'si
         apex
       </span>
       <span className="inline-flex items-center gap-1">
-        <span aria-hidden="true" className="inline-block h-2.5 w-2.5 rounded-full bg-alarm-600" /> outside
-        band
+        <span
+          aria-hidden="true"
+          className={cn(
+            'inline-block h-2.5 w-2.5 rounded-full',
+            forAthlete ? 'bg-glacier-700' : 'bg-alarm-600',
+          )}
+        />{' '}
+        {forAthlete ? 'outside the target range' : 'outside band'}
       </span>
       <span className="inline-flex items-center gap-1">
         <span aria-hidden="true" className="inline-block h-3 border-l-2 border-glacier-950" /> frame on screen
