@@ -44,6 +44,8 @@ import { SessionService } from './services/session.service';
 import { TokenService } from './services/token.service';
 import { ToleranceBandService } from './services/tolerance-band.service';
 import { FlagService } from './services/flag.service';
+import { ExportService } from './services/export.service';
+import { exportRoutes } from './routes/exports.routes';
 import type { JobRunner } from './services/job-runner';
 import { flagRoutes } from './routes/flags.routes';
 import type { ObjectStorage } from './storage/object-storage';
@@ -104,6 +106,7 @@ export function createApp(deps: AppDeps): Express {
     notes: new NoteService(uow, clips, analysis, audit, clock),
     toleranceBands,
     flags: new FlagService(uow, access, tokens, clock),
+    exports: new ExportService(uow, access, frameStore),
     invitations: new InvitationService(
       uow,
       access,
@@ -137,6 +140,7 @@ export function createApp(deps: AppDeps): Express {
   app.use(noteRoutes(ctx));
   app.use(toleranceBandRoutes(ctx));
   app.use(flagRoutes(ctx));
+  app.use(exportRoutes(ctx));
   app.use(invitationRoutes(ctx));
   app.use(clubRoutes(ctx));
   app.use('/api', apiNotFound);

@@ -7,6 +7,7 @@ import { ClipMediaRepository } from './clip-media.repository';
 import { ClipRepository } from './clip.repository';
 import { ClipTurnsRepository } from './clip-turns.repository';
 import { ClubRepository } from './club.repository';
+import { ExportRepository } from './export.repository';
 import { FlagRepository } from './flag.repository';
 import { FrameResultRepository } from './frame-result.repository';
 import { JobRepository } from './job.repository';
@@ -28,6 +29,7 @@ export interface Repositories {
   readonly clips: ClipRepository;
   readonly clipTurns: ClipTurnsRepository;
   readonly club: ClubRepository;
+  readonly exports: ExportRepository;
   readonly flags: FlagRepository;
   readonly frames: FrameResultRepository;
   readonly jobs: JobRepository;
@@ -59,6 +61,7 @@ export function repositoriesFor(manager: EntityManager): Repositories {
       clips: new ClipRepository(manager),
       clipTurns: new ClipTurnsRepository(manager),
       club: new ClubRepository(manager),
+      exports: new ExportRepository(manager),
       flags: new FlagRepository(manager),
       frames: new FrameResultRepository(manager),
       jobs: new JobRepository(manager),

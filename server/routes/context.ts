@@ -8,6 +8,7 @@ import type { ClipAnalysisService } from '../services/clip-analysis.service';
 import type { ClipImageService } from '../services/clip-image.service';
 import type { ClipService } from '../services/clip.service';
 import type { ClubService } from '../services/club.service';
+import type { ExportService } from '../services/export.service';
 import type { FlagService } from '../services/flag.service';
 import type { InvitationService } from '../services/invitation.service';
 import type { NoteService } from '../services/note.service';
@@ -34,6 +35,7 @@ export interface RouteContext {
   notes: NoteService;
   toleranceBands: ToleranceBandService;
   flags: FlagService;
+  exports: ExportService;
   invitations: InvitationService;
   club: ClubService;
 }

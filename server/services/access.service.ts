@@ -26,11 +26,13 @@ const FORBIDDEN_MESSAGES: Record<Permission, string> = {
   'flag:read': 'Your role cannot view flags',
   'flag:review': 'Only coaches and the head coach can review flags',
   'job:read': 'Your role cannot follow background jobs',
+  'export:read': 'Your role cannot export data',
   'invitation:create': 'Only coaches and the head coach can invite members',
   'club:members': 'Only the head coach can see the member list',
   'section:home': 'Your role has no home page of its own',
   'section:athletes': 'Your role cannot browse the athlete list',
   'section:tolerances': 'Athletes and guardians see their target ranges on their own clips',
+  'section:exports': 'Athletes and guardians export their own data from their clips',
   'section:sessions': 'Your role cannot browse training sessions',
 };
 

@@ -207,6 +207,17 @@ export class FrameStore {
     return { model: chosen, frames: frames.map(toFrameDto), series, flags: flags.map(toClipFlagDto) };
   }
 
+  /**
+   * The clip's smoothed series over its stored frames (the values=smoothed export), computed in the
+   * series worker; null without frames or a frame rate.
+   */
+  async smoothed(clip: Clip, model: PoseModelName): Promise<SeriesResult | null> {
+    const repos = this.uow.repos;
+    const frames = await repos.frames.listByClip(clip.id, model);
+    const ctx = await this.measureContext(repos.manager, clip);
+    return this.computeSeries(clip, ctx, frames, true);
+  }
+
   /** Every stored frame of every model of the clip, measured again with the clip's current view and line. */
   async recomputeClip(manager: EntityManager, clip: Clip, now: Date): Promise<void> {
     const ctx = await this.measureContext(manager, clip);
@@ -415,6 +426,7 @@ export class FrameStore {
     clip: Clip,
     ctx: ClipMeasureContext,
     frames: FrameResult[],
+    withFrames = false,
   ): Promise<SeriesResult | null> {
     const fps = clip.fps && clip.fps > 0 ? clip.fps : estimateFrameRate(frames);
     if (frames.length === 0 || !fps) return null;
@@ -425,6 +437,7 @@ export class FrameStore {
         return { frameIndex: f.frameIndex, timeMs: f.timeMs, keypoints };
       }),
       { view: ctx.view, referenceLine: ctx.referenceLine, fps },
+      withFrames,
     );
   }
 

@@ -8,7 +8,8 @@ interface Pending {
 
 /** Computes a clip's series; the worker in the app, the same function inline in a unit test. */
 export interface SeriesAnalyzer {
-  analyze(frames: SeriesFrameInput[], options: SeriesOptions): Promise<SeriesResult>;
+  /** The per-frame smoothed values come back only with `withFrames` (they are most of the result). */
+  analyze(frames: SeriesFrameInput[], options: SeriesOptions, withFrames?: boolean): Promise<SeriesResult>;
 }
 
 let shared: SeriesWorker | null = null;
@@ -31,14 +32,14 @@ export class SeriesWorker implements SeriesAnalyzer {
   private readonly pending = new Map<number, Pending>();
   private nextId = 1;
 
-  analyze(frames: SeriesFrameInput[], options: SeriesOptions): Promise<SeriesResult> {
+  analyze(frames: SeriesFrameInput[], options: SeriesOptions, withFrames = false): Promise<SeriesResult> {
     const worker = this.ensure();
     const id = this.nextId++;
     return new Promise<SeriesResult>((resolve, reject) => {
       this.pending.set(id, { resolve, reject });
       // Referenced while it has work, so a script waiting for a result is not ended under it.
       worker.ref();
-      worker.postMessage({ id, frames, options });
+      worker.postMessage({ id, frames, options, withFrames });
     });
   }
 

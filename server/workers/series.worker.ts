@@ -7,13 +7,15 @@ interface Job {
   id: number;
   frames: SeriesFrameInput[];
   options: SeriesOptions;
+  withFrames?: boolean;
 }
 
 parentPort?.on('message', (job: Job) => {
   try {
-    // Per-frame values stay here: the caller needs turns, transitions, summary and filter only.
+    // Per-frame values stay here unless asked for (an export of smoothed values): the store needs
+    // turns, transitions, summary and filter only.
     const result = analyzeSeries(job.frames, job.options);
-    parentPort?.postMessage({ id: job.id, result: { ...result, frames: [] } });
+    parentPort?.postMessage({ id: job.id, result: job.withFrames ? result : { ...result, frames: [] } });
   } catch (error) {
     parentPort?.postMessage({ id: job.id, error: error instanceof Error ? error.message : String(error) });
   }

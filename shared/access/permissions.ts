@@ -30,11 +30,14 @@ export const PERMISSIONS = {
   'flag:read': ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'],
   'flag:review': ['head_coach', 'coach'],
   'job:read': ['head_coach', 'coach', 'analyst'],
+  // Everyone exports what they may see: staff their reach, athletes and guardians their own rows.
+  'export:read': ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'],
   'invitation:create': ['head_coach', 'coach'],
   'club:members': ['head_coach'],
   // Sections of the app: which pages a role is sent to. The reads behind them are the rows above.
   'section:home': ['head_coach', 'coach', 'athlete', 'guardian'],
   'section:tolerances': ['head_coach', 'coach', 'analyst'],
+  'section:exports': ['head_coach', 'coach', 'analyst'],
   'section:athletes': ['head_coach', 'coach', 'analyst'],
   'section:sessions': ['head_coach', 'coach', 'analyst'],
 } as const satisfies Record<string, readonly Role[]>;

@@ -415,6 +415,42 @@ const ROWS: Row[] = [
     expect: { ...staffOnly(200), coach: 404, analyst: 403 },
   },
   {
+    route: 'GET /api/exports/frames.csv',
+    target: 'what the caller may see',
+    path: () => '/api/exports/frames.csv?metrics=shoulderTilt',
+    expect: all(200),
+  },
+  {
+    route: 'GET /api/exports/frames.csv',
+    target: 'a clip of another group (U16)',
+    path: (i) => `/api/exports/frames.csv?clipId=${i.clipSigne}`,
+    expect: { head: 200, coach: 404, analyst: 200, athlete: 404, guardian: 404 },
+  },
+  {
+    route: 'GET /api/exports/keypoints.csv',
+    target: 'own clip',
+    path: (i) => `/api/exports/keypoints.csv?clipId=${i.clipElsie}`,
+    expect: all(200),
+  },
+  {
+    route: 'GET /api/exports/turns.csv',
+    target: 'what the caller may see',
+    path: () => '/api/exports/turns.csv',
+    expect: all(200),
+  },
+  {
+    route: 'GET /api/exports/count',
+    target: 'frames of what the caller may see',
+    path: () => '/api/exports/count?kind=frames',
+    expect: all(200),
+  },
+  {
+    route: 'GET /api/exports/codebook',
+    target: 'the columns',
+    path: () => '/api/exports/codebook',
+    expect: all(200),
+  },
+  {
     route: 'GET /api/clips/:id/notes',
     target: 'own clip (notes are unpublished)',
     path: (i) => `/api/clips/${i.clipElsie}/notes`,

@@ -102,8 +102,9 @@ export async function uploadClip(
   server: TestServer,
   file: string,
   fields: { sessionId: string; athleteIds: string; view: 'front' | 'side' },
+  role: 'coach' | 'head' = 'coach',
 ): Promise<ClipDto> {
-  const req = server.http.post('/api/clips').set(await server.bearer('coach'));
+  const req = server.http.post('/api/clips').set(await server.bearer(role));
   for (const [k, v] of Object.entries(fields)) req.field(k, v);
   const res = await req.attach('file', file);
   if (res.status !== 201) throw new Error(`upload: ${res.status} ${JSON.stringify(res.body)}`);
