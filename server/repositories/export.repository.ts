@@ -61,11 +61,16 @@ export class ExportRepository {
       tagged(`a.id IN (${filter.visibleAthleteIds.map(() => '?').join(', ')})`, filter.visibleAthleteIds);
     if (filter.athleteId) tagged('a.id = ?', [filter.athleteId]);
     if (filter.ageGroupId) tagged('a."ageGroupId" = ?', [filter.ageGroupId]);
-    if (filter.clipId) (where.push('c.id = ?'), params.push(filter.clipId));
-    if (filter.sessionId) (where.push('c."sessionId" = ?'), params.push(filter.sessionId));
-    if (filter.view) (where.push('c."view" = ?'), params.push(filter.view));
-    if (filter.from) (where.push('s."date" >= ?'), params.push(filter.from));
-    if (filter.to) (where.push('s."date" <= ?'), params.push(filter.to));
+    const equal = (column: string, value: string | undefined, op = '=') => {
+      if (value === undefined) return;
+      where.push(`${column} ${op} ?`);
+      params.push(value);
+    };
+    equal('c.id', filter.clipId);
+    equal('c."sessionId"', filter.sessionId);
+    equal('c."view"', filter.view);
+    equal('s."date"', filter.from, '>=');
+    equal('s."date"', filter.to, '<=');
     return (await this.manager.query(
       `SELECT c.id, c."originalName", c."view", c."defaultModel" AS model, s."date" AS "sessionDate", c."width",
               c."height", c."fps", c."frameCount", c."durationMs", c."status", c."clubId"

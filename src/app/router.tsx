@@ -62,6 +62,9 @@ export const routes: RouteObject[] = [
               guarded(paths.tolerances.path, 'tolerances.view', async () => ({
                 Component: (await import('@/features/standards/routes/tolerances-route')).TolerancesRoute,
               })),
+              guarded(paths.exports.path, 'exports.view', async () => ({
+                Component: (await import('@/features/exports/routes/exports-route')).ExportsRoute,
+              })),
               guarded(paths.club.path, 'club.manage', async () => ({
                 Component: (await import('./routes/club')).ClubPage,
               })),

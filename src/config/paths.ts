@@ -29,5 +29,6 @@ export const paths = {
     },
   },
   tolerances: { path: '/tolerances', href: () => '/tolerances' },
+  exports: { path: '/exports', href: () => '/exports' },
   club: { path: '/club', href: () => '/club' },
 } as const;

@@ -16,6 +16,7 @@ export type Capability =
   | 'club.manage'
   | 'notes.read'
   | 'tolerances.view'
+  | 'exports.view'
   | 'flags.review';
 
 // Each control the client hides maps onto a row of the one role table the server enforces.
@@ -31,6 +32,7 @@ const CAPABILITY_PERMISSION: Record<Capability, Permission> = {
   'club.manage': 'club:members',
   'notes.read': 'note:read',
   'tolerances.view': 'section:tolerances',
+  'exports.view': 'section:exports',
   'flags.review': 'flag:review',
 };
 
@@ -58,6 +60,7 @@ const NAV: readonly NavItem[] = [
   { label: 'Sessions', to: paths.sessions.href(), capability: 'sessions.view' },
   { label: 'Upload', to: paths.upload.href(), capability: 'clips.upload' },
   { label: 'Standards', to: paths.tolerances.href(), capability: 'tolerances.view' },
+  { label: 'Exports', to: paths.exports.href(), capability: 'exports.view' },
   { label: 'Club', to: paths.club.href(), capability: 'club.manage' },
 ];
 

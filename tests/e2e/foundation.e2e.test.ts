@@ -12,6 +12,7 @@ import { launchBrowser, screenshotPath } from './browser';
 const run = promisify(execFile);
 
 // Demo sign-ins and people come from the server's invented demo club (server/seed/demo-club.ts).
+const COACH_NAV = ['Home', 'Athletes', 'Sessions', 'Upload', 'Standards', 'Exports'];
 const PASSWORD = 'stanceline-demo';
 const DEMO = {
   head: 'head@larchwood.example',
@@ -103,7 +104,7 @@ describe('foundation in a real browser', () => {
     await page.getByRole('button', { name: 'Sign in' }).click();
     await page.waitForURL(/\/athletes$/);
 
-    await expect.poll(() => navNames(page), POLL).toEqual(['Athletes', 'Sessions', 'Upload']);
+    await expect.poll(() => navNames(page), POLL).toEqual(COACH_NAV);
     await page.getByRole('heading', { name: 'Athletes', level: 1 }).waitFor();
     await page.getByRole('link', { name: TAGGED_ATHLETE }).waitFor();
     expect(await page.getByRole('button', { name: 'Add athlete' }).count()).toBe(1);
@@ -190,7 +191,7 @@ describe('foundation in a real browser', () => {
     await invited.getByText('Use at least 10 characters').waitFor();
     await invited.getByLabel('Choose a password').fill('slalom-gates-in-fog');
     await invited.getByRole('button', { name: 'Join the club' }).click();
-    await expect.poll(() => navNames(invited), POLL).toEqual(['Athletes', 'Sessions', 'Upload']);
+    await expect.poll(() => navNames(invited), POLL).toEqual(COACH_NAV);
     await invited.getByText('Nia Brookfield').waitFor();
     await invited.screenshot({ path: screenshotPath('foundation-05-invited-coach'), fullPage: true });
     await invited.context().close();
@@ -198,9 +199,9 @@ describe('foundation in a real browser', () => {
 
   it('each demo role sees only its own sections', async () => {
     const expected: Record<keyof typeof DEMO, string[]> = {
-      head: ['Home', 'Athletes', 'Sessions', 'Upload', 'Club'],
-      coach: ['Athletes', 'Sessions', 'Upload'],
-      analyst: ['Athletes', 'Sessions'],
+      head: ['Home', 'Athletes', 'Sessions', 'Upload', 'Standards', 'Exports', 'Club'],
+      coach: COACH_NAV,
+      analyst: ['Athletes', 'Sessions', 'Standards', 'Exports'],
       athlete: ['Home'],
       guardian: ['Home'],
     };

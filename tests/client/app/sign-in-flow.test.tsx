@@ -78,6 +78,7 @@ describe('signing in', () => {
       'Sessions',
       'Upload',
       'Standards',
+      'Exports',
     ]);
   });
 

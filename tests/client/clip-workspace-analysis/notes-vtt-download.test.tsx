@@ -11,7 +11,8 @@ import {
   notesVttFileName,
   useExportNotesVtt,
 } from '@/features/clip-workspace/api/export-notes-vtt';
-import { saveBlob, stillFileName } from '@/features/clip-workspace/components/export/save-file';
+import { stillFileName } from '@/features/clip-workspace/components/export/save-file';
+import { saveBlob } from '@/lib/save-file';
 
 const BASE = 'http://stanceline.test';
 const CLIP = '7d1f4a52-2b0e-4c53-9a51-3f0d5c1e8a10';

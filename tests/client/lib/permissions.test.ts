@@ -6,9 +6,9 @@ import { can, landingPathFor, navFor, readsBandsAsTarget } from '@/lib/permissio
 // navigation (head coach: all; coach: Athletes, Sessions, Upload; athlete and guardian: Home; analyst:
 // Athletes, Sessions, read-only).
 const NAV: Record<(typeof ROLES)[number], string[]> = {
-  head_coach: ['Home', 'Athletes', 'Sessions', 'Upload', 'Standards', 'Club'],
-  coach: ['Home', 'Athletes', 'Sessions', 'Upload', 'Standards'],
-  analyst: ['Athletes', 'Sessions', 'Standards'],
+  head_coach: ['Home', 'Athletes', 'Sessions', 'Upload', 'Standards', 'Exports', 'Club'],
+  coach: ['Home', 'Athletes', 'Sessions', 'Upload', 'Standards', 'Exports'],
+  analyst: ['Athletes', 'Sessions', 'Standards', 'Exports'],
   athlete: ['Home'],
   guardian: ['Home'],
 };

@@ -1,17 +1,19 @@
 import { useEffect, useId, useRef, useState } from 'react';
-import { Captions, ChevronDown, Download, ImageDown } from 'lucide-react';
+import { useMutation } from '@tanstack/react-query';
+import { Captions, ChevronDown, Download, ImageDown, Sheet } from 'lucide-react';
 import { Button } from '@/components/ui/button';
 import { useToast } from '@/components/ui/toast';
-import { errorMessage } from '@/lib/api-client';
+import { api, errorMessage } from '@/lib/api-client';
 import { useExportNotesVtt } from '../../api/export-notes-vtt';
 import { formatClipTime } from '../../lib/frame-time';
 import { useFrameDrawings } from '../notes/use-frame-drawings';
 import { useDrawOverlaysOn } from '../overlays/use-draw-overlays-on';
 import { useStage, useStageFrame } from '../stage/stage-context';
 import { canvasToPng, composeStill } from './compose-still';
-import { saveBlob, stillFileName } from './save-file';
+import { saveBlob } from '@/lib/save-file';
+import { stillFileName } from './save-file';
 
-/** Still image of the frame with overlays and drawings, and the notes as WebVTT captions. */
+/** Still image of the frame with overlays and drawings, the notes as WebVTT captions, the angles as CSV. */
 export function ExportMenu() {
   const ws = useStage();
   const drawOverlaysOn = useDrawOverlaysOn();
@@ -20,6 +22,13 @@ export function ExportMenu() {
   const toast = useToast();
   const { saved, draft } = useFrameDrawings();
   const vtt = useExportNotesVtt(ws.clip.id, saveBlob);
+  // Every role may export what it may see: an athlete or guardian gets their own clip's numbers here.
+  const csv = useMutation({
+    mutationFn: async () => {
+      const blob = await api.getBlob('/api/exports/frames.csv', { query: { clipId: ws.clip.id } });
+      saveBlob(blob, ws.clip.originalName.replace(/\.[^./\\]+$/, '') + '.frames.csv');
+    },
+  });
   const [open, setOpen] = useState(false);
   const [savingStill, setSavingStill] = useState(false);
   const menuId = useId();
@@ -63,6 +72,13 @@ export function ExportMenu() {
     }
   };
 
+  const saveCsv = () => {
+    setOpen(false);
+    csv.mutate(undefined, {
+      onError: (error) => toast.error(`The numbers were not downloaded: ${errorMessage(error)}`),
+    });
+  };
+
   const saveVtt = () => {
     setOpen(false);
     vtt.mutate(ws.clip.originalName, {
@@ -78,7 +94,7 @@ export function ExportMenu() {
         aria-haspopup="menu"
         aria-expanded={open}
         aria-controls={open ? menuId : undefined}
-        busy={savingStill || vtt.isPending}
+        busy={savingStill || vtt.isPending || csv.isPending}
         icon={<Download aria-hidden="true" className="h-4 w-4" />}
         onClick={() => setOpen((v) => !v)}
       >
@@ -117,6 +133,20 @@ export function ExportMenu() {
               Notes as captions (WebVTT)
               <span className="block text-xs text-granite-600">
                 Any video player shows them over the clip
+              </span>
+            </span>
+          </button>
+          <button
+            type="button"
+            role="menuitem"
+            onClick={saveCsv}
+            className="flex w-full items-start gap-2 rounded px-2 py-1.5 text-left text-sm hover:bg-glacier-50"
+          >
+            <Sheet aria-hidden="true" className="mt-0.5 h-4 w-4 text-glacier-700" />
+            <span>
+              Angles of every frame (CSV)
+              <span className="block text-xs text-granite-600">
+                For a spreadsheet; the Exports page has more, with the codebook
               </span>
             </span>
           </button>
