@@ -25,12 +25,15 @@ const PAGE = 500;
 /** Rough bytes per cell for the size shown before a download (numbers of 4 to 8 characters). */
 const BYTES_PER_CELL = 7;
 
+/** The keypoints each metric reads, looked up once (the hot loop of a large export runs per row). */
+const METRIC_POINTS = new Map(METRIC_KEYS.map((key) => [key, METRIC_DEFINITIONS[key].keypoints] as const));
+
 /** Mean score of the keypoints a metric reads, among those found; null when none was found. */
-function meanScore(keypoints: Map<string, number>, key: MetricKey): number | null {
+function meanScore(scores: Record<string, number>, key: MetricKey): number | null {
   let sum = 0;
   let count = 0;
-  for (const name of METRIC_DEFINITIONS[key].keypoints) {
-    const score = keypoints.get(name);
+  for (const name of METRIC_POINTS.get(key)!) {
+    const score = scores[name];
     if (score === undefined) continue;
     sum += score;
     count += 1;
@@ -39,6 +42,12 @@ function meanScore(keypoints: Map<string, number>, key: MetricKey): number | nul
 }
 
 type Cell = string | number | boolean | null;
+
+/** Where rows go: written at once, with a wait for the client after each page. */
+interface Sink {
+  emit(row: Cell[]): void;
+  flush(): Promise<void>;
+}
 
 /** What an export will cover, found before the response starts. */
 export interface ExportPlan {
@@ -109,9 +118,13 @@ export class ExportService {
       cast: { number: formatExportNumber, boolean: (v) => (v ? 'true' : 'false') },
     });
     csv.pipe(out);
-    const emit = async (row: Cell[]) => {
-      // Backpressure: when the client reads slower than the rows come, wait for it to catch up.
-      if (!csv.write(row)) await Promise.race([once(csv, 'drain'), once(out, 'close')]);
+    const sink: Sink = {
+      emit: (row) => void csv.write(row),
+      // Backpressure, once per page: when the client reads slower than the rows come, wait for it.
+      flush: async () => {
+        if (csv.writableNeedDrain && !out.destroyed)
+          await Promise.race([once(csv, 'drain'), once(out, 'close')]);
+      },
     };
     try {
       for (const clip of clips) {
@@ -124,9 +137,9 @@ export class ExportService {
           clip.view,
           clip.model,
         ];
-        if (kind === 'frames') await this.frameRows(clip, lead, query, emit, stopped);
-        else if (kind === 'keypoints') await this.keypointRows(clip, lead, emit, stopped);
-        else await this.turnRows(clip, lead, emit);
+        if (kind === 'frames') await this.frameRows(clip, lead, query, sink, stopped);
+        else if (kind === 'keypoints') await this.keypointRows(clip, lead, sink, stopped);
+        else await this.turnRows(clip, lead, sink);
       }
     } finally {
       csv.end();
@@ -138,7 +151,7 @@ export class ExportService {
     clip: ExportClip,
     lead: Cell[],
     query: ExportQuery,
-    emit: (row: Cell[]) => Promise<void>,
+    sink: Sink,
     stopped: () => boolean,
   ): Promise<void> {
     // In the codebook's (and the header's) order, whatever order they were asked in.
@@ -150,14 +163,11 @@ export class ExportService {
       values: Partial<Record<MetricKey, number | null>>,
       keypoints: readonly Keypoint[],
     ): Cell[] => {
-      const scores = new Map(keypoints.map((k) => [k.name, k.score] as const));
-      return [
-        ...lead,
-        frameIndex,
-        timeMs,
-        corrected,
-        ...metrics.flatMap((key) => [values[key] ?? null, meanScore(scores, key)]),
-      ];
+      const scores: Record<string, number> = {};
+      for (const k of keypoints) scores[k.name] = k.score;
+      const cells: Cell[] = [...lead, frameIndex, timeMs, corrected];
+      for (const key of metrics) cells.push(values[key] ?? null, meanScore(scores, key));
+      return cells;
     };
     if (query.values === 'smoothed') {
       const series = await this.frames.smoothed(await this.clipRow(clip.id), clip.model);
@@ -168,9 +178,10 @@ export class ExportService {
         if (page.length < PAGE * 4) break;
         after = page[page.length - 1].frameIndex;
       }
-      for (const f of series?.frames ?? []) {
+      for (const [i, f] of (series?.frames ?? []).entries()) {
         if (stopped()) return;
-        await emit(row(f.frameIndex, f.timeMs, corrected.has(f.frameIndex), f.metrics, f.keypoints));
+        sink.emit(row(f.frameIndex, f.timeMs, corrected.has(f.frameIndex), f.metrics, f.keypoints));
+        if (i % PAGE === PAGE - 1) await sink.flush();
       }
       return;
     }
@@ -178,7 +189,7 @@ export class ExportService {
       if (stopped()) return;
       const page = await this.uow.repos.exports.framesPage(clip.id, clip.model, after, PAGE);
       for (const f of page) {
-        await emit(
+        sink.emit(
           row(
             f.frameIndex,
             f.timeMs,
@@ -188,6 +199,7 @@ export class ExportService {
           ),
         );
       }
+      await sink.flush();
       if (page.length < PAGE) return;
       after = page[page.length - 1].frameIndex;
     }
@@ -196,7 +208,7 @@ export class ExportService {
   private async keypointRows(
     clip: ExportClip,
     lead: Cell[],
-    emit: (row: Cell[]) => Promise<void>,
+    sink: Sink,
     stopped: () => boolean,
   ): Promise<void> {
     for (let after = -1; ;) {
@@ -204,7 +216,7 @@ export class ExportService {
       const page = await this.uow.repos.exports.framesPage(clip.id, clip.model, after, PAGE);
       for (const f of page) {
         for (const k of JSON.parse(f.keypoints) as Keypoint[]) {
-          await emit([
+          sink.emit([
             ...lead,
             f.frameIndex,
             f.timeMs,
@@ -218,21 +230,18 @@ export class ExportService {
           ]);
         }
       }
+      await sink.flush();
       if (page.length < PAGE) return;
       after = page[page.length - 1].frameIndex;
     }
   }
 
-  private async turnRows(
-    clip: ExportClip,
-    lead: Cell[],
-    emit: (row: Cell[]) => Promise<void>,
-  ): Promise<void> {
+  private async turnRows(clip: ExportClip, lead: Cell[], sink: Sink): Promise<void> {
     const { series, flags } = await this.frames.read(await this.clipRow(clip.id), clip.model);
     const apexKeys = METRIC_KEYS.filter((key) => METRIC_DEFINITIONS[key].views.includes('front'));
     for (const turn of series?.turns ?? []) {
       const own = flags.filter((f) => f.turnIndex === turn.index);
-      await emit([
+      sink.emit([
         ...lead,
         turn.index,
         turn.direction,
@@ -248,6 +257,7 @@ export class ExportService {
         [...new Set(own.map((f) => f.metric))].sort().join(';'),
       ]);
     }
+    await sink.flush();
   }
 
   private async clipRow(id: string) {

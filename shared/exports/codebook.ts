@@ -207,8 +207,10 @@ export function exportColumns(kind: ExportKind, metrics: readonly MetricKey[] = 
  */
 export function formatExportNumber(value: number): string {
   if (!Number.isFinite(value)) return '';
-  const text = value.toFixed(6).replace(/\.?0+$/, '');
-  return text === '-0' ? '0' : text;
+  // Rounded to a whole number of millionths, the shortest decimal that reads back as it: never an
+  // exponent for the magnitudes measured here (|value| < 1e9), and -0 reads as 0.
+  const rounded = Math.round(value * 1e6) / 1e6;
+  return rounded === 0 ? '0' : String(rounded);
 }
 
 /** OWASP CSV Injection: text a spreadsheet would run as a formula gets a leading apostrophe. */

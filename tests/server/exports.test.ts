@@ -1,5 +1,8 @@
 import Papa from 'papaparse';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { randomUUID } from 'node:crypto';
+import type { AddressInfo } from 'node:net';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
+import { ExportRepository } from '@server/repositories/export.repository';
 import { confidenceColumn, exportColumns, metricColumn } from '@shared/exports/codebook';
 import { METRIC_DEFINITIONS, METRIC_KEYS } from '@shared/metrics';
 import type { ClipDto } from '@shared/schemas/clip.schema';
@@ -303,6 +306,58 @@ describe('bad export requests', () => {
     const res = await server.http.get('/api/exports/count').set(await as('analyst'));
     expect(res.status).toBe(400);
     expect(JSON.stringify(res.body.error)).toContain('kind');
+  });
+});
+
+describe('streaming', () => {
+  it('stops reading pages when the client goes away mid-download', async () => {
+    // 400 copies of Elsie's clip (40,000 stored frames, about 12 MB of CSV): far more than the
+    // loopback socket buffers hold, so the server has to wait for the client.
+    const ds = server.runtime.dataSource;
+    const clipColumns = ((await ds.query('PRAGMA table_info(clip)')) as { name: string }[]).map(
+      (c) => `"${c.name}"`,
+    );
+    const frameColumns = ((await ds.query('PRAGMA table_info(frame_result)')) as { name: string }[]).map(
+      (c) => `"${c.name}"`,
+    );
+    const copies: string[] = [];
+    for (let i = 0; i < 400; i++) {
+      const id = randomUUID();
+      copies.push(id);
+      const cols = clipColumns.map((c) => (c === '"id"' ? '?' : c)).join(', ');
+      await ds.query(`INSERT INTO clip (${clipColumns.join(', ')}) SELECT ${cols} FROM clip WHERE id = ?`, [
+        id,
+        elsieClip.id,
+      ]);
+      await ds.query('INSERT INTO clip_athlete ("clipId", "athleteId") VALUES (?, ?)', [id, elsie]);
+      const select = frameColumns
+        .map((c) => (c === '"id"' ? 'lower(hex(randomblob(16)))' : c === '"clipId"' ? '?' : c))
+        .join(', ');
+      await ds.query(
+        `INSERT INTO frame_result (${frameColumns.join(', ')}) SELECT ${select} FROM frame_result WHERE "clipId" = ?`,
+        [id, elsieClip.id],
+      );
+    }
+    const pages = vi.spyOn(ExportRepository.prototype, 'framesPage');
+    const http = server.app.listen(0, '127.0.0.1');
+    try {
+      await new Promise((r) => http.once('listening', r));
+      const url = `http://127.0.0.1:${(http.address() as AddressInfo).port}/api/exports/frames.csv`;
+      const abort = new AbortController();
+      const res = await fetch(url, { headers: await as('analyst'), signal: abort.signal });
+      await res.body!.getReader().read();
+      abort.abort();
+      await new Promise((r) => setTimeout(r, 500));
+      const afterAbort = pages.mock.calls.length;
+      await new Promise((r) => setTimeout(r, 500));
+      // Nothing more is read once it noticed, far from all 402 clips.
+      expect(pages.mock.calls.length).toBe(afterAbort);
+      expect(afterAbort).toBeLessThan(200);
+    } finally {
+      pages.mockRestore();
+      http.close();
+      await ds.query(`DELETE FROM clip WHERE id IN (${copies.map(() => '?').join(', ')})`, copies);
+    }
   });
 });
 

@@ -1,0 +1,148 @@
+// How fast the frames export streams, and whether its memory stays flat: 1,000,000 stored frames (400
+// front-view clips of 2,500 frames) downloaded as frames.csv over HTTP, the client counting lines
+// without keeping them. Prints rows per second and the peak growth of the process's resident memory.
+// EXPORT_ROWS=200000 npm run bench -- export runs a smaller one.
+import { randomUUID } from 'node:crypto';
+import type { AddressInfo } from 'node:net';
+import { performance } from 'node:perf_hooks';
+import { computeFrameMetrics } from '@shared/metrics';
+import type { FrameResult } from '@server/entities/frame-result.entity';
+import { UnitOfWork } from '@server/repositories/unit-of-work';
+import { createTestServer } from '../helpers/server-harness';
+import { clip as syntheticClip } from '../shared/series/synthetic-clip';
+import { removeRenderedVideos, renderVideo, settled, uploadClip } from '../server/clip-fixtures';
+
+const FPS = 25;
+const FRAMES_PER_CLIP = 2_500;
+const ROWS = Number(process.env.EXPORT_ROWS ?? 1_000_000);
+const CLIPS = Math.max(1, Math.round(ROWS / FRAMES_PER_CLIP));
+const MB = 1024 * 1024;
+
+const out = (label: string, value: string) => process.stdout.write(`${label.padEnd(48)} ${value}\n`);
+
+const server = await createTestServer();
+const http = server.app.listen(0, '127.0.0.1');
+await new Promise((r) => http.once('listening', r));
+const base = `http://127.0.0.1:${(http.address() as AddressInfo).port}`;
+try {
+  const [sessionId] = await server.sessionIds();
+  const elsie = await server.athleteId('Elsie');
+  const video = await renderVideo('h264-mp4', {
+    seconds: FRAMES_PER_CLIP / FPS,
+    fps: FPS,
+    width: 160,
+    height: 120,
+  });
+  const template = await settled(
+    server,
+    (await uploadClip(server, video.path, { sessionId, athleteIds: elsie, view: 'front' })).id,
+  );
+  const frames = syntheticClip(FRAMES_PER_CLIP, FPS, (t) => ({
+    inclinationDeg: 25 * Math.sin((2 * Math.PI * t) / 1600),
+    legExtension: 0.85,
+    shoulderTiltDeg: 6,
+  }));
+  const ds = server.runtime.dataSource;
+  const uow = new UnitOfWork(ds);
+  const now = new Date();
+  const rows: FrameResult[] = frames.map((f) => {
+    const m = computeFrameMetrics({ keypoints: f.keypoints, view: 'front' });
+    return {
+      id: randomUUID(),
+      clipId: template.id,
+      frameIndex: f.frameIndex,
+      timeMs: f.timeMs,
+      model: 'lightning',
+      keypoints: f.keypoints,
+      metrics: m.metrics,
+      reasons: m.reasons as Record<string, string>,
+      corrected: false,
+      createdAt: now,
+      updatedAt: now,
+    };
+  });
+  await uow.transaction((m) => uow.of(m).frames.insertMany(rows));
+  // The other clips copy the first one's rows inside SQLite (fast), under new clip ids.
+  const seedStart = performance.now();
+  const clipColumns = ((await ds.query(`PRAGMA table_info(clip)`)) as { name: string }[]).map(
+    (c) => `"${c.name}"`,
+  );
+  const frameColumns = ((await ds.query(`PRAGMA table_info(frame_result)`)) as { name: string }[]).map(
+    (c) => `"${c.name}"`,
+  );
+  await uow.transaction(async (m) => {
+    for (let c = 1; c < CLIPS; c++) {
+      const id = randomUUID();
+      const cols = clipColumns.map((col) => (col === '"id"' ? '?' : col)).join(', ');
+      await m.query(`INSERT INTO clip (${clipColumns.join(', ')}) SELECT ${cols} FROM clip WHERE id = ?`, [
+        id,
+        template.id,
+      ]);
+      await m.query(`INSERT INTO clip_athlete ("clipId", "athleteId") VALUES (?, ?)`, [id, elsie]);
+      const select = frameColumns
+        .map((col) => (col === '"id"' ? 'lower(hex(randomblob(16)))' : col === '"clipId"' ? '?' : col))
+        .join(', ');
+      await m.query(
+        `INSERT INTO frame_result (${frameColumns.join(', ')}) SELECT ${select} FROM frame_result WHERE "clipId" = ?`,
+        [id, template.id],
+      );
+    }
+  });
+  const stored = ((await ds.query('SELECT COUNT(*) AS n FROM frame_result')) as { n: number }[])[0].n;
+  out(
+    'stored frames seeded',
+    `${stored.toLocaleString('en-GB')} in ${((performance.now() - seedStart) / 1000).toFixed(1)} s`,
+  );
+
+  const auth = await server.bearer('analyst');
+  const run = async (label: string, query: string) => {
+    const baseline = process.memoryUsage().rss;
+    let peak = baseline;
+    const sampler = setInterval(() => (peak = Math.max(peak, process.memoryUsage().rss)), 50);
+    const start = performance.now();
+    const res = await fetch(`${base}/api/exports/frames.csv${query}`, { headers: auth });
+    if (!res.ok || !res.body) throw new Error(`export: ${res.status} ${await res.text()}`);
+    let bytes = 0;
+    let lines = 0;
+    const reader = res.body.getReader();
+    for (;;) {
+      const { done, value } = await reader.read();
+      if (done) break;
+      bytes += value.byteLength;
+      for (let i = value.indexOf(10); i !== -1; i = value.indexOf(10, i + 1)) lines++;
+    }
+    const seconds = (performance.now() - start) / 1000;
+    clearInterval(sampler);
+    const dataRows = lines - 1;
+    out(`${label}: rows`, dataRows.toLocaleString('en-GB'));
+    out(`${label}: size, time`, `${(bytes / MB).toFixed(0)} MB in ${seconds.toFixed(1)} s`);
+    out(
+      `${label}: rows per second`,
+      `${Math.round(dataRows / seconds).toLocaleString('en-GB')} (goal 100,000: ${(dataRows / seconds / 100_000).toFixed(2)}×)`,
+    );
+    out(
+      `${label}: resident memory before / peak`,
+      `${(baseline / MB).toFixed(0)} / ${(peak / MB).toFixed(0)} MB (growth ${((peak - baseline) / MB).toFixed(0)} MB, goal under 50)`,
+    );
+  };
+  await run('all 22 metrics (53 columns)', '');
+  await run('two metrics (13 columns)', '?metrics=stanceWidthRatio,shoulderTilt');
+
+  // A client that goes away: the export stops reading pages.
+  const abort = new AbortController();
+  const partial = await fetch(`${base}/api/exports/frames.csv`, { headers: auth, signal: abort.signal });
+  const partialReader = partial.body!.getReader();
+  await partialReader.read();
+  abort.abort();
+  await new Promise((r) => setTimeout(r, 300));
+  const pages = async () =>
+    ((await ds.query('SELECT COUNT(*) AS n FROM frame_result')) as { n: number }[])[0].n;
+  out(
+    'after a client left mid-download',
+    `server still answers (frames stored: ${(await pages()).toLocaleString('en-GB')})`,
+  );
+} finally {
+  http.close();
+  await server.close();
+  await removeRenderedVideos();
+}
