@@ -268,10 +268,35 @@ describe('who exports what', () => {
   });
 
   it('answers 404 for a clip of another club or outside the caller’s reach', async () => {
-    const other = await server.http
-      .get('/api/exports/frames.csv?clipId=00000000-0000-4000-8000-000000000000')
-      .set(await as('analyst'));
-    expect(other.status).toBe(404);
+    // A second club with a copy of Elsie's clip, in the same database.
+    const ds = server.runtime.dataSource;
+    const copyRow = async (table: string, id: string, overrides: Record<string, string>) => {
+      const columns = ((await ds.query(`PRAGMA table_info(${table})`)) as { name: string }[]).map(
+        (c) => c.name,
+      );
+      const values = columns.map((c) => (c in overrides ? '?' : `"${c}"`)).join(', ');
+      const params = columns.filter((c) => c in overrides).map((c) => overrides[c]);
+      await ds.query(
+        `INSERT INTO ${table} (${columns.map((c) => `"${c}"`).join(', ')}) SELECT ${values} FROM ${table} WHERE id = ?`,
+        [...params, id],
+      );
+    };
+    const otherClub = randomUUID();
+    const otherSession = randomUUID();
+    const otherClip = randomUUID();
+    const [{ clubId }] = (await ds.query('SELECT "clubId" FROM clip WHERE id = ?', [elsieClip.id])) as {
+      clubId: string;
+    }[];
+    await copyRow('club', clubId, { id: otherClub, name: 'Another Valley Ski Club' });
+    await copyRow('training_session', elsieClip.sessionId, { id: otherSession, clubId: otherClub });
+    await copyRow('clip', elsieClip.id, { id: otherClip, clubId: otherClub, sessionId: otherSession });
+    for (const role of ['analyst', 'head'] as const) {
+      const other = await server.http.get(`/api/exports/frames.csv?clipId=${otherClip}`).set(await as(role));
+      expect(other.status, role).toBe(404);
+      expect(other.body.error.message).toBe('Clip not found');
+    }
+    const ours = await download('/api/exports/turns.csv', 'analyst');
+    expect(ours.rows.some((r) => r.clip_id === otherClip)).toBe(false);
     const outside = await server.http
       .get(`/api/exports/frames.csv?clipId=${signeClip.id}`)
       .set(await as('coach'));
