@@ -11,6 +11,7 @@ import { ConsentPanel } from '@/features/athletes/components/consent-panel';
 import { GuardianList } from '@/features/athletes/components/guardian-list';
 import { useClips } from '@/features/clips/api/get-clips';
 import { ClipList } from '@/features/clips/components/clip-list';
+import { FlagInbox } from '@/features/flags/components/flag-inbox';
 import { useUser } from '@/lib/auth';
 import { can } from '@/lib/permissions';
 
@@ -70,6 +71,20 @@ export function AthletePage() {
               }
             />
           ) : null}
+        </section>
+        <section aria-labelledby="athlete-flags">
+          <h2 id="athlete-flags" className="mb-1 text-base font-semibold text-granite-900">
+            Flags of {record.firstName}
+          </h2>
+          <p className="mb-2 text-sm text-granite-600">
+            Each habit outside the {record.ageGroup.name} band, once per turn, across all of{' '}
+            {record.firstName}&apos;s analysed clips.
+          </p>
+          <FlagInbox
+            filters={{ athleteId: record.id }}
+            canReview={can(user.role, 'flags.review')}
+            emptyText={`No analysed clip of ${record.firstName} has a value outside the ${record.ageGroup.name} bands.`}
+          />
         </section>
       </div>
     </>

@@ -20,6 +20,7 @@ function signedInAs(user: UserDto, athlete: AthleteDetailDto) {
     ),
     http.get(`${ORIGIN}/api/athletes/:id`, () => HttpResponse.json({ athlete: record })),
     http.get(`${ORIGIN}/api/clips`, () => HttpResponse.json({ clips: [] })),
+    http.get(`${ORIGIN}/api/flags`, () => HttpResponse.json({ flags: [], total: 0, page: 1, pageSize: 10 })),
     http.post(`${ORIGIN}/api/athletes/:id/consent`, async ({ request }) => {
       const body = (await request.json()) as { guardianName: string };
       consentBodies.push(body);
