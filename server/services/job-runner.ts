@@ -78,9 +78,15 @@ export class JobRunner {
     }
   }
 
-  private async run(job: Job): Promise<void> {
+  private async run(queued: Job): Promise<void> {
     const jobs = this.uow.repos.jobs;
+    let job = queued;
     try {
+      // Marked running before its groups are read: a band change queued meanwhile either joined this
+      // job in time (and is read now) or finds it running and queues a job of its own.
+      const begun = this.clock.now();
+      await jobs.update(job.id, { status: 'running', startedAt: job.startedAt ?? begun, updatedAt: begun });
+      job = (await jobs.findById(job.id)) ?? job;
       const steps = await this.steps(job);
       const total = steps.reduce((sum, s) => sum + s.frames, 0);
       let done = steps
