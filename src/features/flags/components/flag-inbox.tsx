@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { Link } from 'react-router-dom';
 import { FLAG_STATUSES, type FlagDto, type FlagStatus } from '@shared/schemas/flag.schema';
-import { BAND_METRICS, formatBandRange, formatUnitValue } from '@shared/tolerance';
+import { BAND_METRIC_KEYS, BAND_METRICS, formatBandRange, formatUnitValue } from '@shared/tolerance';
 import { Button } from '@/components/ui/button';
 import { EmptyState } from '@/components/ui/empty-state';
 import { FormError } from '@/components/ui/field';
@@ -151,33 +151,56 @@ interface FlagInboxProps {
  */
 export function FlagInbox({ filters = {}, canReview, emptyText }: FlagInboxProps) {
   const [status, setStatus] = useState<FlagStatus>('unreviewed');
+  const [metric, setMetric] = useState('');
   const [page, setPage] = useState(1);
-  const flags = useFlags({ ...filters, status, page, pageSize: PAGE_SIZE });
+  const flags = useFlags({ ...filters, metric: metric || undefined, status, page, pageSize: PAGE_SIZE });
   const pages = flags.data ? Math.max(1, Math.ceil(flags.data.total / PAGE_SIZE)) : 1;
+  const metricId = `flag-metric-${filters.athleteId ?? 'all'}`;
   return (
     <section aria-label="Flags" className="space-y-2">
-      <div role="tablist" aria-label="Flag state" className="flex flex-wrap gap-1">
-        {FLAG_STATUSES.map((s) => (
-          <button
-            key={s}
-            type="button"
-            role="tab"
-            aria-selected={s === status}
-            onClick={() => {
-              setStatus(s);
+      <div className="flex flex-wrap items-center justify-between gap-2">
+        <div role="tablist" aria-label="Flag state" className="flex flex-wrap gap-1">
+          {FLAG_STATUSES.map((s) => (
+            <button
+              key={s}
+              type="button"
+              role="tab"
+              aria-selected={s === status}
+              onClick={() => {
+                setStatus(s);
+                setPage(1);
+              }}
+              className={cn(
+                'rounded-md px-3 py-1 text-sm font-medium',
+                s === status ? 'bg-glacier-100 text-glacier-900' : 'text-granite-600 hover:bg-granite-50',
+              )}
+            >
+              {STATUS_TABS[s]}
+              {s === status && flags.data ? (
+                <span className="ml-1 font-mono tabular-nums">({flags.data.total})</span>
+              ) : null}
+            </button>
+          ))}
+        </div>
+        <label htmlFor={metricId} className="flex items-center gap-1.5 text-xs text-granite-600">
+          Habit
+          <select
+            id={metricId}
+            value={metric}
+            onChange={(event) => {
+              setMetric(event.target.value);
               setPage(1);
             }}
-            className={cn(
-              'rounded-md px-3 py-1 text-sm font-medium',
-              s === status ? 'bg-glacier-100 text-glacier-900' : 'text-granite-600 hover:bg-granite-50',
-            )}
+            className="rounded border border-granite-200 bg-white px-1.5 py-1 text-xs text-granite-800"
           >
-            {STATUS_TABS[s]}
-            {s === status && flags.data ? (
-              <span className="ml-1 font-mono tabular-nums">({flags.data.total})</span>
-            ) : null}
-          </button>
-        ))}
+            <option value="">Every habit</option>
+            {BAND_METRIC_KEYS.map((key) => (
+              <option key={key} value={key}>
+                {BAND_METRICS[key].label}
+              </option>
+            ))}
+          </select>
+        </label>
       </div>
       {flags.isPending ? <PageSpinner label="Loading flags" /> : null}
       {flags.isError ? (
