@@ -20,7 +20,7 @@ import type { FrameStore } from './frame-store';
 import type { Principal } from './principal';
 
 /** Stored frames read per page: a few milliseconds of work between turns of the event loop. */
-const PAGE = 500;
+const PAGE = 200;
 
 /** Rough bytes per cell for the size shown before a download (numbers of 4 to 8 characters). */
 const BYTES_PER_CELL = 7;
@@ -124,6 +124,9 @@ export class ExportService {
       flush: async () => {
         if (csv.writableNeedDrain && !out.destroyed)
           await Promise.race([once(csv, 'drain'), once(out, 'close')]);
+        // The database driver is synchronous: without a turn of the event loop here a long export
+        // would hold every other request back until it ends.
+        await new Promise((resolve) => setImmediate(resolve));
       },
     };
     try {

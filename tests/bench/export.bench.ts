@@ -125,7 +125,25 @@ try {
       `${(baseline / MB).toFixed(0)} / ${(peak / MB).toFixed(0)} MB (growth ${((peak - baseline) / MB).toFixed(0)} MB, goal under 50)`,
     );
   };
+  // The API during a large export: a health read every 10 ms while the 53-column export runs.
+  let exporting = true;
+  const health: number[] = [];
+  const probe = (async () => {
+    while (exporting) {
+      const t = performance.now();
+      await (await fetch(`${base}/api/health`)).arrayBuffer();
+      health.push(performance.now() - t);
+      await new Promise((r) => setTimeout(r, 10));
+    }
+  })();
   await run('all 22 metrics (53 columns)', '');
+  exporting = false;
+  await probe;
+  health.sort((a, b) => a - b);
+  out(
+    'health read during that export: p50 / p99 / max',
+    `${health[Math.floor(health.length / 2)].toFixed(1)} / ${health[Math.floor(health.length * 0.99)].toFixed(1)} / ${health[health.length - 1].toFixed(1)} ms (${health.length} reads)`,
+  );
   await run('two metrics (13 columns)', '?metrics=stanceWidthRatio,shoulderTilt');
 
   // A client that goes away: the export stops reading pages.
