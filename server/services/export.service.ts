@@ -1,6 +1,6 @@
 import { once } from 'node:events';
 import type { Writable } from 'node:stream';
-import { stringify, type Stringifier } from 'csv-stringify';
+import { stringify } from 'csv-stringify/sync';
 import {
   codebook,
   exportColumns,
@@ -110,20 +110,24 @@ export class ExportService {
     stopped: () => boolean,
   ): Promise<void> {
     const columns = exportColumns(kind, query.metrics);
-    const csv = stringify({
-      header: true,
+    // Each page becomes one CSV string at once (csv-stringify's sync API): rows do not wait as objects
+    // in a stream's buffer, where they would outlive the young generation and swell the heap.
+    const options = {
       columns,
-      bom: true,
-      record_delimiter: 'windows',
-      cast: { number: formatExportNumber, boolean: (v) => (v ? 'true' : 'false') },
-    });
-    csv.pipe(out);
+      record_delimiter: 'windows' as const,
+      cast: { number: formatExportNumber, boolean: (v: boolean) => (v ? 'true' : 'false') },
+    };
+    let pending: Cell[][] = [];
+    let first = true;
     const sink: Sink = {
-      emit: (row) => void csv.write(row),
-      // Backpressure, once per page: when the client reads slower than the rows come, wait for it.
+      emit: (row) => void pending.push(row),
       flush: async () => {
-        if (csv.writableNeedDrain && !out.destroyed)
-          await Promise.race([once(csv, 'drain'), once(out, 'close')]);
+        if (pending.length === 0 && !first) return;
+        const text = stringify(pending, { ...options, header: first, bom: first });
+        first = false;
+        pending = [];
+        // Backpressure: when the client reads slower than the rows come, wait for it to catch up.
+        if (!out.write(text) && !out.destroyed) await drainedOrClosed(out);
         // The database driver is synchronous: without a turn of the event loop here a long export
         // would hold every other request back until it ends.
         await new Promise((resolve) => setImmediate(resolve));
@@ -144,9 +148,9 @@ export class ExportService {
         else if (kind === 'keypoints') await this.keypointRows(clip, lead, sink, stopped);
         else await this.turnRows(clip, lead, sink);
       }
+      await sink.flush();
     } finally {
-      csv.end();
-      await endOf(csv, out);
+      if (!out.destroyed) out.end();
     }
   }
 
@@ -306,8 +310,13 @@ export class ExportService {
   }
 }
 
-/** Resolves when the CSV has been handed to the response (or the response closed first). */
-async function endOf(csv: Stringifier, out: Writable): Promise<void> {
-  if (out.writableFinished || out.destroyed) return;
-  await Promise.race([once(out, 'finish'), once(out, 'close'), once(csv, 'error')]).catch(() => undefined);
+/**
+ * Resolves when `out` drains or closes. The listener of the event that did not happen is removed, or
+ * a long download would leave two listeners on the response for every wait.
+ */
+async function drainedOrClosed(out: Writable): Promise<void> {
+  const done = new AbortController();
+  const wait = (event: string) => once(out, event, { signal: done.signal }).catch(() => undefined);
+  await Promise.race([wait('drain'), wait('close')]);
+  done.abort();
 }

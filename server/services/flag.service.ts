@@ -60,6 +60,8 @@ export class FlagService {
     );
     const groups = new Map((await repos.club.listAgeGroups(principal.clubId)).map((g) => [g.id, g]));
     const names = await repos.users.namesByIds(rows.flatMap((r) => (r.statusById ? [r.statusById] : [])));
+    const staff =
+      principal.role === 'head_coach' || principal.role === 'coach' || principal.role === 'analyst';
     const links = new Map<string, string>();
     const thumbnailsOf = (clipId: string) => {
       if (!links.has(clipId)) links.set(clipId, this.tokens.clipLinks(principal, clipId).thumbnails);
@@ -78,8 +80,9 @@ export class FlagService {
         athlete: athlete ? { id: athlete.id, name: `${athlete.firstName} ${athlete.lastName}` } : null,
         ageGroup: group ? { id: group.id, name: group.name } : null,
         timeMs,
-        comment: row.statusComment,
-        statusBy: row.statusById ? (names.get(row.statusById) ?? null) : null,
+        // Review comments are written for the other coaches; athletes and guardians see the state only.
+        comment: staff ? row.statusComment : null,
+        statusBy: staff && row.statusById ? (names.get(row.statusById) ?? null) : null,
         statusAt: row.statusAt?.toISOString() ?? null,
         createdAt: row.createdAt.toISOString(),
         thumbnails:

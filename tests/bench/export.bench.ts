@@ -2,7 +2,9 @@
 // front-view clips of 2,500 frames) downloaded as frames.csv over HTTP, the client counting lines
 // without keeping them. Prints rows per second and the peak growth of the process's resident memory.
 // EXPORT_ROWS=200000 npm run bench -- export runs a smaller one.
+import { spawn } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
+import { once } from 'node:events';
 import type { AddressInfo } from 'node:net';
 import { performance } from 'node:perf_hooks';
 import { computeFrameMetrics } from '@shared/metrics';
@@ -17,6 +19,19 @@ const FRAMES_PER_CLIP = 2_500;
 const ROWS = Number(process.env.EXPORT_ROWS ?? 1_000_000);
 const CLIPS = Math.max(1, Math.round(ROWS / FRAMES_PER_CLIP));
 const MB = 1024 * 1024;
+
+// Reads the export, counting bytes and lines; says "tenth" once a tenth of the expected rows are in.
+const CLIENT = `
+const res = await fetch(process.env.URL, { headers: { Authorization: process.env.AUTH } });
+if (!res.ok) { console.error('export', res.status, await res.text()); process.exit(1); }
+let bytes = 0, lines = 0, told = false;
+for await (const chunk of res.body) {
+  bytes += chunk.byteLength;
+  for (let i = chunk.indexOf(10); i !== -1; i = chunk.indexOf(10, i + 1)) lines++;
+  if (!told && lines > Number(process.env.TENTH)) { told = true; console.log('tenth'); }
+}
+console.log(bytes + ' ' + lines);
+`;
 
 const out = (label: string, value: string) => process.stdout.write(`${label.padEnd(48)} ${value}\n`);
 
@@ -98,19 +113,33 @@ try {
   const run = async (label: string, query: string) => {
     const baseline = process.memoryUsage().rss;
     let peak = baseline;
-    const sampler = setInterval(() => (peak = Math.max(peak, process.memoryUsage().rss)), 50);
+    let peakHeap = process.memoryUsage().heapUsed;
+    const sampler = setInterval(() => {
+      const m = process.memoryUsage();
+      peak = Math.max(peak, m.rss);
+      peakHeap = Math.max(peakHeap, m.heapUsed);
+    }, 50);
     const start = performance.now();
-    const res = await fetch(`${base}/api/exports/frames.csv${query}`, { headers: auth });
-    if (!res.ok || !res.body) throw new Error(`export: ${res.status} ${await res.text()}`);
-    let bytes = 0;
-    let lines = 0;
-    const reader = res.body.getReader();
-    for (;;) {
-      const { done, value } = await reader.read();
-      if (done) break;
-      bytes += value.byteLength;
-      for (let i = value.indexOf(10); i !== -1; i = value.indexOf(10, i + 1)) lines++;
-    }
+    // The client is another process, so the memory sampled here is the server's alone.
+    const client = spawn(process.execPath, ['--input-type=module', '-e', CLIENT], {
+      env: {
+        ...process.env,
+        URL: `${base}/api/exports/frames.csv${query}`,
+        AUTH: auth.Authorization,
+        TENTH: String(Math.round(stored / 10)),
+      },
+      stdio: ['ignore', 'pipe', 'inherit'],
+    });
+    let atTenth = 0;
+    let report = '';
+    client.stdout.setEncoding('utf8');
+    client.stdout.on('data', (text: string) => {
+      report += text;
+      if (!atTenth && report.includes('tenth')) atTenth = process.memoryUsage().rss;
+    });
+    await once(client, 'exit');
+    const [bytes, lines] = report.trim().split('\n').at(-1)!.split(' ').map(Number);
+    const atEnd = process.memoryUsage().rss;
     const seconds = (performance.now() - start) / 1000;
     clearInterval(sampler);
     const dataRows = lines - 1;
@@ -124,7 +153,13 @@ try {
       `${label}: resident memory before / peak`,
       `${(baseline / MB).toFixed(0)} / ${(peak / MB).toFixed(0)} MB (growth ${((peak - baseline) / MB).toFixed(0)} MB, goal under 50)`,
     );
+    out(
+      `${label}: resident at 10% of rows / at the end`,
+      `${(atTenth / MB).toFixed(0)} / ${(atEnd / MB).toFixed(0)} MB; peak JS heap ${(peakHeap / MB).toFixed(0)} MB`,
+    );
   };
+  await run('all 22 metrics (53 columns)', '');
+  await run('two metrics (13 columns)', '?metrics=stanceWidthRatio,shoulderTilt');
   // The API during a large export: a health read every 10 ms while the 53-column export runs.
   let exporting = true;
   const health: number[] = [];
@@ -136,7 +171,7 @@ try {
       await new Promise((r) => setTimeout(r, 10));
     }
   })();
-  await run('all 22 metrics (53 columns)', '');
+  await run('again, with health reads alongside', '');
   exporting = false;
   await probe;
   health.sort((a, b) => a - b);
@@ -144,7 +179,6 @@ try {
     'health read during that export: p50 / p99 / max',
     `${health[Math.floor(health.length / 2)].toFixed(1)} / ${health[Math.floor(health.length * 0.99)].toFixed(1)} / ${health[health.length - 1].toFixed(1)} ms (${health.length} reads)`,
   );
-  await run('two metrics (13 columns)', '?metrics=stanceWidthRatio,shoulderTilt');
 
   // A client that goes away: the export stops reading pages.
   const abort = new AbortController();

@@ -157,6 +157,11 @@ describe('a band change re-checks stored frames through the job', () => {
     expect((list.body as FlagListResponse).flags.map((f) => [f.id, f.comment])).toEqual([
       [first.id, 'Shoulders drill on Saturday'],
     ]);
+    // The athlete sees that it was reviewed, not the coaches' comment or who wrote it.
+    const own = await server.http.get('/api/flags?status=reviewed').set(await as('athlete'));
+    expect((own.body as FlagListResponse).flags.map((f) => [f.id, f.comment, f.statusBy])).toEqual([
+      [first.id, null, null],
+    ]);
   });
 });
 
