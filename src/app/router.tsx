@@ -69,6 +69,13 @@ export const routes: RouteObject[] = [
                 Component: (await import('./routes/club')).ClubPage,
               })),
               {
+                // Open to every role: anyone holding an export file may look up its columns.
+                path: paths.codebook.path,
+                lazy: async () => ({
+                  Component: (await import('@/features/exports/routes/codebook-route')).CodebookRoute,
+                }),
+              },
+              {
                 path: paths.account.path,
                 lazy: async () => ({
                   Component: (await import('@/features/auth/routes/account-route')).AccountRoute,

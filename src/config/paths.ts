@@ -30,5 +30,6 @@ export const paths = {
   },
   tolerances: { path: '/tolerances', href: () => '/tolerances' },
   exports: { path: '/exports', href: () => '/exports' },
+  codebook: { path: '/exports/codebook', href: () => '/exports/codebook' },
   club: { path: '/club', href: () => '/club' },
 } as const;

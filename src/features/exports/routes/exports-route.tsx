@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { Link } from 'react-router-dom';
 import { Download } from 'lucide-react';
 import { EXPORT_KINDS, type ExportKind } from '@shared/exports/codebook';
 import { METRIC_DEFINITIONS, METRIC_KEYS, type MetricKey } from '@shared/metrics';
@@ -8,6 +9,7 @@ import { Card, PageHeader } from '@/components/ui/page-header';
 import { QueryError } from '@/components/ui/query-error';
 import { PageSpinner, Spinner } from '@/components/ui/spinner';
 import { useToast } from '@/components/ui/toast';
+import { paths } from '@/config/paths';
 import { errorMessage } from '@/lib/api-client';
 import { cn, formatBytes } from '@/lib/format';
 import { useDebouncedValue } from '@/lib/use-debounced-value';
