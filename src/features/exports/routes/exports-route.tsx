@@ -237,6 +237,9 @@ export function ExportsRoute() {
           <h2 className="text-base font-semibold text-granite-900">
             Codebook: {KIND_TEXT[kind].title.toLowerCase()}
           </h2>
+          <Link to={paths.codebook.href()} className="text-xs text-glacier-700 hover:underline">
+            Open the codebook on its own page
+          </Link>
           {codebook.isPending ? <PageSpinner label="Loading the codebook" /> : null}
           {codebook.isError ? <QueryError error={codebook.error} what="the codebook" /> : null}
           {codebook.data ? (
