@@ -10,6 +10,7 @@ import { performance } from 'node:perf_hooks';
 import { computeFrameMetrics } from '@shared/metrics';
 import type { FrameResult } from '@server/entities/frame-result.entity';
 import { UnitOfWork } from '@server/repositories/unit-of-work';
+import { copyClip } from '../helpers/copy-rows';
 import { createTestServer } from '../helpers/server-harness';
 import { clip as syntheticClip } from '../shared/series/synthetic-clip';
 import { removeRenderedVideos, renderVideo, settled, uploadClip } from '../server/clip-fixtures';
@@ -79,29 +80,8 @@ try {
   await uow.transaction((m) => uow.of(m).frames.insertMany(rows));
   // The other clips copy the first one's rows inside SQLite (fast), under new clip ids.
   const seedStart = performance.now();
-  const clipColumns = ((await ds.query(`PRAGMA table_info(clip)`)) as { name: string }[]).map(
-    (c) => `"${c.name}"`,
-  );
-  const frameColumns = ((await ds.query(`PRAGMA table_info(frame_result)`)) as { name: string }[]).map(
-    (c) => `"${c.name}"`,
-  );
   await uow.transaction(async (m) => {
-    for (let c = 1; c < CLIPS; c++) {
-      const id = randomUUID();
-      const cols = clipColumns.map((col) => (col === '"id"' ? '?' : col)).join(', ');
-      await m.query(`INSERT INTO clip (${clipColumns.join(', ')}) SELECT ${cols} FROM clip WHERE id = ?`, [
-        id,
-        template.id,
-      ]);
-      await m.query(`INSERT INTO clip_athlete ("clipId", "athleteId") VALUES (?, ?)`, [id, elsie]);
-      const select = frameColumns
-        .map((col) => (col === '"id"' ? 'lower(hex(randomblob(16)))' : col === '"clipId"' ? '?' : col))
-        .join(', ');
-      await m.query(
-        `INSERT INTO frame_result (${frameColumns.join(', ')}) SELECT ${select} FROM frame_result WHERE "clipId" = ?`,
-        [id, template.id],
-      );
-    }
+    for (let c = 1; c < CLIPS; c++) await copyClip(m, template.id, elsie, true);
   });
   const stored = ((await ds.query('SELECT COUNT(*) AS n FROM frame_result')) as { n: number }[])[0].n;
   out(

@@ -9,6 +9,7 @@ import { analyzeSeries, stretchGapFrames } from '@shared/series';
 import { turnWindow } from '@shared/tolerance';
 import type { FrameResult } from '@server/entities/frame-result.entity';
 import { UnitOfWork } from '@server/repositories/unit-of-work';
+import { copyClip } from '../helpers/copy-rows';
 import { createTestServer } from '../helpers/server-harness';
 import { clip as syntheticClip } from '../shared/series/synthetic-clip';
 import { removeRenderedVideos, renderVideo, settled, uploadClip } from '../server/clip-fixtures';
@@ -63,21 +64,10 @@ try {
   const series = analyzeSeries(frames, { view: 'front', fps: FPS });
   const turns = series.turns.map(turnWindow);
   const ds = server.runtime.dataSource;
-  const columns = ((await ds.query(`PRAGMA table_info(clip)`)) as { name: string }[]).map(
-    (c) => `"${c.name}"`,
-  );
   const uow = new UnitOfWork(ds);
   const seedStart = performance.now();
   for (let c = 0; c < CLIPS; c++) {
-    const id = c === 0 ? template.id : randomUUID();
-    if (c > 0) {
-      const select = columns.map((col) => (col === '"id"' ? '?' : col)).join(', ');
-      await ds.query(`INSERT INTO clip (${columns.join(', ')}) SELECT ${select} FROM clip WHERE id = ?`, [
-        id,
-        template.id,
-      ]);
-      await ds.query(`INSERT INTO clip_athlete (clipId, athleteId) VALUES (?, ?)`, [id, elsie]);
-    }
+    const id = c === 0 ? template.id : await copyClip(ds, template.id, elsie, false);
     const now = new Date();
     const rows: FrameResult[] = frames.map((f, i) => ({
       id: randomUUID(),

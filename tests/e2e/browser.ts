@@ -1,6 +1,8 @@
-import { existsSync, mkdirSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { chromium, type Browser } from 'playwright-core';
+import { startStanceline, type StartedStanceline } from '@server/start';
 
 /** Debian's Chromium; tests never download a browser. */
 export const CHROMIUM_PATH = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
@@ -32,4 +34,31 @@ export async function launchBrowser(): Promise<Browser> {
       '--autoplay-policy=no-user-gesture-required',
     ],
   });
+}
+
+/** The whole product on the demo club in a temporary folder, and a browser: what an e2e file needs. */
+export interface DemoApp {
+  app: StartedStanceline;
+  browser: Browser;
+  close(): Promise<void>;
+}
+
+export async function startDemoApp(name: string): Promise<DemoApp> {
+  // A build from an earlier run is reused; a clean clone builds once here.
+  if (!existsSync(join(process.cwd(), 'dist', 'index.html'))) {
+    const { build } = await import('vite');
+    await build({ root: process.cwd(), logLevel: 'warn' });
+  }
+  const workDir = mkdtempSync(join(tmpdir(), `stanceline-${name}-e2e-`));
+  const app = await startStanceline({ port: 0, dataDir: join(workDir, 'data'), logLevel: 'warn' });
+  const browser = await launchBrowser();
+  return {
+    app,
+    browser,
+    async close() {
+      await browser.close();
+      await app.close();
+      rmSync(workDir, { recursive: true, force: true });
+    },
+  };
 }

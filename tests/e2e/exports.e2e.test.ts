@@ -1,36 +1,27 @@
 // Exports end to end in Debian's headless Chromium, on the invented demo club: an analyst picks an
 // age group and some metrics, sees the row count, downloads the CSV and finds every column in the
 // codebook beside it.
-import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { readFileSync } from 'node:fs';
 import Papa from 'papaparse';
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startStanceline, type StartedStanceline } from '@server/start';
-import { launchBrowser, screenshotPath } from './browser';
+import type { StartedStanceline } from '@server/start';
+import { screenshotPath, startDemoApp, type DemoApp } from './browser';
 
 const PASSWORD = 'stanceline-demo';
 const ANALYST = 'analyst@larchwood.example';
 
 let app: StartedStanceline;
 let browser: Browser;
-let workDir: string;
+let demo: DemoApp | undefined;
 
 beforeAll(async () => {
-  if (!existsSync(join(process.cwd(), 'dist', 'index.html'))) {
-    const { build } = await import('vite');
-    await build({ root: process.cwd(), logLevel: 'warn' });
-  }
-  workDir = mkdtempSync(join(tmpdir(), 'stanceline-exports-e2e-'));
-  app = await startStanceline({ port: 0, dataDir: join(workDir, 'data'), logLevel: 'warn' });
-  browser = await launchBrowser();
+  demo = await startDemoApp('exports');
+  ({ app, browser } = demo);
 }, 180_000);
 
 afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-  if (workDir) rmSync(workDir, { recursive: true, force: true });
+  await demo?.close();
 });
 
 describe('exports in a real browser', () => {

@@ -2,13 +2,10 @@
 // lowers a band of a group they coach, the re-check runs in the background with its progress on the
 // page, the new flags appear on the coach's Home, one opens its clip at its frame with the metric's
 // readout in view, and it is marked reviewed. The athlete sees the band as her target range on a phone.
-import { existsSync, mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startStanceline, type StartedStanceline } from '@server/start';
-import { launchBrowser, screenshotPath } from './browser';
+import type { StartedStanceline } from '@server/start';
+import { screenshotPath, startDemoApp, type DemoApp } from './browser';
 
 // Demo sign-ins from the server's invented demo club (server/seed/demo-club.ts).
 const PASSWORD = 'stanceline-demo';
@@ -17,7 +14,7 @@ const ATHLETE = 'athlete@larchwood.example';
 
 let app: StartedStanceline;
 let browser: Browser;
-let workDir: string;
+let demo: DemoApp | undefined;
 
 async function signIn(page: Page, email: string): Promise<void> {
   await page.goto(`${app.url}/login`);
@@ -28,19 +25,12 @@ async function signIn(page: Page, email: string): Promise<void> {
 }
 
 beforeAll(async () => {
-  if (!existsSync(join(process.cwd(), 'dist', 'index.html'))) {
-    const { build } = await import('vite');
-    await build({ root: process.cwd(), logLevel: 'warn' });
-  }
-  workDir = mkdtempSync(join(tmpdir(), 'stanceline-standards-e2e-'));
-  app = await startStanceline({ port: 0, dataDir: join(workDir, 'data'), logLevel: 'warn' });
-  browser = await launchBrowser();
+  demo = await startDemoApp('standards');
+  ({ app, browser } = demo);
 }, 180_000);
 
 afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-  if (workDir) rmSync(workDir, { recursive: true, force: true });
+  await demo?.close();
 });
 
 describe('standards and the flag inbox in a real browser', () => {

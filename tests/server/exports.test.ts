@@ -8,6 +8,7 @@ import { METRIC_DEFINITIONS, METRIC_KEYS } from '@shared/metrics';
 import type { ClipDto } from '@shared/schemas/clip.schema';
 import type { CodebookResponse, ExportCountResponse } from '@shared/schemas/export.schema';
 import type { ClipFramesResponse } from '@shared/schemas/frames.schema';
+import { copyClip, copyRow } from '../helpers/copy-rows';
 import { createTestServer, type DemoRole, type TestServer } from '../helpers/server-harness';
 import { clip as syntheticClip } from '../shared/series/synthetic-clip';
 import { removeRenderedVideos, renderVideo, settled, uploadClip } from './clip-fixtures';
@@ -270,26 +271,15 @@ describe('who exports what', () => {
   it('answers 404 for a clip of another club or outside the caller’s reach', async () => {
     // A second club with a copy of Elsie's clip, in the same database.
     const ds = server.runtime.dataSource;
-    const copyRow = async (table: string, id: string, overrides: Record<string, string>) => {
-      const columns = ((await ds.query(`PRAGMA table_info(${table})`)) as { name: string }[]).map(
-        (c) => c.name,
-      );
-      const values = columns.map((c) => (c in overrides ? '?' : `"${c}"`)).join(', ');
-      const params = columns.filter((c) => c in overrides).map((c) => overrides[c]);
-      await ds.query(
-        `INSERT INTO ${table} (${columns.map((c) => `"${c}"`).join(', ')}) SELECT ${values} FROM ${table} WHERE id = ?`,
-        [...params, id],
-      );
-    };
     const otherClub = randomUUID();
     const otherSession = randomUUID();
     const otherClip = randomUUID();
     const [{ clubId }] = (await ds.query('SELECT "clubId" FROM clip WHERE id = ?', [elsieClip.id])) as {
       clubId: string;
     }[];
-    await copyRow('club', clubId, { id: otherClub, name: 'Another Valley Ski Club' });
-    await copyRow('training_session', elsieClip.sessionId, { id: otherSession, clubId: otherClub });
-    await copyRow('clip', elsieClip.id, { id: otherClip, clubId: otherClub, sessionId: otherSession });
+    await copyRow(ds, 'club', clubId, { id: otherClub, name: 'Another Valley Ski Club' });
+    await copyRow(ds, 'training_session', elsieClip.sessionId, { id: otherSession, clubId: otherClub });
+    await copyRow(ds, 'clip', elsieClip.id, { id: otherClip, clubId: otherClub, sessionId: otherSession });
     for (const role of ['analyst', 'head'] as const) {
       const other = await server.http.get(`/api/exports/frames.csv?clipId=${otherClip}`).set(await as(role));
       expect(other.status, role).toBe(404);
@@ -339,30 +329,8 @@ describe('streaming', () => {
     // 400 copies of Elsie's clip (40,000 stored frames, about 12 MB of CSV): far more than the
     // loopback socket buffers hold, so the server has to wait for the client.
     const ds = server.runtime.dataSource;
-    const clipColumns = ((await ds.query('PRAGMA table_info(clip)')) as { name: string }[]).map(
-      (c) => `"${c.name}"`,
-    );
-    const frameColumns = ((await ds.query('PRAGMA table_info(frame_result)')) as { name: string }[]).map(
-      (c) => `"${c.name}"`,
-    );
     const copies: string[] = [];
-    for (let i = 0; i < 400; i++) {
-      const id = randomUUID();
-      copies.push(id);
-      const cols = clipColumns.map((c) => (c === '"id"' ? '?' : c)).join(', ');
-      await ds.query(`INSERT INTO clip (${clipColumns.join(', ')}) SELECT ${cols} FROM clip WHERE id = ?`, [
-        id,
-        elsieClip.id,
-      ]);
-      await ds.query('INSERT INTO clip_athlete ("clipId", "athleteId") VALUES (?, ?)', [id, elsie]);
-      const select = frameColumns
-        .map((c) => (c === '"id"' ? 'lower(hex(randomblob(16)))' : c === '"clipId"' ? '?' : c))
-        .join(', ');
-      await ds.query(
-        `INSERT INTO frame_result (${frameColumns.join(', ')}) SELECT ${select} FROM frame_result WHERE "clipId" = ?`,
-        [id, elsieClip.id],
-      );
-    }
+    for (let i = 0; i < 400; i++) copies.push(await copyClip(ds, elsieClip.id, elsie, true));
     const pages = vi.spyOn(ExportRepository.prototype, 'framesPage');
     const http = server.app.listen(0, '127.0.0.1');
     try {
