@@ -3,17 +3,11 @@
 // without keeping them. Prints rows per second and the peak growth of the process's resident memory.
 // EXPORT_ROWS=200000 npm run bench -- export runs a smaller one.
 import { spawn } from 'node:child_process';
-import { randomUUID } from 'node:crypto';
 import { once } from 'node:events';
-import type { AddressInfo } from 'node:net';
 import { performance } from 'node:perf_hooks';
-import { computeFrameMetrics } from '@shared/metrics';
-import type { FrameResult } from '@server/entities/frame-result.entity';
 import { UnitOfWork } from '@server/repositories/unit-of-work';
 import { copyClip } from '../helpers/copy-rows';
-import { createTestServer } from '../helpers/server-harness';
-import { clip as syntheticClip } from '../shared/series/synthetic-clip';
-import { removeRenderedVideos, renderVideo, settled, uploadClip } from '../server/clip-fixtures';
+import { healthLatencies, latencySummary, startBenchFixture } from './bench-fixture';
 
 const FPS = 25;
 const FRAMES_PER_CLIP = 2_500;
@@ -36,52 +30,16 @@ console.log(bytes + ' ' + lines);
 
 const out = (label: string, value: string) => process.stdout.write(`${label.padEnd(48)} ${value}\n`);
 
-const server = await createTestServer();
-const http = server.app.listen(0, '127.0.0.1');
-await new Promise((r) => http.once('listening', r));
-const base = `http://127.0.0.1:${(http.address() as AddressInfo).port}`;
+const fixture = await startBenchFixture(FRAMES_PER_CLIP, FPS);
+const { server, base, elsie } = fixture;
 try {
-  const [sessionId] = await server.sessionIds();
-  const elsie = await server.athleteId('Elsie');
-  const video = await renderVideo('h264-mp4', {
-    seconds: FRAMES_PER_CLIP / FPS,
-    fps: FPS,
-    width: 160,
-    height: 120,
-  });
-  const template = await settled(
-    server,
-    (await uploadClip(server, video.path, { sessionId, athleteIds: elsie, view: 'front' })).id,
-  );
-  const frames = syntheticClip(FRAMES_PER_CLIP, FPS, (t) => ({
-    inclinationDeg: 25 * Math.sin((2 * Math.PI * t) / 1600),
-    legExtension: 0.85,
-    shoulderTiltDeg: 6,
-  }));
   const ds = server.runtime.dataSource;
   const uow = new UnitOfWork(ds);
-  const now = new Date();
-  const rows: FrameResult[] = frames.map((f) => {
-    const m = computeFrameMetrics({ keypoints: f.keypoints, view: 'front' });
-    return {
-      id: randomUUID(),
-      clipId: template.id,
-      frameIndex: f.frameIndex,
-      timeMs: f.timeMs,
-      model: 'lightning',
-      keypoints: f.keypoints,
-      metrics: m.metrics,
-      reasons: m.reasons as Record<string, string>,
-      corrected: false,
-      createdAt: now,
-      updatedAt: now,
-    };
-  });
-  await uow.transaction((m) => uow.of(m).frames.insertMany(rows));
+  await uow.transaction((m) => uow.of(m).frames.insertMany(fixture.frameRows(fixture.templateId)));
   // The other clips copy the first one's rows inside SQLite (fast), under new clip ids.
   const seedStart = performance.now();
   await uow.transaction(async (m) => {
-    for (let c = 1; c < CLIPS; c++) await copyClip(m, template.id, elsie, true);
+    for (let c = 1; c < CLIPS; c++) await copyClip(m, fixture.templateId, elsie, true);
   });
   const stored = ((await ds.query('SELECT COUNT(*) AS n FROM frame_result')) as { n: number }[])[0].n;
   out(
@@ -142,39 +100,21 @@ try {
   await run('two metrics (13 columns)', '?metrics=stanceWidthRatio,shoulderTilt');
   // The API during a large export: a health read every 10 ms while the 53-column export runs.
   let exporting = true;
-  const health: number[] = [];
-  const probe = (async () => {
-    while (exporting) {
-      const t = performance.now();
-      await (await fetch(`${base}/api/health`)).arrayBuffer();
-      health.push(performance.now() - t);
-      await new Promise((r) => setTimeout(r, 10));
-    }
-  })();
+  const probe = healthLatencies(base, () => !exporting);
   await run('again, with health reads alongside', '');
   exporting = false;
-  await probe;
-  health.sort((a, b) => a - b);
-  out(
-    'health read during that export: p50 / p99 / max',
-    `${health[Math.floor(health.length / 2)].toFixed(1)} / ${health[Math.floor(health.length * 0.99)].toFixed(1)} / ${health[health.length - 1].toFixed(1)} ms (${health.length} reads)`,
-  );
+  out('health read during that export: p50 / p99 / max', latencySummary(await probe));
 
-  // A client that goes away: the export stops reading pages.
+  // A client that goes away mid-download: the server stops the export and goes on answering.
   const abort = new AbortController();
   const partial = await fetch(`${base}/api/exports/frames.csv`, { headers: auth, signal: abort.signal });
-  const partialReader = partial.body!.getReader();
-  await partialReader.read();
+  await partial.body!.getReader().read();
   abort.abort();
-  await new Promise((r) => setTimeout(r, 300));
-  const pages = async () =>
-    ((await ds.query('SELECT COUNT(*) AS n FROM frame_result')) as { n: number }[])[0].n;
+  const after = performance.now() + 1000;
   out(
-    'after a client left mid-download',
-    `server still answers (frames stored: ${(await pages()).toLocaleString('en-GB')})`,
+    'health read in the second after a client left',
+    latencySummary(await healthLatencies(base, () => performance.now() > after)),
   );
 } finally {
-  http.close();
-  await server.close();
-  await removeRenderedVideos();
+  await fixture.close();
 }
