@@ -48,6 +48,9 @@ import { ExportService } from './services/export.service';
 import { exportRoutes } from './routes/exports.routes';
 import type { JobRunner } from './services/job-runner';
 import { flagRoutes } from './routes/flags.routes';
+import { planRoutes } from './routes/plan.routes';
+import { SeasonPlanService } from './services/season-plan.service';
+import { CompareStillService } from './services/compare-still.service';
 import type { ObjectStorage } from './storage/object-storage';
 import { UnitOfWork } from './repositories/unit-of-work';
 
@@ -118,6 +121,8 @@ export function createApp(deps: AppDeps): Express {
       config.invitationTtlMs,
     ),
     club: new ClubService(uow, clock),
+    plans: new SeasonPlanService(uow, access, audit, clock),
+    compareStills: new CompareStillService(uow, clips, deps.storage, clock),
   };
 
   const app = express();
@@ -127,6 +132,8 @@ export function createApp(deps: AppDeps): Express {
   app.use(securityHeaders({ https: publicUrlNow().startsWith('https://') }));
   // A batch of 500 frames of 33 keypoints is about 2 MB of JSON; every other body stays small.
   app.use(['/api/clips/:id/frames', '/api/clips/:id/frames/:frameIndex'], express.json({ limit: '8mb' }));
+  // A side-by-side still arrives as a PNG data URL of a few hundred kB (6 MB at most).
+  app.use('/api/compare-stills', express.json({ limit: '9mb' }));
   app.use(express.json({ limit: '1mb' }));
   app.use(cookieParser());
 
@@ -143,6 +150,7 @@ export function createApp(deps: AppDeps): Express {
   app.use(exportRoutes(ctx));
   app.use(invitationRoutes(ctx));
   app.use(clubRoutes(ctx));
+  app.use(planRoutes(ctx));
   app.use('/api', apiNotFound);
   // Only the embedded fake has a mailbox, and only an explicit setting shows it.
   if (deps.mailbox && config.devMailbox) app.use(devMailboxRoutes(deps.mailbox));

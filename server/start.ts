@@ -9,6 +9,7 @@ import { startRuntime } from './runtime';
 import { seedDemoClips } from './seed/demo-clips';
 import { seedDemoClub } from './seed/demo-seed';
 import { seedDemoBandChanges, seedDemoFlagReviews } from './seed/demo-standards';
+import { seedDemoSeasonPlan } from './seed/demo-plan';
 import { FrameStore } from './services/frame-store';
 import { StorageJanitor } from './services/storage-janitor';
 import { UnitOfWork } from './repositories/unit-of-work';
@@ -75,6 +76,7 @@ export async function startStanceline(opts: StartOptions = {}): Promise<StartedS
       );
       logger.info({ clips: clips.length }, 'seeded the demo clips');
       await seedDemoFlagReviews(runtime.dataSource, opts.clock);
+      await seedDemoSeasonPlan(runtime.dataSource, seeded.clubId, opts.clock);
     }
     // What an earlier run left when it was killed mid-upload: scratch files, parts, unrecorded objects.
     const janitor = new StorageJanitor({

@@ -20,6 +20,9 @@ import { UserEntity } from '../entities/user.entity';
 import { ToleranceBandChangeEntity } from '../entities/tolerance-band-change.entity';
 import { JobEntity } from '../entities/job.entity';
 import { ClipTurnsEntity } from '../entities/clip-turns.entity';
+import { SeasonEntity } from '../entities/season.entity';
+import { SeasonBaselineEntity } from '../entities/season-baseline.entity';
+import { CompareStillEntity } from '../entities/compare-still.entity';
 
 import { DataSource } from 'typeorm';
 import { InitialSchema1796163026000 } from '../migrations/1796163026000-initial-schema';
@@ -32,6 +35,7 @@ import { ClipProcessingStarts1796260000001 } from '../migrations/1796260000001-c
 import { PasswordReset1796260000002 } from '../migrations/1796260000002-password-reset';
 import { FrameResultSummaryIndex1796260000003 } from '../migrations/1796260000003-frame-result-summary-index';
 import { StandardsAndFlags1796270000000 } from '../migrations/1796270000000-standards-and-flags';
+import { SeasonPlan1796280000000 } from '../migrations/1796280000000-season-plan';
 
 export const ALL_ENTITIES = [
   ClubEntity,
@@ -58,6 +62,9 @@ export const ALL_ENTITIES = [
   ToleranceBandChangeEntity,
   JobEntity,
   ClipTurnsEntity,
+  SeasonEntity,
+  SeasonBaselineEntity,
+  CompareStillEntity,
 ];
 
 // Listed explicitly (no globs): bundlers and tsx cannot resolve migration globs reliably.
@@ -70,6 +77,7 @@ export const ALL_MIGRATIONS = [
   PasswordReset1796260000002,
   FrameResultSummaryIndex1796260000003,
   StandardsAndFlags1796270000000,
+  SeasonPlan1796280000000,
 ];
 
 /** SQLite through better-sqlite3: WAL journal, foreign keys on (the driver always enables them), no synchronize. */

@@ -1,19 +1,26 @@
 import { EntitySchema } from 'typeorm';
+import type { FocusPhase, TargetDirection } from '@shared/plan';
+import type { FocusStatus } from '@shared/schemas/plan.schema';
+import type { BandMetricKey } from '@shared/tolerance';
 import { foreignKey, idColumn, nullableUuidColumn, timestampColumn, uuidColumn } from './columns';
 
-/** One ranked item of an athlete's season plan, optionally tied to a metric and target range. */
+/** One ranked item of an athlete's season plan: a metric with a phase and target, or free text. */
 export interface FocusPoint {
   id: string;
   athleteId: string;
-  createdById: string | null;
+  seasonId: string;
   rank: number;
   title: string;
-  metric: string | null;
+  cue: string;
+  metric: BandMetricKey | null;
+  phase: FocusPhase | null;
   targetMin: number | null;
   targetMax: number | null;
-  baselineClipId: string | null;
-  status: 'active' | 'achieved' | 'dropped';
+  direction: TargetDirection | null;
+  status: FocusStatus;
+  createdById: string | null;
   createdAt: Date;
+  updatedAt: Date;
 }
 
 export const FocusPointEntity = new EntitySchema<FocusPoint>({
@@ -22,20 +29,24 @@ export const FocusPointEntity = new EntitySchema<FocusPoint>({
   columns: {
     id: idColumn,
     athleteId: uuidColumn,
-    createdById: nullableUuidColumn,
+    seasonId: uuidColumn,
     rank: { type: 'integer' },
-    title: { type: 'varchar', length: 200 },
+    title: { type: 'varchar', length: 120 },
+    cue: { type: 'text', default: '' },
     metric: { type: 'varchar', length: 60, nullable: true },
+    phase: { type: 'varchar', length: 12, nullable: true },
     targetMin: { type: 'real', nullable: true },
     targetMax: { type: 'real', nullable: true },
-    baselineClipId: nullableUuidColumn,
-    status: { type: 'varchar', length: 12, default: 'active' },
+    direction: { type: 'varchar', length: 10, nullable: true },
+    status: { type: 'varchar', length: 12, default: 'planned' },
+    createdById: nullableUuidColumn,
     createdAt: timestampColumn,
+    updatedAt: timestampColumn,
   },
   foreignKeys: [
     foreignKey('Athlete', 'athleteId', 'CASCADE'),
+    foreignKey('Season', 'seasonId', 'CASCADE'),
     foreignKey('User', 'createdById', 'SET NULL'),
-    foreignKey('Clip', 'baselineClipId', 'SET NULL'),
   ],
-  indices: [{ name: 'IDX_focus_point_athlete_rank', columns: ['athleteId', 'rank'] }],
+  indices: [{ name: 'IDX_focus_point_plan', columns: ['athleteId', 'seasonId', 'rank'] }],
 });

@@ -13,6 +13,7 @@ import { FrameResultRepository } from './frame-result.repository';
 import { JobRepository } from './job.repository';
 import { MemberRepository } from './member.repository';
 import { NoteRepository } from './note.repository';
+import { PlanRepository } from './plan.repository';
 import { RateLimitRepository } from './rate-limit.repository';
 import { ReferenceLineRepository } from './reference-line.repository';
 import { SessionRepository } from './session.repository';
@@ -35,6 +36,7 @@ export interface Repositories {
   readonly jobs: JobRepository;
   readonly members: MemberRepository;
   readonly notes: NoteRepository;
+  readonly plans: PlanRepository;
   readonly rateLimits: RateLimitRepository;
   readonly referenceLines: ReferenceLineRepository;
   readonly sessions: SessionRepository;
@@ -67,6 +69,7 @@ export function repositoriesFor(manager: EntityManager): Repositories {
       jobs: new JobRepository(manager),
       members: new MemberRepository(manager),
       notes: new NoteRepository(manager),
+      plans: new PlanRepository(manager),
       rateLimits: new RateLimitRepository(manager),
       referenceLines: new ReferenceLineRepository(manager),
       sessions: new SessionRepository(manager),

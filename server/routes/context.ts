@@ -13,6 +13,8 @@ import type { FlagService } from '../services/flag.service';
 import type { InvitationService } from '../services/invitation.service';
 import type { NoteService } from '../services/note.service';
 import type { SessionService } from '../services/session.service';
+import type { SeasonPlanService } from '../services/season-plan.service';
+import type { CompareStillService } from '../services/compare-still.service';
 import type { ToleranceBandService } from '../services/tolerance-band.service';
 import type { ObjectStorage } from '../storage/object-storage';
 import type { DataSource } from 'typeorm';
@@ -38,4 +40,6 @@ export interface RouteContext {
   exports: ExportService;
   invitations: InvitationService;
   club: ClubService;
+  plans: SeasonPlanService;
+  compareStills: CompareStillService;
 }

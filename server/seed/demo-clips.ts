@@ -30,7 +30,7 @@ export const DEMO_CLIP_PLAN: { footage: string; view: View; athlete: string; ses
   { footage: 'phantom-front-turns', view: 'front', athlete: 'elsie', session: 0 },
   { footage: 'phantom-side-run', view: 'side', athlete: 'elsie', session: 0 },
   { footage: 'phantom-front-turns', view: 'front', athlete: 'finn', session: 0 },
-  { footage: 'phantom-front-turns', view: 'front', athlete: 'elsie', session: 1 },
+  { footage: 'phantom-spring-turns', view: 'front', athlete: 'elsie', session: 1 },
   { footage: 'phantom-side-run', view: 'side', athlete: 'arlo', session: 1 },
 ];
 

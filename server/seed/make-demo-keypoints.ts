@@ -1,4 +1,4 @@
-// npx tsx server/seed/make-demo-keypoints.ts
+// npx tsx server/seed/make-demo-keypoints.ts [FOOTAGE_NAME ...]
 // Runs the analyze CLI (MoveNet Lightning, Node WASM) over the phantom demo footage and writes the
 // keypoints the demo seed stores, so a first start shows curves without running a detector.
 import { execFile } from 'node:child_process';
@@ -18,7 +18,11 @@ const run = promisify(execFile);
 const MODEL = 'lightning';
 const round = (value: number, digits: number) => Number(value.toFixed(digits));
 
-const footage = [...new Map(DEMO_CLIP_PLAN.map((p) => [p.footage, p.view])).entries()];
+// Optional footage names limit the run to those clips (the others keep their committed keypoints).
+const only = process.argv.slice(2);
+const footage = [...new Map(DEMO_CLIP_PLAN.map((p) => [p.footage, p.view])).entries()].filter(
+  ([name]) => only.length === 0 || only.includes(name),
+);
 await fs.mkdir(DEMO_KEYPOINTS_DIR, { recursive: true });
 for (const [name, view] of footage) {
   const clip = path.join(DEMO_FOOTAGE_DIR, `${name}.mp4`);

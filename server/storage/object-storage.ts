@@ -6,6 +6,7 @@ import {
   GetObjectCommand,
   HeadBucketCommand,
   HeadObjectCommand,
+  PutObjectCommand,
   ListObjectsV2Command,
   S3Client,
   type S3ClientConfig,
@@ -68,6 +69,13 @@ export class ObjectStorage {
       partSize: 8 * 1024 * 1024,
     });
     await upload.done();
+  }
+
+  /** A small object held in memory already (a still of a few hundred kB). */
+  async putBuffer(key: string, body: Buffer, contentType: string): Promise<void> {
+    await this.client.send(
+      new PutObjectCommand({ Bucket: this.bucket, Key: key, Body: body, ContentType: contentType }),
+    );
   }
 
   async getStream(key: string, range?: ObjectRange): Promise<Readable> {

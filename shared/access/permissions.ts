@@ -32,6 +32,13 @@ export const PERMISSIONS = {
   'job:read': ['head_coach', 'coach', 'analyst'],
   // Everyone exports what they may see: staff their reach, athletes and guardians their own rows.
   'export:read': ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'],
+  'season:read': ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'],
+  'season:write': ['head_coach'],
+  // Athletes and guardians read their own plan; coaches edit the plans of their groups (narrowed in the service).
+  'plan:read': ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'],
+  'plan:write': ['head_coach', 'coach'],
+  'compare:read': ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'],
+  'compare:write': ['head_coach', 'coach'],
   'invitation:create': ['head_coach', 'coach'],
   'club:members': ['head_coach'],
   // Sections of the app: which pages a role is sent to. The reads behind them are the rows above.

@@ -89,6 +89,13 @@ export const routes: RouteObject[] = [
                 }),
               },
               {
+                // Any role: each side shows only clips the caller may see (the server checks each).
+                path: paths.compare.path,
+                lazy: async () => ({
+                  Component: (await import('@/features/clip-workspace/routes/compare-route')).CompareRoute,
+                }),
+              },
+              {
                 path: '*',
                 lazy: async () => ({ Component: (await import('./routes/not-found')).NotFoundPage }),
               },

@@ -28,6 +28,17 @@ export const paths = {
       return text ? `/clips/${id}?${text}` : `/clips/${id}`;
     },
   },
+  compare: {
+    path: '/compare',
+    /** Two clips side by side: a on the left (the baseline by default), b on the right. */
+    href: (a?: string | null, b?: string | null) => {
+      const query = new URLSearchParams();
+      if (a) query.set('a', a);
+      if (b) query.set('b', b);
+      const text = query.toString();
+      return text ? `/compare?${text}` : '/compare';
+    },
+  },
   tolerances: { path: '/tolerances', href: () => '/tolerances' },
   exports: { path: '/exports', href: () => '/exports' },
   codebook: { path: '/exports/codebook', href: () => '/exports/codebook' },

@@ -17,7 +17,9 @@ export type Capability =
   | 'notes.read'
   | 'tolerances.view'
   | 'exports.view'
-  | 'flags.review';
+  | 'flags.review'
+  | 'seasons.create'
+  | 'compare.keepStill';
 
 // Each control the client hides maps onto a row of the one role table the server enforces.
 const CAPABILITY_PERMISSION: Record<Capability, Permission> = {
@@ -34,6 +36,8 @@ const CAPABILITY_PERMISSION: Record<Capability, Permission> = {
   'tolerances.view': 'section:tolerances',
   'exports.view': 'section:exports',
   'flags.review': 'flag:review',
+  'seasons.create': 'season:write',
+  'compare.keepStill': 'compare:write',
 };
 
 export const ROLE_LABELS: Record<Role, string> = {

@@ -31,6 +31,15 @@ interface Ids {
   flagSigne: string;
   /** A re-evaluation job the head coach's band change queued. */
   job: string;
+  /** A season holding every session, focus points of Elsie and Signe, two of Kit's to reorder. */
+  season: string;
+  pointElsie: string;
+  pointSigne: string;
+  pointsKit: string[];
+  /** One focus point of Elsie per role, for DELETE. */
+  doomedPoint: Record<DemoRole, string>;
+  /** A side-by-side still of Elsie's clip with Kit's. */
+  still: string;
 }
 
 type Expect = Record<DemoRole, number>;
@@ -56,6 +65,10 @@ const FRAME = {
     { name: 'left_ankle', x: 80, y: 110, score: 0.9 },
   ],
 };
+
+/** A 1 × 1 PNG (the smallest still the server accepts). */
+const ONE_PIXEL_PNG =
+  'data:image/png;base64,iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNkYPhfDwAChwGA60e6kgAAAABJRU5ErkJggg==';
 
 const all = (status: number): Expect => ({
   head: status,
@@ -508,6 +521,110 @@ const ROWS: Row[] = [
     path: (i, role) => `/api/notes/${i.doomedByCoach[role]}`,
     expect: staffOnly(204),
   },
+  { route: 'GET /api/seasons', target: 'club', path: () => '/api/seasons', expect: all(200) },
+  {
+    route: 'POST /api/seasons',
+    target: 'club',
+    path: () => '/api/seasons',
+    body: () => {
+      const year = 1900 + (seq += 1);
+      return { name: `${year}-autumn`, startsOn: `${year}-09-01`, endsOn: `${year}-12-31` };
+    },
+    expect: { head: 201, coach: 403, analyst: 403, athlete: 403, guardian: 403 },
+  },
+  {
+    route: 'GET /api/athletes/:id/plan',
+    target: 'own / own child',
+    path: (i) => `/api/athletes/${i.elsie}/plan`,
+    expect: all(200),
+  },
+  {
+    route: 'GET /api/athletes/:id/plan',
+    target: 'other group athlete',
+    path: (i) => `/api/athletes/${i.signe}/plan`,
+    expect: { head: 200, coach: 404, analyst: 200, athlete: 404, guardian: 404 },
+  },
+  {
+    route: 'POST /api/athletes/:id/focus-points',
+    target: 'coached athlete',
+    path: (i) => `/api/athletes/${i.elsie}/focus-points`,
+    body: (i) => ({ seasonId: i.season, title: `Quiet hands ${(seq += 1)}` }),
+    expect: staffOnly(201),
+  },
+  {
+    route: 'POST /api/athletes/:id/focus-points',
+    target: 'other group athlete',
+    path: (i) => `/api/athletes/${i.signe}/focus-points`,
+    body: (i) => ({ seasonId: i.season, title: `Quiet hands ${(seq += 1)}` }),
+    expect: { ...staffOnly(201), coach: 404 },
+  },
+  {
+    route: 'PUT /api/athletes/:id/focus-points/order',
+    target: 'coached athlete',
+    path: (i) => `/api/athletes/${i.kit}/focus-points/order`,
+    body: (i) => ({ seasonId: i.season, ids: (seq += 1) % 2 ? [...i.pointsKit].reverse() : i.pointsKit }),
+    expect: staffOnly(200),
+  },
+  {
+    route: 'PUT /api/athletes/:id/baseline',
+    target: 'coached athlete',
+    path: (i) => `/api/athletes/${i.elsie}/baseline`,
+    body: (i) => ({ seasonId: i.season, clipId: i.clipElsie }),
+    expect: staffOnly(200),
+  },
+  {
+    route: 'PUT /api/focus-points/:id',
+    target: 'coached athlete',
+    path: (i) => `/api/focus-points/${i.pointElsie}`,
+    body: (i) => ({
+      seasonId: i.season,
+      title: 'Knees apart at the apex',
+      metric: 'kneeSeparationRatio',
+      phase: 'apex',
+      targetMin: 0.9,
+      targetMax: 1.3,
+      status: 'working',
+    }),
+    expect: staffOnly(200),
+  },
+  {
+    route: 'PUT /api/focus-points/:id',
+    target: 'other group athlete',
+    path: (i) => `/api/focus-points/${i.pointSigne}`,
+    body: (i) => ({ seasonId: i.season, title: 'Level shoulders', status: 'improving' }),
+    expect: { ...staffOnly(200), coach: 404 },
+  },
+  {
+    route: 'DELETE /api/focus-points/:id',
+    target: 'coached athlete',
+    path: (i, role) => `/api/focus-points/${i.doomedPoint[role]}`,
+    expect: staffOnly(204),
+  },
+  {
+    route: 'GET /api/compare-stills',
+    target: 'own clip with itself',
+    path: (i) => `/api/compare-stills?a=${i.clipElsie}&b=${i.clipElsie}`,
+    expect: all(200),
+  },
+  {
+    route: 'GET /api/compare-stills',
+    target: 'own clip with another group clip',
+    path: (i) => `/api/compare-stills?a=${i.clipElsie}&b=${i.clipSigne}`,
+    expect: { head: 200, coach: 404, analyst: 200, athlete: 404, guardian: 404 },
+  },
+  {
+    route: 'POST /api/compare-stills',
+    target: 'two coached clips',
+    path: () => '/api/compare-stills',
+    body: (i) => ({ clipAId: i.clipElsie, clipBId: i.clipKit, frameA: 3, frameB: 4, png: ONE_PIXEL_PNG }),
+    expect: staffOnly(201),
+  },
+  {
+    route: 'GET /api/compare-stills/:id/image',
+    target: 'Elsie with her teammate',
+    path: (i) => `/api/compare-stills/${i.still}/image`,
+    expect: { head: 200, coach: 200, analyst: 200, athlete: 404, guardian: 404 },
+  },
 ];
 
 /** Routes anyone may call; their behaviour is covered in auth and invitation tests. */
@@ -594,9 +711,41 @@ beforeAll(async () => {
   if (change.status !== 200)
     throw new Error(`seed band change: ${change.status} ${JSON.stringify(change.body)}`);
   await server.runtime.jobs.idle();
+  const post = async (url: string, body: object) => {
+    const res = await server.http
+      .post(url)
+      .set(await server.bearer('head'))
+      .send(body);
+    if (res.status !== 201) throw new Error(`seed ${url}: ${res.status} ${JSON.stringify(res.body)}`);
+    return res.body as Record<string, { id: string }>;
+  };
+  const season = (
+    await post('/api/seasons', { name: '2000-99', startsOn: '2000-01-01', endsOn: '2099-12-31' })
+  ).season.id;
+  const point = async (athleteId: string, title: string) =>
+    (await post(`/api/athletes/${athleteId}/focus-points`, { seasonId: season, title })).focusPoint.id;
+  const doomedPoint = {} as Record<DemoRole, string>;
+  for (const r of ROLES) doomedPoint[r] = await point(base.elsie, `To be removed by ${r}`);
+  const plan = {
+    season,
+    pointElsie: await point(base.elsie, 'Knees apart'),
+    pointSigne: await point(base.signe, 'Level shoulders'),
+    pointsKit: [await point(base.kit, 'Early pole plant'), await point(base.kit, 'Hands forward')],
+    doomedPoint,
+    still: (
+      await post('/api/compare-stills', {
+        clipAId: clips.clipElsie,
+        clipBId: clips.clipKit,
+        frameA: 0,
+        frameB: 0,
+        png: ONE_PIXEL_PNG,
+      })
+    ).still.id,
+  };
   ids = {
     ...base,
     ...clips,
+    ...plan,
     flagElsie: await flag(clips.clipElsie, base.elsie, base.u14),
     flagSigne: await flag(clips.clipSigne, base.signe, base.u16),
     job: change.body.job.id as string,

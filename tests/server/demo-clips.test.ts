@@ -69,7 +69,7 @@ describe('demo clips', () => {
 
   it('have stored results for every frame, so curves and turns show without running a model', async () => {
     const { clips } = await get<{ clips: ClipDto[] }>('/api/clips');
-    const front = clips.find((c) => c.view === 'front')!;
+    const front = clips.find((c) => c.originalName === 'phantom-front-turns.mp4')!;
     expect(front.analysis).toMatchObject({ model: 'lightning', frameCount: front.frameCount });
     const read = await get<ClipFramesResponse>(`/api/clips/${front.id}/frames?model=lightning`);
     expect(read.frames).toHaveLength(front.frameCount!);

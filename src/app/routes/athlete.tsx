@@ -12,6 +12,7 @@ import { GuardianList } from '@/features/athletes/components/guardian-list';
 import { useClips } from '@/features/clips/api/get-clips';
 import { ClipList } from '@/features/clips/components/clip-list';
 import { FlagInbox } from '@/features/flags/components/flag-inbox';
+import { SeasonPlanPanel } from '@/features/season-plan/components/season-plan-panel';
 import { useUser } from '@/lib/auth';
 import { can } from '@/lib/permissions';
 
@@ -52,6 +53,12 @@ export function AthletePage() {
           <AthleteProfile athlete={record} />
           <GuardianList guardians={record.guardians} />
         </div>
+        <section aria-labelledby="athlete-plan">
+          <h2 id="athlete-plan" className="mb-3 text-base font-semibold text-granite-900">
+            Season plan
+          </h2>
+          <SeasonPlanPanel athleteId={record.id} firstName={record.firstName} />
+        </section>
         <section aria-labelledby="athlete-clips">
           <h2 id="athlete-clips" className="mb-3 text-base font-semibold text-granite-900">
             Clips

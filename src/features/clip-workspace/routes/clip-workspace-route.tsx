@@ -1,5 +1,7 @@
 import { useCallback, useEffect, useRef, useState } from 'react';
 import { Link, useParams, useSearchParams } from 'react-router-dom';
+import { Columns2 } from 'lucide-react';
+import { ButtonLink } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
 import { PageHeader } from '@/components/ui/page-header';
 import { QueryError } from '@/components/ui/query-error';
@@ -72,6 +74,17 @@ function ClipHeader({ clip }: { clip: ClipDto }) {
   return (
     <PageHeader
       title={clip.originalName}
+      actions={
+        clip.athletes.length > 0 && clip.status === 'ready' ? (
+          <ButtonLink
+            to={paths.compare.href(null, clip.id)}
+            variant="secondary"
+            icon={<Columns2 aria-hidden="true" className="h-4 w-4" />}
+          >
+            Compare
+          </ButtonLink>
+        ) : undefined
+      }
       back={
         can(user.role, 'sessions.view') ? (
           <Link to={paths.session.href(clip.sessionId)} className="text-glacier-700 hover:underline">
