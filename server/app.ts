@@ -121,7 +121,7 @@ export function createApp(deps: AppDeps): Express {
       config.invitationTtlMs,
     ),
     club: new ClubService(uow, clock),
-    plans: new SeasonPlanService(uow, access, audit, clock),
+    plans: new SeasonPlanService(uow, access, audit, clock, frameStore),
     compareStills: new CompareStillService(uow, clips, deps.storage, clock),
   };
 

@@ -19,6 +19,7 @@ import { badRequest, conflict, forbidden, notFound } from '../errors';
 import type { UnitOfWork } from '../repositories/unit-of-work';
 import type { AccessService } from './access.service';
 import type { AuditService } from './audit.service';
+import type { FrameStore } from './frame-store';
 import type { Clock, Principal } from './principal';
 
 const toSeasonDto = (s: Season): SeasonDto => ({
@@ -73,6 +74,7 @@ export class SeasonPlanService {
     private readonly access: AccessService,
     private readonly audit: AuditService,
     private readonly clock: Clock,
+    private readonly frames: Pick<FrameStore, 'seriesSettled'>,
   ) {}
 
   async listSeasons(principal: Principal): Promise<SeasonDto[]> {
@@ -138,6 +140,8 @@ export class SeasonPlanService {
     const turnsByClip = new Map<string, TurnWindow[]>();
     for (const c of seasonClips) {
       if (!c.model) continue;
+      // Turns of a clip whose last frames just arrived are still being found: wait for them.
+      await this.frames.seriesSettled(c.clip.id, c.model);
       turnsByClip.set(c.clip.id, (await repos.clipTurns.find(c.clip.id, c.model))?.turns ?? []);
     }
     const clips: SeasonClipDto[] = seasonClips.map((c) => ({

@@ -10,6 +10,8 @@ export interface FocusTarget {
   direction: TargetDirection | null;
 }
 
+const SAME = 1e-9;
+
 export type TargetChange = 'toward' | 'away' | 'unchanged' | 'inside' | 'no target';
 
 /** How far a value lies outside a range; 0 inside it. */
@@ -26,9 +28,9 @@ export function changeTowardTarget(before: number, after: number, target: FocusT
     const was = distanceOutside(before, target);
     const now = distanceOutside(after, target);
     if (was === 0 && now === 0) return 'inside';
-    if (now < was) return 'toward';
-    if (now > was) return 'away';
-    return 'unchanged';
+    // Differences below rounding (0.8 − 0.7 against 1.4 − 1.3) are no change.
+    if (Math.abs(now - was) < SAME) return 'unchanged';
+    return now < was ? 'toward' : 'away';
   }
   if (target.direction === null || after === before) return target.direction ? 'unchanged' : 'no target';
   return after > before === (target.direction === 'increase') ? 'toward' : 'away';

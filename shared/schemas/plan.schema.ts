@@ -66,8 +66,9 @@ export const focusPointInputSchema = z
         issue('metric', 'A target needs a metric; choose one, or clear the target');
       return;
     }
-    const info = BAND_METRICS[p.metric as BandMetricKey];
-    const fixed = fixedPhaseOf(p.metric as BandMetricKey);
+    if (!isBandMetricKey(p.metric)) return; // already reported by the field's own check
+    const info = BAND_METRICS[p.metric];
+    const fixed = fixedPhaseOf(p.metric);
     if (p.phase === null) issue('phase', 'Choose where in the turn it is judged');
     else if (fixed && p.phase !== fixed)
       issue('phase', `${info.label} is measured ${fixed === 'apex' ? 'at the apex' : 'at the transition'}`);
