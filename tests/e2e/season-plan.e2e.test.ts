@@ -122,4 +122,29 @@ describe('season plan and Compare in a real browser', () => {
       expect(await kept.getByText('Both at the apex of turn 3').count()).toBe(1);
     },
   );
+
+  it(
+    'the athlete reads her season plan on a phone held upright, without edit controls',
+    { timeout: 120_000 },
+    async () => {
+      const context = await browser.newContext({
+        viewport: { width: 390, height: 844 },
+        isMobile: true,
+        hasTouch: true,
+      });
+      const page = await context.newPage();
+      await signIn(page, 'athlete@larchwood.example');
+      const plan = page.getByRole('list', { name: 'Season plan of you' });
+      await plan.getByRole('listitem', { name: 'Knees apart at the apex' }).waitFor();
+      await plan.getByText('Two headlights on your knees', { exact: false }).waitFor();
+      expect(await page.getByRole('button', { name: 'Add focus point' }).count()).toBe(0);
+      expect(await page.getByRole('button', { name: /Move .* up/ }).count()).toBe(0);
+      const values = plan.getByRole('list', { name: 'Knees apart at the apex: value per clip' });
+      await expect.poll(() => values.getByRole('listitem').count()).toBeGreaterThanOrEqual(2);
+      // Nothing wider than the phone: no sideways scrolling.
+      expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+      await page.screenshot({ path: screenshotPath('season-plan-phone'), fullPage: true });
+      await context.close();
+    },
+  );
 });

@@ -7,6 +7,7 @@ import { paths } from '@/config/paths';
 import { useAthlete } from '@/features/athletes/api/get-athlete';
 import { useAthletes } from '@/features/athletes/api/get-athletes';
 import { ConsentBadge } from '@/features/athletes/components/consent-badge';
+import { SeasonPlanPanel } from '@/features/season-plan/components/season-plan-panel';
 import { useClips } from '@/features/clips/api/get-clips';
 import { ClipList } from '@/features/clips/components/clip-list';
 import { FlagInbox } from '@/features/flags/components/flag-inbox';
@@ -141,6 +142,14 @@ function MyClips({ user }: { user: UserDto }) {
   return (
     <>
       <HomeGreeting user={user} title="My clips" />
+      {user.athleteId ? (
+        <section aria-labelledby="my-plan" className="mb-8">
+          <h2 id="my-plan" className="mb-3 text-base font-semibold text-granite-900">
+            My season plan
+          </h2>
+          <SeasonPlanPanel athleteId={user.athleteId} firstName={user.name.split(' ')[0]} self />
+        </section>
+      ) : null}
       {clips.isPending ? <PageSpinner label="Loading your clips" /> : null}
       {clips.isError ? (
         <QueryError error={clips.error} what="your clips" retry={() => void clips.refetch()} />
@@ -174,6 +183,12 @@ function ChildSection({ athleteId }: { athleteId: string }) {
         ) : null}
       </div>
       {athlete.isError ? <QueryError error={athlete.error} what={`the record of ${name}`} /> : null}
+      {athlete.data ? (
+        <section aria-label={`Season plan of ${athlete.data.athlete.firstName}`}>
+          <h3 className="mb-2 text-sm font-semibold text-granite-900">Season plan</h3>
+          <SeasonPlanPanel athleteId={athleteId} firstName={athlete.data.athlete.firstName} />
+        </section>
+      ) : null}
       {clips.isPending ? <PageSpinner label="Loading clips" /> : null}
       {clips.isError ? (
         <QueryError error={clips.error} what="clips" retry={() => void clips.refetch()} />

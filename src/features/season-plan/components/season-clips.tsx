@@ -7,18 +7,19 @@ import { formatDay } from '@/lib/format';
 
 interface SeasonClipsProps {
   plan: SeasonPlanResponse;
-  firstName: string;
+  /** The athlete's first name, or "you". */
+  who: string;
   busy: boolean;
   onMarkBaseline(clipId: string | null): void;
 }
 
 /** The athlete's clips of the season, oldest first: which is the baseline, and Compare with it. */
-export function SeasonClips({ plan, firstName, busy, onMarkBaseline }: SeasonClipsProps) {
+export function SeasonClips({ plan, who, busy, onMarkBaseline }: SeasonClipsProps) {
   const season = plan.season!;
   return (
     <section aria-labelledby="season-clips" className="space-y-2">
       <h3 id="season-clips" className="text-sm font-semibold text-granite-900">
-        Clips of {firstName} in {season.name}
+        Clips of {who} in {season.name}
       </h3>
       {plan.clips.length === 0 ? (
         <p className="text-sm text-granite-600">

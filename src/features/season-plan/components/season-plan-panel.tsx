@@ -69,10 +69,13 @@ function moved(ids: string[], id: string, delta: number): string[] {
 interface SeasonPlanPanelProps {
   athleteId: string;
   firstName: string;
+  /** The athlete reading their own plan: "you" instead of their name. */
+  self?: boolean;
 }
 
 /** An athlete's season plan: ranked focus points with their measured path, the baseline and the season's clips. */
-export function SeasonPlanPanel({ athleteId, firstName }: SeasonPlanPanelProps) {
+export function SeasonPlanPanel({ athleteId, firstName, self = false }: SeasonPlanPanelProps) {
+  const who = self ? 'you' : firstName;
   const user = useUser();
   const toast = useToast();
   const [seasonId, setSeasonId] = useState<string | undefined>();
@@ -158,13 +161,13 @@ export function SeasonPlanPanel({ athleteId, firstName }: SeasonPlanPanelProps) 
       </div>
 
       {data.focusPoints.length === 0 ? (
-        <EmptyState title={`No focus points for ${firstName} in ${season.name}`}>
+        <EmptyState title={`No focus points for ${who} in ${season.name}`}>
           {data.canEdit
             ? 'Add the few things to work on this season, each tied to a measurement or in words.'
-            : `${firstName}'s coach has not written the season plan yet.`}
+            : `${self ? 'Your' : `${firstName}'s`} coach has not written the season plan yet.`}
         </EmptyState>
       ) : (
-        <ol className="space-y-3" aria-label={`Season plan of ${firstName}`}>
+        <ol className="space-y-3" aria-label={`Season plan of ${who}`}>
           {data.focusPoints.map((point, index) => (
             <li
               key={point.id}
@@ -237,7 +240,7 @@ export function SeasonPlanPanel({ athleteId, firstName }: SeasonPlanPanelProps) 
 
       <SeasonClips
         plan={data}
-        firstName={firstName}
+        who={who}
         busy={baseline.isPending}
         onMarkBaseline={(clipId) =>
           baseline
@@ -268,8 +271,8 @@ export function SeasonPlanPanel({ athleteId, firstName }: SeasonPlanPanelProps) 
         ) : null}
       </Dialog>
       <p className="text-xs text-granite-500">
-        Coaches reorder with the arrows (or by dragging a card). Values are 2D estimates from one camera: a
-        coaching aid, not a medical assessment.
+        {data.canEdit ? 'Reorder with the arrow buttons (keyboard) or by dragging a card. ' : ''}Values are 2D
+        estimates from one camera: a coaching aid, not a medical assessment.
       </p>
     </div>
   );
