@@ -147,7 +147,12 @@ function MyClips({ user }: { user: UserDto }) {
           <h2 id="my-plan" className="mb-3 text-base font-semibold text-granite-900">
             My season plan
           </h2>
-          <SeasonPlanPanel athleteId={user.athleteId} firstName={user.name.split(' ')[0]} self />
+          <SeasonPlanPanel
+            athleteId={user.athleteId}
+            firstName={user.name.split(' ')[0]}
+            self
+            listClips={false}
+          />
         </section>
       ) : null}
       {clips.isPending ? <PageSpinner label="Loading your clips" /> : null}
@@ -186,7 +191,11 @@ function ChildSection({ athleteId }: { athleteId: string }) {
       {athlete.data ? (
         <section aria-label={`Season plan of ${athlete.data.athlete.firstName}`}>
           <h3 className="mb-2 text-sm font-semibold text-granite-900">Season plan</h3>
-          <SeasonPlanPanel athleteId={athleteId} firstName={athlete.data.athlete.firstName} />
+          <SeasonPlanPanel
+            athleteId={athleteId}
+            firstName={athlete.data.athlete.firstName}
+            listClips={false}
+          />
         </section>
       ) : null}
       {clips.isPending ? <PageSpinner label="Loading clips" /> : null}

@@ -71,10 +71,17 @@ interface SeasonPlanPanelProps {
   firstName: string;
   /** The athlete reading their own plan: "you" instead of their name. */
   self?: boolean;
+  /** The season's clips with their baseline controls; off where the page lists the clips itself. */
+  listClips?: boolean;
 }
 
 /** An athlete's season plan: ranked focus points with their measured path, the baseline and the season's clips. */
-export function SeasonPlanPanel({ athleteId, firstName, self = false }: SeasonPlanPanelProps) {
+export function SeasonPlanPanel({
+  athleteId,
+  firstName,
+  self = false,
+  listClips = true,
+}: SeasonPlanPanelProps) {
   const who = self ? 'you' : firstName;
   const user = useUser();
   const toast = useToast();
@@ -238,17 +245,19 @@ export function SeasonPlanPanel({ athleteId, firstName, self = false }: SeasonPl
         </ol>
       )}
 
-      <SeasonClips
-        plan={data}
-        who={who}
-        busy={baseline.isPending}
-        onMarkBaseline={(clipId) =>
-          baseline
-            .mutateAsync({ seasonId: season.id, clipId })
-            .then(() => toast.success(clipId ? 'Baseline marked' : 'Baseline cleared'))
-            .catch((error: unknown) => toast.error(`The baseline was not changed: ${errorMessage(error)}`))
-        }
-      />
+      {listClips ? (
+        <SeasonClips
+          plan={data}
+          who={who}
+          busy={baseline.isPending}
+          onMarkBaseline={(clipId) =>
+            baseline
+              .mutateAsync({ seasonId: season.id, clipId })
+              .then(() => toast.success(clipId ? 'Baseline marked' : 'Baseline cleared'))
+              .catch((error: unknown) => toast.error(`The baseline was not changed: ${errorMessage(error)}`))
+          }
+        />
+      ) : null}
 
       <Dialog
         open={editing !== null}
