@@ -49,6 +49,8 @@ import { exportRoutes } from './routes/exports.routes';
 import type { JobRunner } from './services/job-runner';
 import { flagRoutes } from './routes/flags.routes';
 import { planRoutes } from './routes/plan.routes';
+import { reviewRoutes } from './routes/reviews.routes';
+import { ReviewService } from './services/review.service';
 import { SeasonPlanService } from './services/season-plan.service';
 import { CompareStillService } from './services/compare-still.service';
 import type { ObjectStorage } from './storage/object-storage';
@@ -93,6 +95,8 @@ export function createApp(deps: AppDeps): Express {
   const toleranceBands = new ToleranceBandService(uow, clock, access, () => deps.jobs.resume());
   const frameStore = new FrameStore(uow, toleranceBands, clock);
   const analysis = new ClipAnalysisService(uow, access, clips, frameStore, audit, clock);
+  const passwords = new PasswordService(uow, auth, audit, deps.mailer, clock, publicUrlNow);
+  const compareStills = new CompareStillService(uow, clips, deps.storage, clock);
   const ctx: RouteContext = {
     config,
     dataSource,
@@ -100,7 +104,7 @@ export function createApp(deps: AppDeps): Express {
     storage: deps.storage,
     guard: createAuthMiddleware({ auth, access, tokens }),
     auth,
-    passwords: new PasswordService(uow, auth, audit, deps.mailer, clock, publicUrlNow),
+    passwords,
     athletes: new AthleteService(uow, access, audit, clock),
     sessions,
     clips,
@@ -122,7 +126,18 @@ export function createApp(deps: AppDeps): Express {
     ),
     club: new ClubService(uow, clock),
     plans: new SeasonPlanService(uow, access, audit, clock, frameStore),
-    compareStills: new CompareStillService(uow, clips, deps.storage, clock),
+    compareStills,
+    reviews: new ReviewService({
+      uow,
+      access,
+      clips,
+      frames: frameStore,
+      passwords,
+      mailer: deps.mailer,
+      audit,
+      clock,
+      publicUrl: publicUrlNow,
+    }),
   };
 
   const app = express();
@@ -151,6 +166,7 @@ export function createApp(deps: AppDeps): Express {
   app.use(invitationRoutes(ctx));
   app.use(clubRoutes(ctx));
   app.use(planRoutes(ctx));
+  app.use(reviewRoutes(ctx));
   app.use('/api', apiNotFound);
   // Only the embedded fake has a mailbox, and only an explicit setting shows it.
   if (deps.mailbox && config.devMailbox) app.use(devMailboxRoutes(deps.mailbox));

@@ -10,6 +10,7 @@ import { seedDemoClips } from './seed/demo-clips';
 import { seedDemoClub } from './seed/demo-seed';
 import { seedDemoBandChanges, seedDemoFlagReviews } from './seed/demo-standards';
 import { seedDemoSeasonPlan } from './seed/demo-plan';
+import { seedDemoReviews } from './seed/demo-reviews';
 import { FrameStore } from './services/frame-store';
 import { StorageJanitor } from './services/storage-janitor';
 import { UnitOfWork } from './repositories/unit-of-work';
@@ -77,6 +78,7 @@ export async function startStanceline(opts: StartOptions = {}): Promise<StartedS
       logger.info({ clips: clips.length }, 'seeded the demo clips');
       await seedDemoFlagReviews(runtime.dataSource, opts.clock);
       await seedDemoSeasonPlan(runtime.dataSource, seeded.clubId, opts.clock);
+      await seedDemoReviews(runtime.dataSource, seeded.clubId, opts.clock);
     }
     // What an earlier run left when it was killed mid-upload: scratch files, parts, unrecorded objects.
     const janitor = new StorageJanitor({

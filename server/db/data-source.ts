@@ -23,6 +23,8 @@ import { ClipTurnsEntity } from '../entities/clip-turns.entity';
 import { SeasonEntity } from '../entities/season.entity';
 import { SeasonBaselineEntity } from '../entities/season-baseline.entity';
 import { CompareStillEntity } from '../entities/compare-still.entity';
+import { ReviewItemEntity } from '../entities/review-item.entity';
+import { ReviewReceiptEntity } from '../entities/review-receipt.entity';
 
 import { DataSource } from 'typeorm';
 import { InitialSchema1796163026000 } from '../migrations/1796163026000-initial-schema';
@@ -36,6 +38,7 @@ import { PasswordReset1796260000002 } from '../migrations/1796260000002-password
 import { FrameResultSummaryIndex1796260000003 } from '../migrations/1796260000003-frame-result-summary-index';
 import { StandardsAndFlags1796270000000 } from '../migrations/1796270000000-standards-and-flags';
 import { SeasonPlan1796280000000 } from '../migrations/1796280000000-season-plan';
+import { Reviews1796290000000 } from '../migrations/1796290000000-reviews';
 
 export const ALL_ENTITIES = [
   ClubEntity,
@@ -65,6 +68,8 @@ export const ALL_ENTITIES = [
   SeasonEntity,
   SeasonBaselineEntity,
   CompareStillEntity,
+  ReviewItemEntity,
+  ReviewReceiptEntity,
 ];
 
 // Listed explicitly (no globs): bundlers and tsx cannot resolve migration globs reliably.
@@ -78,6 +83,7 @@ export const ALL_MIGRATIONS = [
   FrameResultSummaryIndex1796260000003,
   StandardsAndFlags1796270000000,
   SeasonPlan1796280000000,
+  Reviews1796290000000,
 ];
 
 /** SQLite through better-sqlite3: WAL journal, foreign keys on (the driver always enables them), no synchronize. */

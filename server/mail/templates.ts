@@ -61,3 +61,50 @@ export function invitationMail(opts: {
   ].join('\n');
   return { to: opts.to, subject: `Join ${opts.clubName} on Stanceline`, text, html };
 }
+
+/** A published review: the coach's summary, and a link into the app (or to set a password first). */
+export function reviewMail(opts: {
+  to: string;
+  recipientName: string;
+  athleteName: string;
+  coachName: string;
+  clubName: string;
+  title: string;
+  summary: string;
+  link: string;
+  /** The recipient has no password yet: the link sets one, then opens the review. */
+  setsPassword: boolean;
+  republished: boolean;
+}): OutgoingMail {
+  const whose = opts.recipientName === opts.athleteName ? 'your' : `${opts.athleteName}'s`;
+  const intro = `${opts.coachName} of ${opts.clubName} ${opts.republished ? 'has corrected' : 'has shared'} a review of ${whose} training run: “${opts.title}”.`;
+  const action = opts.setsPassword
+    ? 'Choose a password for your Stanceline account, and the review opens'
+    : 'Open the review';
+  const caution =
+    'The angles are 2D estimates from one camera: a coaching aid, not a medical or injury assessment.';
+  const text = [
+    `Hello ${opts.recipientName},`,
+    '',
+    intro,
+    '',
+    opts.summary,
+    '',
+    `${action}: ${opts.link}`,
+    '',
+    caution,
+  ].join('\n');
+  const html = [
+    `<p>Hello ${escapeHtml(opts.recipientName)},</p>`,
+    `<p>${escapeHtml(intro)}</p>`,
+    `<blockquote style="border-left:3px solid #245178;margin:0;padding-left:12px">${escapeHtml(opts.summary).replace(/\n/g, '<br>')}</blockquote>`,
+    `<p><a href="${escapeHtml(opts.link)}">${escapeHtml(action)}</a></p>`,
+    `<p style="color:#555;font-size:12px">${escapeHtml(caution)}</p>`,
+  ].join('\n');
+  return {
+    to: opts.to,
+    subject: `${opts.republished ? 'Corrected review' : 'New review'} from ${opts.coachName}: ${opts.title}`,
+    text,
+    html,
+  };
+}

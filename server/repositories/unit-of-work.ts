@@ -14,6 +14,7 @@ import { JobRepository } from './job.repository';
 import { MemberRepository } from './member.repository';
 import { NoteRepository } from './note.repository';
 import { PlanRepository } from './plan.repository';
+import { ReviewRepository } from './review.repository';
 import { RateLimitRepository } from './rate-limit.repository';
 import { ReferenceLineRepository } from './reference-line.repository';
 import { SessionRepository } from './session.repository';
@@ -37,6 +38,7 @@ export interface Repositories {
   readonly members: MemberRepository;
   readonly notes: NoteRepository;
   readonly plans: PlanRepository;
+  readonly reviews: ReviewRepository;
   readonly rateLimits: RateLimitRepository;
   readonly referenceLines: ReferenceLineRepository;
   readonly sessions: SessionRepository;
@@ -70,6 +72,7 @@ export function repositoriesFor(manager: EntityManager): Repositories {
       members: new MemberRepository(manager),
       notes: new NoteRepository(manager),
       plans: new PlanRepository(manager),
+      reviews: new ReviewRepository(manager),
       rateLimits: new RateLimitRepository(manager),
       referenceLines: new ReferenceLineRepository(manager),
       sessions: new SessionRepository(manager),

@@ -15,6 +15,7 @@ import type { NoteService } from '../services/note.service';
 import type { SessionService } from '../services/session.service';
 import type { SeasonPlanService } from '../services/season-plan.service';
 import type { CompareStillService } from '../services/compare-still.service';
+import type { ReviewService } from '../services/review.service';
 import type { ToleranceBandService } from '../services/tolerance-band.service';
 import type { ObjectStorage } from '../storage/object-storage';
 import type { DataSource } from 'typeorm';
@@ -42,4 +43,5 @@ export interface RouteContext {
   club: ClubService;
   plans: SeasonPlanService;
   compareStills: CompareStillService;
+  reviews: ReviewService;
 }

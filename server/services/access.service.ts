@@ -33,6 +33,8 @@ const FORBIDDEN_MESSAGES: Record<Permission, string> = {
   'plan:write': 'Only coaches and the head coach can change a season plan',
   'compare:read': 'Your role cannot compare clips',
   'compare:write': 'Only coaches and the head coach keep stills with a clip pair',
+  'review:read': 'Your role cannot read reviews',
+  'review:write': 'Only coaches and the head coach write and publish reviews',
   'invitation:create': 'Only coaches and the head coach can invite members',
   'club:members': 'Only the head coach can see the member list',
   'section:home': 'Your role has no home page of its own',

@@ -53,7 +53,7 @@ function checkTime(clip: Clip, timeMs: number | undefined): void {
   }
 }
 
-function toNoteDto(note: Note, authorName: string | null): NoteDto {
+export function toNoteDto(note: Note, authorName: string | null): NoteDto {
   return {
     id: note.id,
     clipId: note.clipId,

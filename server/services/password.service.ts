@@ -18,6 +18,8 @@ import type { Clock, Principal } from './principal';
 import { hashSecretToken, newSecretToken } from './secret-token';
 
 const RESET_TTL_MS = 60 * 60_000;
+/** A first password chosen from a shared review's e-mail: a week, as invitations. */
+const SETUP_TTL_MS = 7 * 24 * 60 * 60_000;
 
 /**
  * Changing a password, and resetting a forgotten one by an e-mailed link. Either way every other
@@ -84,6 +86,24 @@ export class PasswordService {
         expiresInMinutes: RESET_TTL_MS / 60_000,
       }),
     );
+  }
+
+  /**
+   * A link for a member who has no password yet (a guardian added by a coach): choosing one signs them
+   * in and opens `next`. Valid for a week, once.
+   */
+  async setupLink(userId: string, next: string): Promise<string> {
+    const token = newSecretToken();
+    const now = this.clock.now();
+    await this.uow.repos.auth.insertPasswordReset({
+      id: randomUUID(),
+      userId,
+      tokenHash: hashSecretToken(token),
+      expiresAt: new Date(now.getTime() + SETUP_TTL_MS),
+      usedAt: null,
+      createdAt: now,
+    });
+    return `${this.publicUrl()}/reset-password/${token}?next=${encodeURIComponent(next)}`;
   }
 
   async inspectReset(token: string): Promise<PasswordResetInfo> {

@@ -39,6 +39,9 @@ export const PERMISSIONS = {
   'plan:write': ['head_coach', 'coach'],
   'compare:read': ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'],
   'compare:write': ['head_coach', 'coach'],
+  // Staff read reviews within their reach; athletes and guardians read published reviews of their own.
+  'review:read': ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'],
+  'review:write': ['head_coach', 'coach'],
   'invitation:create': ['head_coach', 'coach'],
   'club:members': ['head_coach'],
   // Sections of the app: which pages a role is sent to. The reads behind them are the rows above.

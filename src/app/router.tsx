@@ -89,6 +89,16 @@ export const routes: RouteObject[] = [
                 }),
               },
               {
+                // Athletes and guardians read published reviews; staff preview any within their reach.
+                path: paths.review.path,
+                lazy: async () => ({
+                  Component: (await import('@/features/clip-workspace/routes/review-route')).ReviewRoute,
+                }),
+              },
+              guarded(paths.reviewEdit.path, 'reviews.write', async () => ({
+                Component: (await import('@/features/reviews/routes/review-edit-route')).ReviewEditRoute,
+              })),
+              {
                 // Any role: each side shows only clips the caller may see (the server checks each).
                 path: paths.compare.path,
                 lazy: async () => ({

@@ -39,6 +39,8 @@ export const paths = {
       return text ? `/compare?${text}` : '/compare';
     },
   },
+  review: { path: '/reviews/:reviewId', href: (id: string) => `/reviews/${id}` },
+  reviewEdit: { path: '/reviews/:reviewId/edit', href: (id: string) => `/reviews/${id}/edit` },
   tolerances: { path: '/tolerances', href: () => '/tolerances' },
   exports: { path: '/exports', href: () => '/exports' },
   codebook: { path: '/exports/codebook', href: () => '/exports/codebook' },

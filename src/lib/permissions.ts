@@ -19,7 +19,8 @@ export type Capability =
   | 'exports.view'
   | 'flags.review'
   | 'seasons.create'
-  | 'compare.keepStill';
+  | 'compare.keepStill'
+  | 'reviews.write';
 
 // Each control the client hides maps onto a row of the one role table the server enforces.
 const CAPABILITY_PERMISSION: Record<Capability, Permission> = {
@@ -38,6 +39,7 @@ const CAPABILITY_PERMISSION: Record<Capability, Permission> = {
   'flags.review': 'flag:review',
   'seasons.create': 'season:write',
   'compare.keepStill': 'compare:write',
+  'reviews.write': 'review:write',
 };
 
 export const ROLE_LABELS: Record<Role, string> = {

@@ -40,6 +40,12 @@ interface Ids {
   doomedPoint: Record<DemoRole, string>;
   /** A side-by-side still of Elsie's clip with Kit's. */
   still: string;
+  /** A published review of Elsie, one of Signe, a draft of Elsie; per role a draft to publish and a review to withdraw. */
+  reviewElsie: string;
+  reviewSigne: string;
+  reviewDraft: string;
+  toPublish: Record<DemoRole, string>;
+  toWithdraw: Record<DemoRole, string>;
 }
 
 type Expect = Record<DemoRole, number>;
@@ -625,6 +631,69 @@ const ROWS: Row[] = [
     path: (i) => `/api/compare-stills/${i.still}/image`,
     expect: { head: 200, coach: 200, analyst: 200, athlete: 404, guardian: 404 },
   },
+  { route: 'GET /api/reviews', target: 'within reach', path: () => '/api/reviews', expect: all(200) },
+  {
+    route: 'POST /api/reviews',
+    target: 'coached athlete',
+    path: () => '/api/reviews',
+    body: (i) => ({ clipId: i.clipElsie, athleteId: i.elsie }),
+    expect: staffOnly(201),
+  },
+  {
+    route: 'GET /api/reviews/:id',
+    target: 'published, own / own child',
+    path: (i) => `/api/reviews/${i.reviewElsie}`,
+    expect: all(200),
+  },
+  {
+    route: 'GET /api/reviews/:id',
+    target: 'published, other group athlete',
+    path: (i) => `/api/reviews/${i.reviewSigne}`,
+    expect: { head: 200, coach: 404, analyst: 200, athlete: 404, guardian: 404 },
+  },
+  {
+    route: 'GET /api/reviews/:id',
+    target: 'draft of own athlete',
+    path: (i) => `/api/reviews/${i.reviewDraft}`,
+    expect: { head: 200, coach: 200, analyst: 200, athlete: 404, guardian: 404 },
+  },
+  {
+    route: 'PATCH /api/reviews/:id',
+    target: 'draft of coached athlete',
+    path: (i) => `/api/reviews/${i.reviewDraft}`,
+    body: () => ({ summary: `Edited ${(seq += 1)}` }),
+    expect: staffOnly(200),
+  },
+  {
+    route: 'GET /api/reviews/:id/view',
+    target: 'published, own / own child',
+    path: (i) => `/api/reviews/${i.reviewElsie}/view`,
+    expect: all(200),
+  },
+  {
+    route: 'GET /api/reviews/:id/view',
+    target: 'published, other group athlete',
+    path: (i) => `/api/reviews/${i.reviewSigne}/view`,
+    expect: { head: 200, coach: 404, analyst: 200, athlete: 404, guardian: 404 },
+  },
+  {
+    route: 'POST /api/reviews/:id/publish',
+    target: 'draft of coached athlete',
+    path: (i, role) => `/api/reviews/${i.toPublish[role]}/publish`,
+    expect: staffOnly(200),
+  },
+  {
+    route: 'POST /api/reviews/:id/unpublish',
+    target: 'published, coached athlete',
+    path: (i, role) => `/api/reviews/${i.toWithdraw[role]}/unpublish`,
+    expect: staffOnly(200),
+  },
+  {
+    route: 'GET /api/reviews/:id/receipts',
+    target: 'published, coached athlete',
+    path: (i) => `/api/reviews/${i.reviewElsie}/receipts`,
+    expect: { head: 200, coach: 200, analyst: 200, athlete: 403, guardian: 403 },
+  },
 ];
 
 /** Routes anyone may call; their behaviour is covered in auth and invitation tests. */
@@ -742,10 +811,37 @@ beforeAll(async () => {
       })
     ).still.id,
   };
+  const review = async (clipId: string, athleteId: string, publish: boolean) => {
+    const id = (await post('/api/reviews', { clipId, athleteId })).review.id;
+    const saved = await server.http
+      .patch(`/api/reviews/${id}`)
+      .set(await server.bearer('head'))
+      .send({ summary: 'Knees apart through the apex.' });
+    if (saved.status !== 200) throw new Error(`seed review: ${saved.status} ${JSON.stringify(saved.body)}`);
+    if (publish) {
+      const res = await server.http.post(`/api/reviews/${id}/publish`).set(await server.bearer('head'));
+      if (res.status !== 200) throw new Error(`publish review: ${res.status} ${JSON.stringify(res.body)}`);
+    }
+    return id;
+  };
+  const toPublish = {} as Record<DemoRole, string>;
+  const toWithdraw = {} as Record<DemoRole, string>;
+  for (const r of ROLES) {
+    toPublish[r] = await review(clips.clipElsie, base.elsie, false);
+    toWithdraw[r] = await review(clips.clipElsie, base.elsie, true);
+  }
+  const reviews = {
+    reviewElsie: await review(clips.clipElsie, base.elsie, true),
+    reviewSigne: await review(clips.clipSigne, base.signe, true),
+    reviewDraft: await review(clips.clipElsie, base.elsie, false),
+    toPublish,
+    toWithdraw,
+  };
   ids = {
     ...base,
     ...clips,
     ...plan,
+    ...reviews,
     flagElsie: await flag(clips.clipElsie, base.elsie, base.u14),
     flagSigne: await flag(clips.clipSigne, base.signe, base.u16),
     job: change.body.job.id as string,

@@ -52,6 +52,8 @@ describe('database schema', () => {
         'reference_line',
         'refresh_token',
         'review',
+        'review_item',
+        'review_receipt',
         'season',
         'season_baseline',
         'tolerance_band',

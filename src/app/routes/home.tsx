@@ -8,6 +8,7 @@ import { useAthlete } from '@/features/athletes/api/get-athlete';
 import { useAthletes } from '@/features/athletes/api/get-athletes';
 import { ConsentBadge } from '@/features/athletes/components/consent-badge';
 import { SeasonPlanPanel } from '@/features/season-plan/components/season-plan-panel';
+import { ReviewList } from '@/features/reviews/components/review-list';
 import { useClips } from '@/features/clips/api/get-clips';
 import { ClipList } from '@/features/clips/components/clip-list';
 import { FlagInbox } from '@/features/flags/components/flag-inbox';
@@ -142,6 +143,12 @@ function MyClips({ user }: { user: UserDto }) {
   return (
     <>
       <HomeGreeting user={user} title="My clips" />
+      <section aria-labelledby="my-reviews" className="mb-8">
+        <h2 id="my-reviews" className="mb-3 text-base font-semibold text-granite-900">
+          My reviews
+        </h2>
+        <ReviewList emptyText="Your coach has not shared a review yet; it arrives by e-mail too." />
+      </section>
       {user.athleteId ? (
         <section aria-labelledby="my-plan" className="mb-8">
           <h2 id="my-plan" className="mb-3 text-base font-semibold text-granite-900">
@@ -188,6 +195,10 @@ function ChildSection({ athleteId }: { athleteId: string }) {
         ) : null}
       </div>
       {athlete.isError ? <QueryError error={athlete.error} what={`the record of ${name}`} /> : null}
+      <section aria-label={`Reviews of ${name}`}>
+        <h3 className="mb-2 text-sm font-semibold text-granite-900">Reviews</h3>
+        <ReviewList athleteId={athleteId} emptyText="No review shared yet." />
+      </section>
       {athlete.data ? (
         <section aria-label={`Season plan of ${athlete.data.athlete.firstName}`}>
           <h3 className="mb-2 text-sm font-semibold text-granite-900">Season plan</h3>

@@ -20,6 +20,7 @@ import { NotesPanel } from '../components/notes';
 import { OverlayToolbar } from '../components/overlays/overlay-toolbar';
 import { ScrubBar } from '../components/player/scrub-bar';
 import { ReadoutsPanel } from '../components/readouts/readouts-panel';
+import { ReviewsPanel } from '../components/reviews-panel';
 import { TransportBar } from '../components/player/transport-bar';
 import { ClipStageProvider, StageView } from '../components/stage/clip-stage';
 import { useStage, useStageClock } from '../components/stage/stage-context';
@@ -152,6 +153,7 @@ function Workspace() {
           <RenderProbe id="readouts">
             <ReadoutsPanel />
           </RenderProbe>
+          {can(user.role, 'reviews.write') ? <ReviewsPanel /> : null}
           {/* Notes reach athletes and guardians with a published review, not from the workspace. */}
           {can(user.role, 'notes.read') ? (
             <RenderProbe id="notes">
