@@ -1,11 +1,10 @@
-import { useCallback, useEffect, useState } from 'react';
+import { useCallback, useEffect, useState, type ReactNode } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { useQueryClient } from '@tanstack/react-query';
 import { ChevronLeft, ChevronRight, Columns2, Pause, Play } from 'lucide-react';
 import { FOCUS_STATUS_LABELS } from '@shared/schemas/plan.schema';
 import type { ReviewViewResponse } from '@shared/schemas/review.schema';
 import { ButtonLink } from '@/components/ui/button';
-import { EmptyState } from '@/components/ui/empty-state';
 import { Notice } from '@/components/ui/notice';
 import { QueryError } from '@/components/ui/query-error';
 import { PageSpinner } from '@/components/ui/spinner';
@@ -39,27 +38,17 @@ export function ReviewRoute() {
     const error = view.error;
     if (error instanceof ApiError && error.status === 410)
       return (
-        <EmptyState title="This review was withdrawn">
+        <ReviewGone title="This review was withdrawn">
           Your coach has taken this review back, usually to correct it. A corrected review arrives by e-mail
           when it is ready.
-          <div className="mt-4">
-            <Link to={paths.home.href()} className="font-medium text-glacier-700 underline">
-              Back to Home
-            </Link>
-          </div>
-        </EmptyState>
+        </ReviewGone>
       );
     if (error instanceof ApiError && error.status === 404)
       return (
-        <EmptyState title="Review not found">
+        <ReviewGone title="Review not found">
           There is no review at this address for your account. It may belong to someone else, or the link was
           copied only in part.
-          <div className="mt-4">
-            <Link to={paths.home.href()} className="font-medium text-glacier-700 underline">
-              Back to Home
-            </Link>
-          </div>
-        </EmptyState>
+        </ReviewGone>
       );
     return <QueryError error={error} what="this review" retry={() => void refetch()} />;
   }
@@ -123,13 +112,27 @@ export function ReviewRoute() {
   );
 }
 
+/** A full page for a review that cannot be shown: why, and the way home (no retry that cannot help). */
+function ReviewGone({ title, children }: { title: string; children: ReactNode }) {
+  return (
+    <section className="mx-auto max-w-lg space-y-3 rounded-lg border border-granite-200 bg-white p-6 text-center shadow-sm">
+      <h1 className="text-lg font-semibold text-granite-900">{title}</h1>
+      <p className="text-sm text-granite-700">{children}</p>
+      <Link to={paths.home.href()} className="inline-block font-medium text-glacier-700 underline">
+        Back to Home
+      </Link>
+    </section>
+  );
+}
+
 /** The clip with the chosen overlays, big thumb-sized controls, and the coach's notes as moments. */
 function ReviewPlayer({ data }: { data: ReviewViewResponse }) {
   const ws = useStage();
   const playing = useStageClock((s) => s.playing);
   const frame = useStageClock((s) => s.frame);
-  const big =
-    'inline-flex h-14 w-14 items-center justify-center rounded-full border border-granite-200 bg-white text-granite-900 shadow-sm active:bg-glacier-50';
+  const round = 'inline-flex items-center justify-center rounded-full border shadow-sm';
+  const big = `${round} h-14 w-14 border-granite-200 bg-white text-granite-900 active:bg-glacier-50`;
+  const main = `${round} h-16 w-16 border-glacier-700 bg-glacier-700 text-white active:bg-glacier-800`;
   return (
     <section aria-label="Your run" className="space-y-3">
       <StageView />
@@ -139,7 +142,7 @@ function ReviewPlayer({ data }: { data: ReviewViewResponse }) {
         </button>
         <button
           type="button"
-          className={cn(big, 'h-16 w-16 border-glacier-700 bg-glacier-700 text-white active:bg-glacier-800')}
+          className={main}
           aria-label={playing ? 'Pause' : 'Play'}
           onClick={ws.togglePlay}
         >

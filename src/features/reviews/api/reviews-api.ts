@@ -71,6 +71,15 @@ export function useUpdateReview(id: string) {
   return useMutation({
     mutationFn: (input: UpdateReviewInput) =>
       api.patch<{ review: ReviewDto }>(`/api/reviews/${encodeURIComponent(id)}`, input),
+    // Ticks and toggles show at once; the server's answer (or the old state, on failure) follows.
+    onMutate: (input) => {
+      const before = queryClient.getQueryData<ReviewDto>(reviewKeys.one(id));
+      if (before) queryClient.setQueryData(reviewKeys.one(id), { ...before, ...input });
+      return { before };
+    },
+    onError: (_error, _input, context) => {
+      if (context?.before) queryClient.setQueryData(reviewKeys.one(id), context.before);
+    },
     onSuccess: (data) => queryClient.setQueryData(reviewKeys.one(id), data.review),
   });
 }

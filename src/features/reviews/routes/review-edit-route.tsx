@@ -183,7 +183,7 @@ function ReviewEditor({ review }: { review: ReviewDto }) {
                 This clip has no notes yet. Pin notes to moments in the clip, then choose them here.
               </p>
             ) : null}
-            <ul className="space-y-2">
+            <ul className="space-y-2" aria-label="Notes to share">
               {(notes.data?.notes ?? []).map((note) => (
                 <li key={note.id}>
                   <label className="flex items-start gap-2 text-sm">
@@ -219,7 +219,7 @@ function ReviewEditor({ review }: { review: ReviewDto }) {
                 .
               </p>
             ) : null}
-            <ul className="space-y-2">
+            <ul className="space-y-2" aria-label="Focus points to share">
               {(plan.data?.focusPoints ?? []).map((point) => (
                 <li key={point.id}>
                   <label className="flex items-start gap-2 text-sm">
