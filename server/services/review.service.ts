@@ -1,5 +1,12 @@
 import { randomUUID } from 'node:crypto';
-import { describeTarget, FOCUS_PHASE_LABELS, clipPhaseValue, type FocusPhase } from '@shared/plan';
+import {
+  clipPhaseValue,
+  describeTarget,
+  fixedPhaseOf,
+  focusLabel,
+  FOCUS_PHASE_LABELS,
+  type FocusPhase,
+} from '@shared/plan';
 import type { FocusPointDto } from '@shared/schemas/plan.schema';
 import {
   DEFAULT_REVIEW_OVERLAYS,
@@ -372,8 +379,8 @@ export class ReviewService {
       const target = describeTarget({ min: p.targetMin, max: p.targetMax, direction: p.direction }, info);
       const measured =
         value?.median !== null && value?.median !== undefined
-          ? `${info.label} ${formatUnitValue(value.median, info.unit)} ${FOCUS_PHASE_LABELS[p.phase as FocusPhase]}`
-          : `${info.label} ${FOCUS_PHASE_LABELS[p.phase as FocusPhase]}: ${value?.reason ?? 'not analysed yet'}`;
+          ? `${info.label} ${formatUnitValue(value.median, info.unit)}${fixedPhaseOf(p.metric as BandMetricKey) ? '' : ` ${FOCUS_PHASE_LABELS[p.phase as FocusPhase]}`}`
+          : `${focusLabel(p.metric as BandMetricKey, p.phase as FocusPhase)}: ${value?.reason ?? 'not analysed yet'}`;
       return { point: dto, value, words: `${measured}, target ${target}` };
     });
   }

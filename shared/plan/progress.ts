@@ -18,6 +18,12 @@ export function fixedPhaseOf(metric: BandMetricKey): FocusPhase | null {
   return metric === 'transitionRise' ? 'transition' : 'apex';
 }
 
+/** "Knee separation at the apex"; a per-turn value's label names its phase already ("Apex lean"). */
+export function focusLabel(metric: BandMetricKey, phase: FocusPhase | null): string {
+  const label = BAND_METRICS[metric].label;
+  return phase && !fixedPhaseOf(metric) ? `${label} ${FOCUS_PHASE_LABELS[phase]}` : label;
+}
+
 export interface StoredFrameValues {
   frameIndex: number;
   metrics: Partial<Record<MetricKey, number | null>>;

@@ -195,12 +195,12 @@ function ChildSection({ athleteId }: { athleteId: string }) {
         ) : null}
       </div>
       {athlete.isError ? <QueryError error={athlete.error} what={`the record of ${name}`} /> : null}
-      <section aria-label={`Reviews of ${name}`}>
+      <section>
         <h3 className="mb-2 text-sm font-semibold text-granite-900">Reviews</h3>
         <ReviewList athleteId={athleteId} emptyText="No review shared yet." />
       </section>
       {athlete.data ? (
-        <section aria-label={`Season plan of ${athlete.data.athlete.firstName}`}>
+        <section>
           <h3 className="mb-2 text-sm font-semibold text-granite-900">Season plan</h3>
           <SeasonPlanPanel
             athleteId={athleteId}

@@ -153,13 +153,14 @@ function Workspace() {
           <RenderProbe id="readouts">
             <ReadoutsPanel />
           </RenderProbe>
-          {can(user.role, 'reviews.write') ? <ReviewsPanel /> : null}
           {/* Notes reach athletes and guardians with a published review, not from the workspace. */}
           {can(user.role, 'notes.read') ? (
             <RenderProbe id="notes">
               <NotesPanel />
             </RenderProbe>
           ) : null}
+          {/* Chosen notes reach the athlete through a review; below the notes, so they stay in view. */}
+          {can(user.role, 'reviews.write') ? <ReviewsPanel /> : null}
           <Notice tone="info" title="2D estimates, not medical advice">
             Angles come from one camera and depend on where it stood and how sure the pose model is of each
             joint. They are a coaching aid, not a medical or injury assessment: pain or injury goes to a

@@ -1,9 +1,8 @@
 import { useEffect, useRef, useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { Eye, Send, Undo2 } from 'lucide-react';
-import { FOCUS_PHASE_LABELS } from '@shared/plan';
+import { focusLabel } from '@shared/plan';
 import type { ReviewDto, ReviewOverlays, UpdateReviewInput } from '@shared/schemas/review.schema';
-import { BAND_METRICS } from '@shared/tolerance';
 import { Badge } from '@/components/ui/badge';
 import { Button, ButtonLink } from '@/components/ui/button';
 import { FormError, TextAreaField, TextField } from '@/components/ui/field';
@@ -233,11 +232,7 @@ function ReviewEditor({ review }: { review: ReviewDto }) {
                     <span>
                       {point.title}
                       {point.metric ? (
-                        <span className="text-granite-600">
-                          {' '}
-                          · {BAND_METRICS[point.metric].label}{' '}
-                          {point.phase ? FOCUS_PHASE_LABELS[point.phase] : ''}
-                        </span>
+                        <span className="text-granite-600"> · {focusLabel(point.metric, point.phase)}</span>
                       ) : null}
                     </span>
                   </label>

@@ -10,7 +10,7 @@ import {
   XAxis,
   YAxis,
 } from 'recharts';
-import { FOCUS_PHASE_LABELS } from '@shared/plan';
+import { focusLabel } from '@shared/plan';
 import type { FocusPointDto, ProgressPoint } from '@shared/schemas/plan.schema';
 import { BAND_METRICS, formatUnitValue, type BandMetricKey } from '@shared/tolerance';
 import { paths } from '@/config/paths';
@@ -70,8 +70,8 @@ export function ProgressChart({ point, values }: { point: FocusPointDto; values:
   return (
     <figure className="space-y-2">
       <figcaption className="text-xs text-granite-600">
-        {info.label} {point.phase ? FOCUS_PHASE_LABELS[point.phase] : ''}: median over each clip&apos;s turns,
-        whiskers from its lowest to its highest turn. The baseline is the larger orange point.
+        {focusLabel(point.metric as BandMetricKey, point.phase)}: median over each clip&apos;s turns, whiskers
+        from its lowest to its highest turn. The baseline is the larger orange point.
       </figcaption>
       {rows.length > 0 ? (
         <div className="h-48 w-full">

@@ -1,6 +1,6 @@
 import { useState, type DragEvent } from 'react';
 import { ArrowDown, ArrowUp, Columns2, Pencil, Plus, Trash2 } from 'lucide-react';
-import { FOCUS_PHASE_LABELS, describeTarget } from '@shared/plan';
+import { describeTarget, focusLabel } from '@shared/plan';
 import {
   FOCUS_STATUS_LABELS,
   type FocusPointDto,
@@ -45,8 +45,7 @@ const STATUS_TONES: Record<FocusStatus, 'neutral' | 'info' | 'warn' | 'good'> = 
 function measuredBy(point: FocusPointDto): string | null {
   if (!point.metric) return null;
   const info = BAND_METRICS[point.metric];
-  const phase = point.phase ? ` ${FOCUS_PHASE_LABELS[point.phase]}` : '';
-  return `${info.label}${phase}, target ${describeTarget({ min: point.targetMin, max: point.targetMax, direction: point.direction }, info)}`;
+  return `${focusLabel(point.metric, point.phase)}, target ${describeTarget({ min: point.targetMin, max: point.targetMax, direction: point.direction }, info)}`;
 }
 
 /** The clip pair Compare opens by default: the baseline and the latest other clip of the season. */
