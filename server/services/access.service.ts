@@ -69,6 +69,16 @@ export class AccessService {
     }
   }
 
+  /**
+   * Clips an athlete or guardian may open: those of a published review of their athlete (and the
+   * baseline it is shown beside). Null for staff, whose reach is by athlete alone.
+   */
+  async readableClipIds(principal: Principal): Promise<Set<string> | null> {
+    if (principal.role !== 'athlete' && principal.role !== 'guardian') return null;
+    const athleteIds = (await this.visibleAthleteIds(principal)) ?? [];
+    return new Set(await this.uow.repos.reviews.publishedClipIds(athleteIds));
+  }
+
   canSeeAthlete(principal: Principal, athlete: Athlete): boolean {
     if (athlete.clubId !== principal.clubId) return false;
     if (CLUB_WIDE_READERS.includes(principal.role)) return true;

@@ -61,12 +61,15 @@ export class ClipService {
     query: { athleteId?: string; sessionId?: string },
   ): Promise<ClipListResponse> {
     const visible = await this.access.visibleAthleteIds(principal);
-    const clips = await this.uow.repos.clips.list({
+    const listed = await this.uow.repos.clips.list({
       clubId: principal.clubId,
       visibleAthleteIds: visible,
       athleteId: query.athleteId,
       sessionId: query.sessionId,
     });
+    // Athletes and guardians reach clips through published reviews only.
+    const readable = await this.access.readableClipIds(principal);
+    const clips = readable ? listed.filter((c) => readable.has(c.id)) : listed;
     return { clips: await this.toDtos(principal, clips, visible) };
   }
 
@@ -79,6 +82,8 @@ export class ClipService {
       const tagged = (await repo.athleteIdsByClip([clip.id])).get(clip.id) ?? [];
       if (!tagged.some((id) => visible.includes(id))) throw notFound('Clip');
     }
+    const readable = await this.access.readableClipIds(principal);
+    if (readable && !readable.has(clip.id)) throw notFound('Clip');
     return clip;
   }
 

@@ -287,11 +287,14 @@ export class ExportService {
       to: query.to,
       view: query.view,
     });
-    if (query.clipId && clips.length === 0) {
+    // Athletes and guardians export what reviews have shared with them.
+    const readable = await this.access.readableClipIds(principal);
+    const shown = readable ? clips.filter((c) => readable.has(c.id)) : clips;
+    if (query.clipId && shown.length === 0) {
       // Another club's clip, one the caller may not see, and a clip outside the other filters look alike.
       throw notFound('Clip');
     }
-    return clips;
+    return shown;
   }
 
   /** The first tagged athlete of each clip that the caller may see (teammates stay hidden). */

@@ -286,7 +286,14 @@ export class SeasonPlanService {
   ): Promise<SeasonClip[]> {
     const repos = this.uow.repos;
     const visible = await this.access.visibleAthleteIds(principal);
-    const clips = await repos.clips.list({ clubId: principal.clubId, visibleAthleteIds: visible, athleteId });
+    const listed = await repos.clips.list({
+      clubId: principal.clubId,
+      visibleAthleteIds: visible,
+      athleteId,
+    });
+    // Athletes and guardians see the clips reviews have shared with them.
+    const readable = await this.access.readableClipIds(principal);
+    const clips = readable ? listed.filter((c) => readable.has(c.id)) : listed;
     const sessions = new Map(
       (await repos.sessions.findByIds(clips.map((c) => c.sessionId))).map((s) => [s.id, s]),
     );

@@ -18,6 +18,8 @@ interface Ids {
   s1: string; // holds clips of Elsie and Signe
   s2: string; // holds a clip of Kit only
   clipElsie: string;
+  /** Elsie's clip that no published review shares: athletes and guardians cannot open it. */
+  clipElsieUnshared: string;
   clipKit: string;
   clipSigne: string;
   /** A note on Elsie's clip by the head coach, and one by the coach. */
@@ -237,6 +239,25 @@ const ROWS: Row[] = [
     path: (i) => `/api/clips/${i.clipElsie}/media`,
     range: true,
     expect: all(206),
+  },
+  {
+    route: 'GET /api/clips/:id',
+    target: 'own clip, not shared by a published review',
+    path: (i) => `/api/clips/${i.clipElsieUnshared}`,
+    expect: { head: 200, coach: 200, analyst: 200, athlete: 404, guardian: 404 },
+  },
+  {
+    route: 'GET /api/clips/:id/media',
+    target: 'own clip, not shared by a published review',
+    path: (i) => `/api/clips/${i.clipElsieUnshared}/media`,
+    range: true,
+    expect: { head: 206, coach: 206, analyst: 206, athlete: 404, guardian: 404 },
+  },
+  {
+    route: 'GET /api/clips/:id/frames',
+    target: 'own clip, not shared by a published review',
+    path: (i) => `/api/clips/${i.clipElsieUnshared}/frames`,
+    expect: { head: 200, coach: 200, analyst: 200, athlete: 404, guardian: 404 },
   },
   {
     route: 'GET /api/clips/:id/media',
@@ -743,6 +764,7 @@ beforeAll(async () => {
   };
   const clips = {
     clipElsie: await seedClip(s1, base.elsie),
+    clipElsieUnshared: await seedClip(s1, base.elsie),
     clipKit: await seedClip(s2, base.kit),
     clipSigne: await seedClip(s1, base.signe),
   };

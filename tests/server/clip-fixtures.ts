@@ -118,3 +118,23 @@ export async function settled(server: TestServer, clipId: string): Promise<ClipD
   if (res.status !== 200) throw new Error(`clip: ${res.status} ${JSON.stringify(res.body)}`);
   return res.body.clip as ClipDto;
 }
+
+/**
+ * Publishes a review of a clip for its athlete: athletes and guardians open clips only through
+ * published reviews, so a test that reads a clip as them shares it first, as a coach would.
+ */
+export async function shareWithAthlete(
+  server: TestServer,
+  clipId: string,
+  athleteId: string,
+): Promise<string> {
+  const auth = await server.bearer('head');
+  const created = await server.http.post('/api/reviews').set(auth).send({ clipId, athleteId });
+  if (created.status !== 201) throw new Error(`review: ${created.status} ${JSON.stringify(created.body)}`);
+  const id = created.body.review.id as string;
+  await server.http.patch(`/api/reviews/${id}`).set(auth).send({ summary: 'Shared for the test.' });
+  const published = await server.http.post(`/api/reviews/${id}/publish`).set(auth);
+  if (published.status !== 200)
+    throw new Error(`publish: ${published.status} ${JSON.stringify(published.body)}`);
+  return id;
+}

@@ -5,6 +5,7 @@ import type { Test } from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { AuditRepository } from '@server/repositories/audit.repository';
 import { createTestServer, type TestServer } from '../helpers/server-harness';
+import { shareWithAthlete } from './clip-fixtures';
 import {
   rotatedVideoFixture,
   videoFixture,
@@ -131,6 +132,10 @@ describe('upload round trip', () => {
   });
 
   it('also accepts a bearer token, and refuses a media token made for another clip', async () => {
+    // The athlete opens her clip once a review shares it; before that it is not hers to open.
+    const before = await server.http.get(`/api/clips/${clipId}/media`).set(await server.bearer('athlete'));
+    expect(before.status).toBe(404);
+    await shareWithAthlete(server, clipId, elsie);
     const viaBearer = await server.http
       .get(`/api/clips/${clipId}/media`)
       .set(await server.bearer('athlete'))

@@ -11,7 +11,7 @@ import type { ClipFramesResponse } from '@shared/schemas/frames.schema';
 import { copyClip, copyRow } from '../helpers/copy-rows';
 import { createTestServer, type DemoRole, type TestServer } from '../helpers/server-harness';
 import { clip as syntheticClip } from '../shared/series/synthetic-clip';
-import { removeRenderedVideos, renderVideo, settled, uploadClip } from './clip-fixtures';
+import { removeRenderedVideos, renderVideo, settled, shareWithAthlete, uploadClip } from './clip-fixtures';
 
 // CSV exports checked by parsing them back with papaparse (a general-purpose CSV parser) and comparing
 // every value with what the API stores.
@@ -262,6 +262,9 @@ describe('who exports what', () => {
     expect(await clipIds('analyst')).toEqual([elsieClip.id, signeClip.id].sort());
     expect(await clipIds('head')).toEqual([elsieClip.id, signeClip.id].sort());
     expect(await clipIds('coach')).toEqual([elsieClip.id]);
+    // Athletes and guardians export what a published review shared with them: nothing, then her clip.
+    expect(await clipIds('athlete')).toEqual([]);
+    await shareWithAthlete(server, elsieClip.id, elsie);
     expect(await clipIds('athlete')).toEqual([elsieClip.id]);
     expect(await clipIds('guardian')).toEqual([elsieClip.id]);
     const own = await download('/api/exports/frames.csv?metrics=shoulderTilt', 'athlete');

@@ -6,7 +6,7 @@ import type { ClipFlagDto as FlagDto } from '@shared/schemas/flag.schema';
 import type { ClipFramesResponse } from '@shared/schemas/frames.schema';
 import { createTestServer, type TestServer } from '../helpers/server-harness';
 import { clip as syntheticClip } from '../shared/series/synthetic-clip';
-import { removeRenderedVideos, renderVideo, settled, uploadClip } from './clip-fixtures';
+import { removeRenderedVideos, renderVideo, settled, shareWithAthlete, uploadClip } from './clip-fixtures';
 
 // 8 s at 25 fps: 200 frames, long enough for several turns of the synthetic skier below.
 const SECONDS = 8;
@@ -506,6 +506,7 @@ describe('whole clip: series, turns and transition flags', () => {
   });
 
   it('the analysts and athletes may read but not write', async () => {
+    await shareWithAthlete(server, second.id, elsie);
     const athlete = await server.http
       .get(`/api/clips/${second.id}/frames?model=thunder`)
       .set(await server.bearer('athlete'));

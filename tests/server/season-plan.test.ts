@@ -3,7 +3,7 @@ import type { ClipDto } from '@shared/schemas/clip.schema';
 import type { FocusPointDto, SeasonPlanResponse } from '@shared/schemas/plan.schema';
 import { createTestServer, type DemoRole, type TestServer } from '../helpers/server-harness';
 import { clip as syntheticClip } from '../shared/series/synthetic-clip';
-import { removeRenderedVideos, renderVideo, settled, uploadClip } from './clip-fixtures';
+import { removeRenderedVideos, renderVideo, settled, shareWithAthlete, uploadClip } from './clip-fixtures';
 
 // Seasons, season plans and the progress of each measured focus point, through the real API on SQLite.
 // The progress values are checked against medians this test computes itself from the stored rows
@@ -194,11 +194,16 @@ describe('season plan', () => {
       .set(await as('head'))
       .send({ seasonId: season, clipId: spring.id });
     expect(again.status).toBe(200);
-    const p = await plan('athlete');
+    const p = await plan('coach');
     expect(p.baselineClipId).toBe(spring.id);
-    expect(p.canEdit).toBe(false);
     expect(await server.count('season_baseline')).toBe(1);
     expect(p.progress[0].points.filter((x) => x.baseline).map((x) => x.clipId)).toEqual([spring.id]);
+    // The athlete reads her plan, and its chart holds only the clips a review has shared with her.
+    const own = await plan('athlete');
+    expect(own.canEdit).toBe(false);
+    expect(own.clips).toEqual([]);
+    await shareWithAthlete(server, spring.id, elsie);
+    expect((await plan('athlete')).clips.map((c) => c.id)).toEqual([spring.id]);
   });
 
   it('reorders the whole plan, by the order sent', async () => {
@@ -232,6 +237,7 @@ describe('season plan', () => {
   });
 
   it('keeps a side-by-side still with the clip pair and returns its bytes', async () => {
+    await shareWithAthlete(server, autumn.id, elsie);
     const saved = await server.http
       .post('/api/compare-stills')
       .set(await as('coach'))
