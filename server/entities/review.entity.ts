@@ -23,6 +23,8 @@ export interface Review {
   overlays: ReviewOverlays;
   /** The baseline clip the athlete can play beside this one, in step by turn; null for none. */
   compareClipId: string | null;
+  /** Show the whole-clip curves on the athlete's page (off unless the coach chooses them). */
+  showCurves: boolean;
   publishedAt: Date | null;
   withdrawnAt: Date | null;
   /** How many times it has been published (a corrected review is published again). */
@@ -45,6 +47,7 @@ export const ReviewEntity = new EntitySchema<Review>({
     status: { type: 'varchar', length: 10, default: 'draft' },
     overlays: { type: 'simple-json' },
     compareClipId: nullableUuidColumn,
+    showCurves: { type: 'boolean', default: false },
     publishedAt: nullableTimestampColumn,
     withdrawnAt: nullableTimestampColumn,
     publishCount: { type: 'integer', default: 0 },

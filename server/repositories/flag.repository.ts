@@ -27,6 +27,8 @@ export interface FlagScope {
   clubId: string;
   /** Null: every athlete of the club. */
   athleteIds: string[] | null;
+  /** Only flags of these clips (what reviews have shared with an athlete or guardian). */
+  clipIds?: string[];
 }
 
 export class FlagRepository {
@@ -100,6 +102,7 @@ export class FlagRepository {
    */
   async search(scope: FlagScope, query: FlagQuery): Promise<{ rows: Flag[]; total: number }> {
     if (scope.athleteIds !== null && scope.athleteIds.length === 0) return { rows: [], total: 0 };
+    if (scope.clipIds && scope.clipIds.length === 0) return { rows: [], total: 0 };
     const qb = this.manager
       .createQueryBuilder(FlagEntity, 'f')
       .innerJoin('Clip', 'c', 'c.id = f.clipId')
@@ -107,6 +110,7 @@ export class FlagRepository {
       .where('c.clubId = :clubId', { clubId: scope.clubId })
       .andWhere('f.model = c.defaultModel');
     if (scope.athleteIds !== null) qb.andWhere('f.athleteId IN (:...scoped)', { scoped: scope.athleteIds });
+    if (scope.clipIds) qb.andWhere('f.clipId IN (:...clipScope)', { clipScope: scope.clipIds });
     if (query.athleteId) qb.andWhere('f.athleteId = :athleteId', { athleteId: query.athleteId });
     if (query.clipId) qb.andWhere('f.clipId = :clipId', { clipId: query.clipId });
     if (query.ageGroupId) qb.andWhere('f.ageGroupId = :ageGroupId', { ageGroupId: query.ageGroupId });

@@ -81,6 +81,7 @@ export async function seedDemoReviews(dataSource: DataSource, clubId: string, cl
       status: 'published' as const,
       overlays: { ...DEFAULT_REVIEW_OVERLAYS },
       compareClipId: autumn.id,
+      showCurves: false,
       publishedAt,
       withdrawnAt: null,
       publishCount: 1,

@@ -85,6 +85,7 @@ export class ReviewService {
       status: 'draft',
       overlays: { ...DEFAULT_REVIEW_OVERLAYS },
       compareClipId: null,
+      showCurves: false,
       publishedAt: null,
       withdrawnAt: null,
       publishCount: 0,
@@ -141,6 +142,7 @@ export class ReviewService {
     if (input.summary !== undefined) patch.summary = input.summary;
     if (input.overlays !== undefined) patch.overlays = input.overlays;
     if (input.compareClipId !== undefined) patch.compareClipId = input.compareClipId;
+    if (input.showCurves !== undefined) patch.showCurves = input.showCurves;
     await uow.transaction(async (manager) => {
       const repos = uow.of(manager);
       await repos.reviews.update(review.id, patch);
@@ -457,6 +459,7 @@ export class ReviewService {
         focusPointIds: of('focus_point'),
         stillIds: of('still'),
         compareClipId: r.compareClipId,
+        showCurves: r.showCurves,
         withdrawnAt: r.withdrawnAt?.toISOString() ?? null,
         createdAt: r.createdAt.toISOString(),
       };

@@ -41,6 +41,7 @@ export const updateReviewSchema = z
     stillIds: z.array(id('still')).max(10).optional(),
     compareClipId: id('clip').nullable().optional(),
     overlays: reviewOverlaysSchema.optional(),
+    showCurves: z.boolean().optional(),
   })
   .strict()
   .refine((v) => Object.values(v).some((x) => x !== undefined), 'Change at least one field');
@@ -72,6 +73,7 @@ export interface ReviewDto extends ReviewSummaryDto {
   focusPointIds: string[];
   stillIds: string[];
   compareClipId: string | null;
+  showCurves: boolean;
   withdrawnAt: string | null;
   createdAt: string;
 }

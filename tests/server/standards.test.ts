@@ -8,7 +8,7 @@ import type {
 } from '@shared/schemas/tolerance.schema';
 import { createTestServer, type DemoRole, type TestServer } from '../helpers/server-harness';
 import { clip as syntheticClip } from '../shared/series/synthetic-clip';
-import { removeRenderedVideos, renderVideo, settled, uploadClip } from './clip-fixtures';
+import { removeRenderedVideos, renderVideo, settled, shareWithAthlete, uploadClip } from './clip-fixtures';
 
 // Tolerance bands coaches set, the background re-check a change starts, and flags as coaching points.
 
@@ -19,6 +19,7 @@ let server: TestServer;
 let u14: string;
 let u16: string;
 let clip: ClipDto;
+let sharing: string;
 
 // The synthetic front-view skier (tests/shared/series/synthetic-clip.ts): ±25° of lean with a 1.6 s
 // period, so a turn every 800 ms (10 turns in 8 s), with the shoulders tilted 6° the whole time:
@@ -72,6 +73,8 @@ beforeAll(async () => {
     .set(await as('coach'))
     .send({ model: 'lightning', frames });
   expect(res.status, JSON.stringify(res.body).slice(0, 300)).toBe(200);
+  // Elsie and her guardian read the clip (and its flags) through a published review.
+  sharing = await shareWithAthlete(server, clip.id, elsie);
 }, 120_000);
 afterAll(async () => {
   await server.close();
@@ -196,7 +199,10 @@ describe('GET /api/flags', () => {
     expect(await filtered(`ageGroupId=${u16}`)).toBe(0);
     expect(await filtered(`ageGroupId=${u14}&status=unreviewed`)).toBe(29);
     expect(await filtered('from=2100-01-01')).toBe(0);
-    // Elsie herself and her guardian see her flags.
+    // Elsie herself and her guardian see her flags, of clips a published review shares with them.
+    await server.http.post(`/api/reviews/${sharing}/unpublish`).set(await as('coach'));
+    expect(await filtered('pageSize=100', 'athlete')).toBe(0);
+    await server.http.post(`/api/reviews/${sharing}/publish`).set(await as('coach'));
     expect(await filtered('pageSize=100', 'athlete')).toBe(30);
     expect(await filtered('pageSize=100', 'guardian')).toBe(30);
   });

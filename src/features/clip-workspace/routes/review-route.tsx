@@ -14,6 +14,7 @@ import { cn, formatDay } from '@/lib/format';
 import { compareStillImage } from '../api/compare-api';
 import { clipWorkspaceKeys } from '../api/keys';
 import { useReviewView } from '../api/review-api';
+import { CurvesPanel } from '../components/curves';
 import { noteFrame } from '../components/notes/note-frame';
 import { ClipStageProvider, StageView } from '../components/stage/clip-stage';
 import { useStage, useStageClock } from '../components/stage/stage-context';
@@ -87,6 +88,8 @@ export function ReviewRoute() {
           overlays={review.overlays}
         >
           <ReviewPlayer data={view.data} />
+          {/* Curves only when the coach chose them for this review. */}
+          {review.showCurves ? <CurvesPanel /> : null}
         </ClipStageProvider>
       ) : (
         <Notice tone="info" title="The clip is being prepared">

@@ -257,6 +257,14 @@ function ReviewEditor({ review }: { review: ReviewDto }) {
                   {OVERLAY_LABELS[key]}
                 </label>
               ))}
+              <label className="flex items-center gap-2">
+                <input
+                  type="checkbox"
+                  checked={review.showCurves}
+                  onChange={() => change({ showCurves: !review.showCurves })}
+                />
+                Curves of the whole clip
+              </label>
             </fieldset>
           </Card>
           <Card title="Beside the baseline">
