@@ -102,6 +102,32 @@ describe('forgotten password', () => {
     expect(await screen.findByText('Nothing to review')).toBeTruthy();
   });
 
+  it('a first password from a shared review’s e-mail opens that review', async () => {
+    const guardian = userWith('guardian', { email: 'kin@test.example', name: 'Kin Guardian' });
+    api.use(
+      signedOut,
+      http.get(`${ORIGIN}/api/auth/password-reset/${TOKEN}`, () =>
+        HttpResponse.json({ email: guardian.email }),
+      ),
+      http.post(`${ORIGIN}/api/auth/password-reset/${TOKEN}`, () =>
+        HttpResponse.json({ accessToken: 'fresh', user: guardian }),
+      ),
+      http.get(`${ORIGIN}/api/reviews/r-1/view`, () =>
+        HttpResponse.json({ error: { code: 'not_found', message: 'Review not found' } }, { status: 404 }),
+      ),
+      http.get(`${ORIGIN}/api/me`, () =>
+        HttpResponse.json({ user: guardian, club: { id: guardian.clubId, name: 'Test Club' } }),
+      ),
+    );
+    const user = userEvent.setup();
+    const { router } = renderApp(`/reset-password/${TOKEN}?next=%2Freviews%2Fr-1`);
+    await screen.findByLabelText('New password');
+    await user.type(screen.getByLabelText('New password'), 'harbor kite seven maples');
+    await user.click(screen.getByRole('button', { name: 'Set the new password' }));
+    await screen.findByRole('heading', { name: 'Review not found' });
+    expect(router.state.location.pathname).toBe('/reviews/r-1');
+  });
+
   it('says plainly when a link was used already, with a way to ask again', async () => {
     api.use(
       signedOut,

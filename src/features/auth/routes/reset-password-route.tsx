@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { Link, Navigate, useParams } from 'react-router-dom';
+import { Link, Navigate, useParams, useSearchParams } from 'react-router-dom';
 import { PageSpinner } from '@/components/ui/spinner';
 import { paths } from '@/config/paths';
 import { ApiError } from '@/lib/api-client';
@@ -16,8 +16,12 @@ export function ResetPasswordRoute() {
   const reset = usePasswordReset(token);
   const [saving, setSaving] = useState(false);
 
+  // A link from a shared review carries where to go once the password is set (a path of this app only).
+  const [params] = useSearchParams();
+  const next = params.get('next');
+  const inApp = next && next.startsWith('/') && !next.startsWith('//') ? next : null;
   if (state.status === 'signed-in' && saving)
-    return <Navigate to={landingPathFor(state.user.role)} replace />;
+    return <Navigate to={inApp ?? landingPathFor(state.user.role)} replace />;
 
   return (
     <AuthLayout title="Choose a new password">
