@@ -1,5 +1,6 @@
 import { pipeline } from 'node:stream/promises';
 import { Router, type Request, type Response } from 'express';
+import { z } from 'zod';
 import { clipListQuerySchema } from '@shared/schemas/clip.schema';
 import { HttpError } from '../errors';
 import { principalOf } from '../middleware/auth.middleware';
@@ -91,6 +92,17 @@ export function clipRoutes(ctx: RouteContext): Router {
   router.get('/api/clips/:id', guard.authenticate, guard.authorize('clip:read'), async (req, res) => {
     res.json(await ctx.clips.get(principalOf(req), req.params.id as string));
   });
+
+  router.delete(
+    '/api/clips/:id',
+    guard.authenticate,
+    guard.authorize('clip:erase'),
+    validate({ params: z.object({ id: z.string().uuid('Not a clip id') }) }),
+    async (req, res) => {
+      await ctx.clipErase.erase(principalOf(req), req.params.id as string);
+      res.status(204).end();
+    },
+  );
 
   router.get(
     '/api/clips/:id/media',

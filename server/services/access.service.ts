@@ -19,6 +19,7 @@ const FORBIDDEN_MESSAGES: Record<Permission, string> = {
   'clip:read': 'Your role cannot view clips',
   'clip:upload': 'Only coaches and the head coach can upload clips',
   'clip:analyse': 'Only coaches and the head coach can change a clip’s analysis',
+  'clip:erase': 'Only the head coach, or the coach who uploaded it, can delete a clip',
   'note:read': 'Notes are shared with athletes and guardians only when a review is published',
   'note:write': 'Only coaches and the head coach can write notes',
   'tolerance:read': 'Your role cannot view tolerance bands',

@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import type { EntityManager } from 'typeorm';
 import { alignToLine } from '@shared/geometry';
-import type { PoseModelName } from '@shared/keypoints';
+import { POSE_MODELS, type PoseModelName } from '@shared/keypoints';
 import type {
   ClipFramesResponse,
   ClipSeriesDto,
@@ -472,6 +472,11 @@ export class FrameStore {
       : null;
     this.seriesCache.remember(clip.id, model, SeriesCache.stampOf(clip, frames, ctx), series);
     return series;
+  }
+
+  /** Drops every cached series of a clip (an erased clip). */
+  forgetClip(clipId: string): void {
+    for (const model of POSE_MODELS) this.seriesCache.forget(clipId, model);
   }
 
   private forget(clipId: string, model: PoseModelName): void {

@@ -22,6 +22,8 @@ export const PERMISSIONS = {
   'clip:read': ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'],
   'clip:upload': ['head_coach', 'coach'],
   'clip:analyse': ['head_coach', 'coach'],
+  // The head coach erases any clip; a coach the clips they uploaded (narrowed in the service).
+  'clip:erase': ['head_coach', 'coach'],
   'note:read': ['head_coach', 'coach', 'analyst'],
   'note:write': ['head_coach', 'coach'],
   'tolerance:read': ['head_coach', 'coach', 'athlete', 'guardian', 'analyst'],

@@ -20,7 +20,8 @@ export type Capability =
   | 'flags.review'
   | 'seasons.create'
   | 'compare.keepStill'
-  | 'reviews.write';
+  | 'reviews.write'
+  | 'clips.erase';
 
 // Each control the client hides maps onto a row of the one role table the server enforces.
 const CAPABILITY_PERMISSION: Record<Capability, Permission> = {
@@ -40,6 +41,7 @@ const CAPABILITY_PERMISSION: Record<Capability, Permission> = {
   'seasons.create': 'season:write',
   'compare.keepStill': 'compare:write',
   'reviews.write': 'review:write',
+  'clips.erase': 'clip:erase',
 };
 
 export const ROLE_LABELS: Record<Role, string> = {

@@ -177,4 +177,32 @@ describe('a review read on a phone', () => {
       await teammate.context().close();
     },
   );
+
+  it(
+    'the head coach deletes the clip on request; the review goes with it',
+    { timeout: 120_000 },
+    async () => {
+      const reviewPath = new URL(reviewLink).pathname;
+      const page = await (await browser.newContext({ viewport: { width: 1280, height: 900 } })).newPage();
+      await page.goto(`${app.url}/login`);
+      await signIn(page, 'head@larchwood.example');
+      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await page.goto(`${app.url}${reviewPath}`);
+      await page.getByText('Knees apart at the apex, Elsie.').waitFor();
+      await page.goto(`${app.url}/athletes`);
+      await page.getByRole('link', { name: 'Elsie Marrow', exact: true }).click();
+      await page.getByRole('link', { name: 'phantom-spring-turns.mp4', exact: true }).first().click();
+      await page.getByRole('button', { name: 'Delete clip' }).click();
+      await page.getByRole('dialog').getByRole('button', { name: 'Delete the clip' }).click();
+      await page.waitForURL(/\/sessions\//);
+      await page.getByText('phantom-spring-turns.mp4 was deleted').waitFor();
+      await page.context().close();
+
+      const athlete = await (await browser.newContext(PHONE)).newPage();
+      await athlete.goto(`${app.url}${reviewPath}`);
+      await signIn(athlete, 'athlete@larchwood.example');
+      await athlete.getByRole('heading', { name: 'Review not found' }).waitFor();
+      await athlete.context().close();
+    },
+  );
 });

@@ -20,6 +20,10 @@ interface Ids {
   clipElsie: string;
   /** Elsie's clip that no published review shares: athletes and guardians cannot open it. */
   clipElsieUnshared: string;
+  /** Clips to erase: one the head coach uploaded, two the coach did (one for the coach, one for the head coach). */
+  eraseByHead: string;
+  eraseByCoach: string;
+  eraseByCoachForHead: string;
   clipKit: string;
   clipSigne: string;
   /** A note on Elsie's clip by the head coach, and one by the coach. */
@@ -652,6 +656,19 @@ const ROWS: Row[] = [
     path: (i) => `/api/compare-stills/${i.still}/image`,
     expect: { head: 200, coach: 200, analyst: 200, athlete: 404, guardian: 404 },
   },
+  {
+    route: 'DELETE /api/clips/:id',
+    target: 'uploaded by the head coach',
+    path: (i, role) => `/api/clips/${role === 'head' ? i.eraseByHead : i.clipElsie}`,
+    expect: { head: 204, coach: 403, analyst: 403, athlete: 403, guardian: 403 },
+  },
+  {
+    route: 'DELETE /api/clips/:id',
+    target: 'uploaded by the coach',
+    path: (i, role) =>
+      `/api/clips/${role === 'coach' ? i.eraseByCoach : role === 'head' ? i.eraseByCoachForHead : i.clipElsie}`,
+    expect: staffOnly(204),
+  },
   { route: 'GET /api/reviews', target: 'within reach', path: () => '/api/reviews', expect: all(200) },
   {
     route: 'POST /api/reviews',
@@ -751,10 +768,10 @@ beforeAll(async () => {
     s1,
     s2,
   };
-  const seedClip = async (sessionId: string, athleteId: string) => {
+  const seedClip = async (sessionId: string, athleteId: string, by: DemoRole = 'head') => {
     const res = await server.http
       .post('/api/clips')
-      .set(await server.bearer('head'))
+      .set(await server.bearer(by))
       .field('sessionId', sessionId)
       .field('athleteIds', athleteId)
       .field('view', 'side')
@@ -765,6 +782,9 @@ beforeAll(async () => {
   const clips = {
     clipElsie: await seedClip(s1, base.elsie),
     clipElsieUnshared: await seedClip(s1, base.elsie),
+    eraseByHead: await seedClip(s1, base.elsie),
+    eraseByCoach: await seedClip(s1, base.elsie, 'coach'),
+    eraseByCoachForHead: await seedClip(s1, base.elsie, 'coach'),
     clipKit: await seedClip(s2, base.kit),
     clipSigne: await seedClip(s1, base.signe),
   };

@@ -21,6 +21,7 @@ import { OverlayToolbar } from '../components/overlays/overlay-toolbar';
 import { ScrubBar } from '../components/player/scrub-bar';
 import { ReadoutsPanel } from '../components/readouts/readouts-panel';
 import { ReviewsPanel } from '../components/reviews-panel';
+import { DeleteClipButton } from '../components/delete-clip-button';
 import { TransportBar } from '../components/player/transport-bar';
 import { ClipStageProvider, StageView } from '../components/stage/clip-stage';
 import { useStage, useStageClock } from '../components/stage/stage-context';
@@ -76,15 +77,21 @@ function ClipHeader({ clip }: { clip: ClipDto }) {
     <PageHeader
       title={clip.originalName}
       actions={
-        clip.athletes.length > 0 && clip.status === 'ready' ? (
-          <ButtonLink
-            to={paths.compare.href(null, clip.id)}
-            variant="secondary"
-            icon={<Columns2 aria-hidden="true" className="h-4 w-4" />}
-          >
-            Compare
-          </ButtonLink>
-        ) : undefined
+        <div className="flex flex-wrap gap-2">
+          {clip.athletes.length > 0 && clip.status === 'ready' ? (
+            <ButtonLink
+              to={paths.compare.href(null, clip.id)}
+              variant="secondary"
+              icon={<Columns2 aria-hidden="true" className="h-4 w-4" />}
+            >
+              Compare
+            </ButtonLink>
+          ) : null}
+          {/* Coaches see it; the server lets the head coach and the uploading coach through. */}
+          {can(user.role, 'clips.erase') && clip.status !== 'processing' && clip.status !== 'uploaded' ? (
+            <DeleteClipButton clip={clip} />
+          ) : null}
+        </div>
       }
       back={
         can(user.role, 'sessions.view') ? (

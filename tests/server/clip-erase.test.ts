@@ -1,0 +1,132 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { ClipDto } from '@shared/schemas/clip.schema';
+import { createTestServer, type TestServer } from '../helpers/server-harness';
+import { clip as syntheticClip } from '../shared/series/synthetic-clip';
+import { removeRenderedVideos, renderVideo, settled, shareWithAthlete, uploadClip } from './clip-fixtures';
+
+// Erasing a clip on request: afterwards no row of any table and no object in the store refers to it,
+// and the audit keeps who erased a clip and when, with no name and no id.
+
+const PNG =
+  'data:image/png;base64,iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNkYPhfDwAChwGA60e6kgAAAABJRU5ErkJggg==';
+
+let server: TestServer;
+let elsie: string;
+let sessionId: string;
+let videoPath: string;
+
+/** Every row of every table that mentions the text, as "table: row". */
+async function rowsMentioning(text: string): Promise<string[]> {
+  const ds = server.runtime.dataSource;
+  const tables = (await ds.query(
+    "SELECT name FROM sqlite_master WHERE type = 'table' AND name NOT LIKE 'sqlite_%'",
+  )) as { name: string }[];
+  const found: string[] = [];
+  for (const { name } of tables) {
+    for (const row of (await ds.query(`SELECT * FROM "${name}"`)) as Record<string, unknown>[]) {
+      const json = JSON.stringify(row);
+      if (json.includes(text)) found.push(`${name}: ${json.slice(0, 160)}`);
+    }
+  }
+  return found;
+}
+
+/** A clip of Elsie with everything a clip gathers: frames, turns, flags, a note, a review, a still. */
+async function fullClip(role: 'coach' | 'head' = 'coach'): Promise<ClipDto> {
+  const clip = await settled(
+    server,
+    (await uploadClip(server, videoPath, { sessionId, athleteIds: elsie, view: 'front' }, role)).id,
+  );
+  const auth = await server.bearer(role);
+  const frames = syntheticClip(clip.frameCount!, 25, (t) => ({
+    inclinationDeg: 25 * Math.sin((2 * Math.PI * t) / 1600),
+    legExtension: 0.85,
+    shoulderTiltDeg: 12,
+  }));
+  expect(
+    (await server.http.post(`/api/clips/${clip.id}/frames`).set(auth).send({ model: 'lightning', frames }))
+      .status,
+  ).toBe(200);
+  await server.http.get(`/api/clips/${clip.id}/frames?model=lightning`).set(auth); // waits for turns and flags
+  await server.http
+    .post(`/api/clips/${clip.id}/notes`)
+    .set(auth)
+    .send({ timeMs: 200, frameIndex: 5, text: 'Level shoulders' });
+  await shareWithAthlete(server, clip.id, elsie);
+  return clip;
+}
+
+beforeAll(async () => {
+  server = await createTestServer();
+  elsie = await server.athleteId('Elsie');
+  [sessionId] = await server.sessionIds();
+  videoPath = (await renderVideo('h264-mp4', { seconds: 2, fps: 25 })).path;
+}, 180_000);
+afterAll(async () => {
+  await server.close();
+  await removeRenderedVideos();
+});
+
+describe('erasing a clip', () => {
+  it('leaves no row and no object that refers to it; the audit entry holds no name', async () => {
+    const clip = await fullClip();
+    const other = await fullClip();
+    // A side-by-side still of the two, kept under the other clip's folder.
+    const still = await server.http
+      .post('/api/compare-stills')
+      .set(await server.bearer('coach'))
+      .send({ clipAId: other.id, clipBId: clip.id, frameA: 1, frameB: 1, png: PNG });
+    expect(still.status).toBe(201);
+    expect(await server.count('flag')).toBeGreaterThan(0);
+    expect((await rowsMentioning(clip.id)).length).toBeGreaterThan(5);
+    expect((await server.runtime.storage.listKeys()).some((k) => k.includes(clip.id))).toBe(true);
+
+    const res = await server.http.delete(`/api/clips/${clip.id}`).set(await server.bearer('coach'));
+    expect(res.status, JSON.stringify(res.body)).toBe(204);
+
+    expect(await rowsMentioning(clip.id)).toEqual([]);
+    const keys = await server.runtime.storage.listKeys();
+    expect(keys.filter((k) => k.includes(clip.id) || k.includes(still.body.still.id))).toEqual([]);
+    // The other clip keeps its own rows and objects.
+    expect(keys.some((k) => k.includes(other.id))).toBe(true);
+    expect((await server.http.get(`/api/clips/${other.id}`).set(await server.bearer('athlete'))).status).toBe(
+      200,
+    );
+    const [entry] = (await server.runtime.dataSource.query(
+      `SELECT * FROM audit_event WHERE action = 'clip.erase' ORDER BY createdAt DESC LIMIT 1`,
+    )) as Record<string, unknown>[];
+    expect(entry).toMatchObject({ targetType: 'clip', targetId: null, details: null });
+    expect(JSON.stringify(entry)).not.toMatch(/Elsie|Marrow|phantom|\.mp4/);
+    // Readers get 404 at once.
+    expect((await server.http.get(`/api/clips/${clip.id}`).set(await server.bearer('head'))).status).toBe(
+      404,
+    );
+  });
+
+  it('refuses a coach who did not upload it, an athlete, and another club’s clip: nothing removed', async () => {
+    const byHead = await fullClip('head');
+    const before = await rowsMentioning(byHead.id);
+    for (const [role, status] of [
+      ['coach', 403],
+      ['analyst', 403],
+      ['athlete', 403],
+      ['guardian', 403],
+    ] as const) {
+      const res = await server.http.delete(`/api/clips/${byHead.id}`).set(await server.bearer(role));
+      expect(res.status, role).toBe(status);
+      expect(typeof res.body.error.message).toBe('string');
+    }
+    const unknown = await server.http
+      .delete('/api/clips/00000000-0000-4000-8000-000000000000')
+      .set(await server.bearer('head'));
+    expect(unknown.status).toBe(404);
+    expect((await server.http.delete('/api/clips/not-an-id').set(await server.bearer('head'))).status).toBe(
+      400,
+    );
+    expect(await rowsMentioning(byHead.id)).toEqual(before);
+    // The head coach may.
+    expect(
+      (await server.http.delete(`/api/clips/${byHead.id}`).set(await server.bearer('head'))).status,
+    ).toBe(204);
+  });
+});
