@@ -51,7 +51,7 @@ import { flagRoutes } from './routes/flags.routes';
 import { planRoutes } from './routes/plan.routes';
 import { reviewRoutes } from './routes/reviews.routes';
 import { ReviewService } from './services/review.service';
-import { ClipEraseService } from './services/clip-erase.service';
+import { ErasureService } from './services/erasure.service';
 import { SeasonPlanService } from './services/season-plan.service';
 import { CompareStillService } from './services/compare-still.service';
 import type { ObjectStorage } from './storage/object-storage';
@@ -128,7 +128,7 @@ export function createApp(deps: AppDeps): Express {
     club: new ClubService(uow, clock),
     plans: new SeasonPlanService(uow, access, audit, clock, frameStore),
     compareStills,
-    clipErase: new ClipEraseService(uow, clips, deps.storage, frameStore, audit),
+    erasure: new ErasureService(uow, clips, deps.storage, frameStore, audit),
     reviews: new ReviewService({
       uow,
       access,

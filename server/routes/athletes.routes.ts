@@ -1,4 +1,5 @@
 import { Router } from 'express';
+import { z } from 'zod';
 import {
   athleteListQuerySchema,
   createAthleteSchema,
@@ -43,6 +44,16 @@ export function athleteRoutes(ctx: RouteContext): Router {
   router.get('/api/athletes/:id', guard.authenticate, guard.authorize('athlete:read'), async (req, res) => {
     res.json(await ctx.athletes.get(principalOf(req), req.params.id as string));
   });
+
+  router.delete(
+    '/api/athletes/:id',
+    guard.authenticate,
+    guard.authorize('athlete:erase'),
+    validate({ params: z.object({ id: z.string().uuid('Not an athlete id') }) }),
+    async (req, res) => {
+      res.json(await ctx.erasure.eraseAthlete(principalOf(req), req.params.id as string));
+    },
+  );
 
   router.get(
     '/api/athletes/:id/clips',

@@ -99,7 +99,7 @@ export function clipRoutes(ctx: RouteContext): Router {
     guard.authorize('clip:erase'),
     validate({ params: z.object({ id: z.string().uuid('Not a clip id') }) }),
     async (req, res) => {
-      await ctx.clipErase.erase(principalOf(req), req.params.id as string);
+      await ctx.erasure.eraseClip(principalOf(req), req.params.id as string);
       res.status(204).end();
     },
   );

@@ -16,7 +16,7 @@ import type { SessionService } from '../services/session.service';
 import type { SeasonPlanService } from '../services/season-plan.service';
 import type { CompareStillService } from '../services/compare-still.service';
 import type { ReviewService } from '../services/review.service';
-import type { ClipEraseService } from '../services/clip-erase.service';
+import type { ErasureService } from '../services/erasure.service';
 import type { ToleranceBandService } from '../services/tolerance-band.service';
 import type { ObjectStorage } from '../storage/object-storage';
 import type { DataSource } from 'typeorm';
@@ -45,5 +45,5 @@ export interface RouteContext {
   plans: SeasonPlanService;
   compareStills: CompareStillService;
   reviews: ReviewService;
-  clipErase: ClipEraseService;
+  erasure: ErasureService;
 }

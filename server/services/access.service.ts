@@ -38,6 +38,7 @@ const FORBIDDEN_MESSAGES: Record<Permission, string> = {
   'review:write': 'Only coaches and the head coach write and publish reviews',
   'invitation:create': 'Only coaches and the head coach can invite members',
   'club:members': 'Only the head coach can see the member list',
+  'athlete:erase': 'Only the head coach erases an athlete',
   'section:home': 'Your role has no home page of its own',
   'section:athletes': 'Your role cannot browse the athlete list',
   'section:tolerances': 'Athletes and guardians see their target ranges on their own clips',

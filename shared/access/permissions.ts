@@ -46,6 +46,7 @@ export const PERMISSIONS = {
   'review:write': ['head_coach', 'coach'],
   'invitation:create': ['head_coach', 'coach'],
   'club:members': ['head_coach'],
+  'athlete:erase': ['head_coach'],
   // Sections of the app: which pages a role is sent to. The reads behind them are the rows above.
   'section:home': ['head_coach', 'coach', 'athlete', 'guardian'],
   'section:tolerances': ['head_coach', 'coach', 'analyst'],

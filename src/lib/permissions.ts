@@ -21,7 +21,8 @@ export type Capability =
   | 'seasons.create'
   | 'compare.keepStill'
   | 'reviews.write'
-  | 'clips.erase';
+  | 'clips.erase'
+  | 'athletes.erase';
 
 // Each control the client hides maps onto a row of the one role table the server enforces.
 const CAPABILITY_PERMISSION: Record<Capability, Permission> = {
@@ -42,6 +43,7 @@ const CAPABILITY_PERMISSION: Record<Capability, Permission> = {
   'compare.keepStill': 'compare:write',
   'reviews.write': 'review:write',
   'clips.erase': 'clip:erase',
+  'athletes.erase': 'athlete:erase',
 };
 
 export const ROLE_LABELS: Record<Role, string> = {

@@ -24,6 +24,8 @@ interface Ids {
   eraseByHead: string;
   eraseByCoach: string;
   eraseByCoachForHead: string;
+  /** An athlete with no clips, for the head coach to erase. */
+  eraseAthlete: string;
   clipKit: string;
   clipSigne: string;
   /** A note on Elsie's clip by the head coach, and one by the coach. */
@@ -657,6 +659,12 @@ const ROWS: Row[] = [
     expect: { head: 200, coach: 200, analyst: 200, athlete: 404, guardian: 404 },
   },
   {
+    route: 'DELETE /api/athletes/:id',
+    target: 'an athlete of the club',
+    path: (i, role) => `/api/athletes/${role === 'head' ? i.eraseAthlete : i.elsie}`,
+    expect: { head: 200, coach: 403, analyst: 403, athlete: 403, guardian: 403 },
+  },
+  {
     route: 'DELETE /api/clips/:id',
     target: 'uploaded by the head coach',
     path: (i, role) => `/api/clips/${role === 'head' ? i.eraseByHead : i.clipElsie}`,
@@ -872,7 +880,16 @@ beforeAll(async () => {
     toPublish[r] = await review(clips.clipElsie, base.elsie, false);
     toWithdraw[r] = await review(clips.clipElsie, base.elsie, true);
   }
+  const eraseAthlete = (
+    await post('/api/athletes', {
+      firstName: 'Ola',
+      lastName: 'Leaving',
+      birthYear: 2012,
+      ageGroupId: base.u14,
+    })
+  ).athlete.id;
   const reviews = {
+    eraseAthlete,
     reviewElsie: await review(clips.clipElsie, base.elsie, true),
     reviewSigne: await review(clips.clipSigne, base.signe, true),
     reviewDraft: await review(clips.clipElsie, base.elsie, false),

@@ -9,6 +9,7 @@ import { useAthlete } from '@/features/athletes/api/get-athlete';
 import { AthleteProfile } from '@/features/athletes/components/athlete-profile';
 import { ConsentPanel } from '@/features/athletes/components/consent-panel';
 import { GuardianList } from '@/features/athletes/components/guardian-list';
+import { EraseAthleteButton } from '@/features/athletes/components/erase-athlete-button';
 import { useClips } from '@/features/clips/api/get-clips';
 import { ClipList } from '@/features/clips/components/clip-list';
 import { FlagInbox } from '@/features/flags/components/flag-inbox';
@@ -40,11 +41,14 @@ export function AthletePage() {
         title={`${record.firstName} ${record.lastName}`}
         subtitle={`${record.ageGroup.name} · born ${record.birthYear}`}
         actions={
-          canUpload ? (
-            <ButtonLink to={paths.upload.href()} icon={<Upload aria-hidden="true" className="h-4 w-4" />}>
-              Upload clips
-            </ButtonLink>
-          ) : null
+          <div className="flex flex-wrap gap-2">
+            {canUpload ? (
+              <ButtonLink to={paths.upload.href()} icon={<Upload aria-hidden="true" className="h-4 w-4" />}>
+                Upload clips
+              </ButtonLink>
+            ) : null}
+            {can(user.role, 'athletes.erase') ? <EraseAthleteButton athlete={record} /> : null}
+          </div>
         }
       />
       <div className="space-y-6">

@@ -4,8 +4,9 @@ import { createTestServer, type TestServer } from '../helpers/server-harness';
 import { clip as syntheticClip } from '../shared/series/synthetic-clip';
 import { removeRenderedVideos, renderVideo, settled, shareWithAthlete, uploadClip } from './clip-fixtures';
 
-// Erasing a clip on request: afterwards no row of any table and no object in the store refers to it,
-// and the audit keeps who erased a clip and when, with no name and no id.
+// Erasure on request, of a clip and of an athlete: afterwards no row of any table and no object in the
+// store refers to what was erased, and the audit keeps who erased what kind of record and when, with no
+// name and no id.
 
 const PNG =
   'data:image/png;base64,iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNkYPhfDwAChwGA60e6kgAAAABJRU5ErkJggg==';
@@ -128,5 +129,65 @@ describe('erasing a clip', () => {
     expect(
       (await server.http.delete(`/api/clips/${byHead.id}`).set(await server.bearer('head'))).status,
     ).toBe(204);
+  });
+});
+
+describe('erasing an athlete', () => {
+  it('refuses a coach, an analyst and an unknown athlete, removing nothing', async () => {
+    const before = await rowsMentioning(elsie);
+    for (const role of ['coach', 'analyst', 'athlete', 'guardian'] as const) {
+      const res = await server.http.delete(`/api/athletes/${elsie}`).set(await server.bearer(role));
+      expect(res.status, role).toBe(403);
+    }
+    const unknown = await server.http
+      .delete('/api/athletes/00000000-0000-4000-8000-000000000000')
+      .set(await server.bearer('head'));
+    expect(unknown.status).toBe(404);
+    expect(await rowsMentioning(elsie)).toEqual(before);
+  });
+
+  it('leaves no row and no object that refers to her; her sibling and their guardian stay', async () => {
+    const clip = await fullClip();
+    const season = await server.http
+      .post('/api/seasons')
+      .set(await server.bearer('head'))
+      .send({ name: '2026-27', startsOn: '2000-01-01', endsOn: '2099-12-31' });
+    const point = await server.http
+      .post(`/api/athletes/${elsie}/focus-points`)
+      .set(await server.bearer('coach'))
+      .send({ seasonId: season.body.season.id, title: 'Knees apart' });
+    expect(point.status).toBe(201);
+    await server.http
+      .put(`/api/athletes/${elsie}/baseline`)
+      .set(await server.bearer('coach'))
+      .send({ seasonId: season.body.season.id, clipId: clip.id });
+    const [{ userId }] = (await server.runtime.dataSource.query('SELECT userId FROM athlete WHERE id = ?', [
+      elsie,
+    ])) as { userId: string }[];
+    const [{ guardianUserId }] = (await server.runtime.dataSource.query(
+      'SELECT guardianUserId FROM guardian_link WHERE athleteId = ?',
+      [elsie],
+    )) as { guardianUserId: string }[];
+    const finn = await server.athleteId('Finn');
+    expect((await rowsMentioning(elsie)).length).toBeGreaterThan(5);
+    expect((await rowsMentioning(userId)).length).toBeGreaterThan(0);
+
+    const res = await server.http.delete(`/api/athletes/${elsie}`).set(await server.bearer('head'));
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.clips).toBeGreaterThanOrEqual(1);
+
+    expect(await rowsMentioning(elsie)).toEqual([]);
+    expect(await rowsMentioning(userId)).toEqual([]);
+    expect(await rowsMentioning('Elsie')).toEqual([]);
+    expect(await rowsMentioning('athlete@larchwood.example')).toEqual([]);
+    expect((await server.runtime.storage.listKeys()).filter((k) => k.includes(clip.id))).toEqual([]);
+    // Her brother and their guardian (who is also his) stay.
+    expect((await rowsMentioning(finn)).length).toBeGreaterThan(0);
+    expect((await rowsMentioning(guardianUserId)).length).toBeGreaterThan(0);
+    const [entry] = (await server.runtime.dataSource.query(
+      `SELECT * FROM audit_event WHERE action = 'athlete.erase' ORDER BY createdAt DESC LIMIT 1`,
+    )) as Record<string, unknown>[];
+    expect(entry).toMatchObject({ targetType: 'athlete', targetId: null, details: null });
+    expect(JSON.stringify(entry)).not.toMatch(/Elsie|Marrow/);
   });
 });
