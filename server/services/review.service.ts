@@ -7,7 +7,6 @@ import {
   FOCUS_PHASE_LABELS,
   type FocusPhase,
 } from '@shared/plan';
-import type { FocusPointDto } from '@shared/schemas/plan.schema';
 import {
   DEFAULT_REVIEW_OVERLAYS,
   type PublishReviewResponse,
@@ -32,6 +31,7 @@ import type { ClipService } from './clip.service';
 import type { FrameStore } from './frame-store';
 import { toNoteDto } from './note.service';
 import type { PasswordService } from './password.service';
+import { toFocusPointDto } from './season-plan.service';
 import type { Clock, Principal } from './principal';
 
 const STAFF = new Set(['head_coach', 'coach', 'analyst']);
@@ -354,21 +354,7 @@ export class ReviewService {
       turns = (await uow.repos.clipTurns.find(clip.id, model))?.turns ?? [];
     }
     return points.map((p) => {
-      const dto: FocusPointDto = {
-        id: p.id,
-        athleteId: p.athleteId,
-        seasonId: p.seasonId,
-        rank: p.rank,
-        title: p.title,
-        cue: p.cue,
-        metric: p.metric,
-        phase: p.phase,
-        targetMin: p.targetMin,
-        targetMax: p.targetMax,
-        direction: p.direction,
-        status: p.status,
-        updatedAt: p.updatedAt.toISOString(),
-      };
+      const dto = toFocusPointDto(p);
       if (!p.metric || !p.phase) return { point: dto, value: null, words: p.title };
       const info = BAND_METRICS[p.metric as BandMetricKey];
       const value = model

@@ -29,7 +29,7 @@ const toSeasonDto = (s: Season): SeasonDto => ({
   endsOn: s.endsOn,
 });
 
-const toFocusPointDto = (p: FocusPoint): FocusPointDto => ({
+export const toFocusPointDto = (p: FocusPoint): FocusPointDto => ({
   id: p.id,
   athleteId: p.athleteId,
   seasonId: p.seasonId,

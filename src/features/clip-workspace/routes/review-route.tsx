@@ -1,4 +1,4 @@
-import { useCallback, useEffect, useState, type ReactNode } from 'react';
+import { useCallback, useEffect, type ReactNode } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { useQueryClient } from '@tanstack/react-query';
 import { ChevronLeft, ChevronRight, Columns2, Pause, Play } from 'lucide-react';
@@ -11,7 +11,7 @@ import { PageSpinner } from '@/components/ui/spinner';
 import { paths } from '@/config/paths';
 import { ApiError } from '@/lib/api-client';
 import { cn, formatDay } from '@/lib/format';
-import { compareStillImage } from '../api/compare-api';
+import { useStillImageUrl } from '../components/compare/compare-stills';
 import { clipWorkspaceKeys } from '../api/keys';
 import { useReviewView } from '../api/review-api';
 import { CurvesPanel } from '../components/curves';
@@ -222,22 +222,7 @@ function FocusPoints({ data }: { data: ReviewViewResponse }) {
 }
 
 function StillImage({ id, alt }: { id: string; alt: string }) {
-  const [url, setUrl] = useState<string | null>(null);
-  useEffect(() => {
-    let objectUrl: string | null = null;
-    let cancelled = false;
-    void compareStillImage(id)
-      .then((blob) => {
-        if (cancelled) return;
-        objectUrl = URL.createObjectURL(blob);
-        setUrl(objectUrl);
-      })
-      .catch(() => undefined);
-    return () => {
-      cancelled = true;
-      if (objectUrl) URL.revokeObjectURL(objectUrl);
-    };
-  }, [id]);
+  const { url } = useStillImageUrl(id);
   return url ? (
     <img src={url} alt={alt} className="w-full rounded" />
   ) : (

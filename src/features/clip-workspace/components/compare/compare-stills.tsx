@@ -4,13 +4,14 @@ import { Spinner } from '@/components/ui/spinner';
 import { formatDay } from '@/lib/format';
 import { compareStillImage, useCompareStills } from '../../api/compare-api';
 
-function StillImage({ still }: { still: CompareStillDto }) {
+/** A kept still as an object URL (the image needs the sign-in, so an <img src> cannot fetch it). */
+export function useStillImageUrl(id: string): { url: string | null; failed: boolean } {
   const [url, setUrl] = useState<string | null>(null);
   const [failed, setFailed] = useState(false);
   useEffect(() => {
     let objectUrl: string | null = null;
     let cancelled = false;
-    compareStillImage(still.id)
+    compareStillImage(id)
       .then((blob) => {
         if (cancelled) return;
         objectUrl = URL.createObjectURL(blob);
@@ -21,7 +22,12 @@ function StillImage({ still }: { still: CompareStillDto }) {
       cancelled = true;
       if (objectUrl) URL.revokeObjectURL(objectUrl);
     };
-  }, [still.id]);
+  }, [id]);
+  return { url, failed };
+}
+
+function StillImage({ still }: { still: CompareStillDto }) {
+  const { url, failed } = useStillImageUrl(still.id);
   if (failed) return <p className="text-xs text-alarm-600">The image could not be loaded.</p>;
   if (!url) return <Spinner size="sm" label="Loading the still" />;
   return (
