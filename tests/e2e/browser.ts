@@ -1,7 +1,7 @@
 import { existsSync, mkdirSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { chromium, type Browser } from 'playwright-core';
+import { chromium, type Browser, type Page } from 'playwright-core';
 import { startStanceline, type StartedStanceline } from '@server/start';
 
 /** Debian's Chromium; tests never download a browser. */
@@ -61,4 +61,21 @@ export async function startDemoApp(name: string): Promise<DemoApp> {
       rmSync(workDir, { recursive: true, force: true });
     },
   };
+}
+
+/** The demo club's password (server/seed/demo-club.ts); the club and its people are invented. */
+export const DEMO_PASSWORD = 'stanceline-demo';
+
+/** Fills and sends the sign-in form already on the page (after a redirect to it, say). */
+export async function fillSignIn(page: Page, email: string, password = DEMO_PASSWORD): Promise<void> {
+  await page.getByLabel('Email').fill(email);
+  await page.getByLabel('Password').fill(password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+}
+
+/** Opens the sign-in page, signs in, and waits for the app's main navigation. */
+export async function signIn(page: Page, baseUrl: string, email: string): Promise<void> {
+  await page.goto(`${baseUrl}/login`);
+  await fillSignIn(page, email);
+  await page.getByRole('navigation', { name: 'Main' }).waitFor();
 }

@@ -7,7 +7,7 @@ import ffmpeg from '@ffmpeg-installer/ffmpeg';
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startStanceline, type StartedStanceline } from '@server/start';
-import { launchBrowser, screenshotPath } from './browser';
+import { launchBrowser, screenshotPath, signIn as signInAt } from './browser';
 
 const run = promisify(execFile);
 
@@ -56,13 +56,7 @@ async function makeClip(path: string): Promise<void> {
   ]);
 }
 
-async function signIn(page: Page, email: string): Promise<void> {
-  await page.goto(`${app.url}/login`);
-  await page.getByLabel('Email').fill(email);
-  await page.getByLabel('Password').fill(PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.getByRole('navigation', { name: 'Main' }).waitFor();
-}
+const signIn = (page: Page, email: string) => signInAt(page, app.url, email);
 
 async function navNames(page: Page): Promise<string[]> {
   return page.getByRole('navigation', { name: 'Main' }).getByRole('link').allInnerTexts();

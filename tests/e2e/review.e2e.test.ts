@@ -3,13 +3,12 @@
 // opens the e-mailed link on a phone held upright (390 × 844), signs in, plays her run with the tilt
 // gauge drawn on her, taps a note and lands on its frame. Her guardian reads it without edit controls;
 // a teammate who opens the same link gets the not-found page.
-import type { Browser, Page } from 'playwright-core';
+import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { StartedStanceline } from '@server/start';
-import { screenshotPath, startDemoApp, type DemoApp } from './browser';
+import { DEMO_PASSWORD, fillSignIn, screenshotPath, startDemoApp, type DemoApp } from './browser';
 
 // Demo sign-ins from the server's invented demo club (server/seed/demo-club.ts).
-const PASSWORD = 'stanceline-demo';
 const PHONE = { viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true };
 
 let app: StartedStanceline;
@@ -17,11 +16,8 @@ let browser: Browser;
 let demo: DemoApp | undefined;
 let reviewLink = '';
 
-async function signIn(page: Page, email: string, password = PASSWORD): Promise<void> {
-  await page.getByLabel('Email').fill(email);
-  await page.getByLabel('Password').fill(password);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-}
+/** Signs in on the form a link redirected to (the page asked for opens afterwards). */
+const signIn = fillSignIn;
 
 async function api<T>(path: string, init: { token?: string; body?: unknown } = {}): Promise<T> {
   const res = await fetch(`${app.url}${path}`, {
@@ -153,7 +149,7 @@ describe('a review read on a phone', () => {
 
       // Kit, Elsie's U14 teammate, joins as an athlete through an invitation, then tries the link.
       const { accessToken } = await api<{ accessToken: string }>('/api/auth/login', {
-        body: { email: 'head@larchwood.example', password: PASSWORD },
+        body: { email: 'head@larchwood.example', password: DEMO_PASSWORD },
       });
       const { athletes } = await api<{ athletes: { id: string; firstName: string }[] }>('/api/athletes', {
         token: accessToken,

@@ -5,10 +5,9 @@
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { StartedStanceline } from '@server/start';
-import { screenshotPath, startDemoApp, type DemoApp } from './browser';
+import { screenshotPath, signIn as signInAt, startDemoApp, type DemoApp } from './browser';
 
 // Demo sign-ins from the server's invented demo club (server/seed/demo-club.ts).
-const PASSWORD = 'stanceline-demo';
 const COACH = 'coach@larchwood.example';
 const BASELINE = 'phantom-front-turns.mp4';
 const LATER = 'phantom-spring-turns.mp4';
@@ -17,13 +16,7 @@ let app: StartedStanceline;
 let browser: Browser;
 let demo: DemoApp | undefined;
 
-async function signIn(page: Page, email: string): Promise<void> {
-  await page.goto(`${app.url}/login`);
-  await page.getByLabel('Email').fill(email);
-  await page.getByLabel('Password').fill(PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.getByRole('navigation', { name: 'Main' }).waitFor();
-}
+const signIn = (page: Page, email: string) => signInAt(page, app.url, email);
 
 beforeAll(async () => {
   demo = await startDemoApp('season-plan');
