@@ -52,6 +52,10 @@ import { planRoutes } from './routes/plan.routes';
 import { reviewRoutes } from './routes/reviews.routes';
 import { ReviewService } from './services/review.service';
 import { ErasureService } from './services/erasure.service';
+import { ConsentService } from './services/consent.service';
+import { DataExportService } from './services/data-export.service';
+import { PrivacyService } from './services/privacy.service';
+import { privacyRoutes } from './routes/privacy.routes';
 import { SeasonPlanService } from './services/season-plan.service';
 import { CompareStillService } from './services/compare-still.service';
 import type { ObjectStorage } from './storage/object-storage';
@@ -98,6 +102,18 @@ export function createApp(deps: AppDeps): Express {
   const analysis = new ClipAnalysisService(uow, access, clips, frameStore, audit, clock);
   const passwords = new PasswordService(uow, auth, audit, deps.mailer, clock, publicUrlNow);
   const compareStills = new CompareStillService(uow, clips, deps.storage, clock);
+  const athletes = new AthleteService(uow, access, audit, clock);
+  const exports = new ExportService(uow, access, frameStore);
+  const erasure = new ErasureService(uow, clips, deps.storage, frameStore, audit);
+  const privacy = new PrivacyService({
+    uow,
+    erasure,
+    mailer: deps.mailer,
+    audit,
+    clock,
+    logger: deps.logger,
+    publicUrl: publicUrlNow,
+  });
   const ctx: RouteContext = {
     config,
     dataSource,
@@ -106,7 +122,7 @@ export function createApp(deps: AppDeps): Express {
     guard: createAuthMiddleware({ auth, access, tokens }),
     auth,
     passwords,
-    athletes: new AthleteService(uow, access, audit, clock),
+    athletes,
     sessions,
     clips,
     clipImages: new ClipImageService(clips),
@@ -114,7 +130,7 @@ export function createApp(deps: AppDeps): Express {
     notes: new NoteService(uow, clips, analysis, audit, clock),
     toleranceBands,
     flags: new FlagService(uow, access, tokens, clock),
-    exports: new ExportService(uow, access, frameStore),
+    exports,
     invitations: new InvitationService(
       uow,
       access,
@@ -128,7 +144,10 @@ export function createApp(deps: AppDeps): Express {
     club: new ClubService(uow, clock),
     plans: new SeasonPlanService(uow, access, audit, clock, frameStore),
     compareStills,
-    erasure: new ErasureService(uow, clips, deps.storage, frameStore, audit),
+    erasure,
+    privacy,
+    consent: new ConsentService({ uow, access, athletes, audit, clock, privacy, logger: deps.logger }),
+    dataExports: new DataExportService(uow, access, exports, deps.storage, tokens, clock),
     reviews: new ReviewService({
       uow,
       access,
@@ -169,11 +188,19 @@ export function createApp(deps: AppDeps): Express {
   app.use(clubRoutes(ctx));
   app.use(planRoutes(ctx));
   app.use(reviewRoutes(ctx));
+  app.use(privacyRoutes(ctx));
   app.use('/api', apiNotFound);
   // Only the embedded fake has a mailbox, and only an explicit setting shows it.
   if (deps.mailbox && config.devMailbox) app.use(devMailboxRoutes(deps.mailbox));
   app.use(staticRoutes(deps.projectRoot ?? DEFAULT_ROOT));
 
   app.use(createErrorHandler({ maxUploadBytes: config.maxUploadBytes }));
+  // The daily privacy sweep is scheduled by whoever runs the server (start.ts); tests call it directly.
+  app.locals.privacy = privacy;
   return app;
+}
+
+/** The app's privacy service: its daily sweep is scheduled by whoever runs the server. */
+export function privacyOf(app: Express): PrivacyService {
+  return app.locals.privacy as PrivacyService;
 }

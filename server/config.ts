@@ -83,6 +83,11 @@ const envSchema = z.object({
   CLEANUP_INTERVAL: duration.default(3_600_000),
   STARTUP_CLEANUP_GRACE: duration.default(0),
   /**
+   * The privacy sweep (erasure after a withdrawal's grace period, retention after a season, the notice a
+   * week before) runs at start and then this often.
+   */
+  PRIVACY_SWEEP_INTERVAL: duration.default(24 * 3_600_000),
+  /**
    * Pause between the steps (one clip each) of a background job such as re-judging flags after a band
    * changed: 0 runs them back to back, each step already yields to waiting requests.
    */
@@ -121,6 +126,7 @@ export interface Config {
   cleanupGraceMs: number;
   cleanupIntervalMs: number;
   startupCleanupGraceMs: number;
+  privacySweepIntervalMs: number;
   jobStepPauseMs: number;
 }
 
@@ -168,6 +174,7 @@ export function loadConfig(env: Record<string, string | undefined>): Config {
     cleanupGraceMs: e.CLEANUP_GRACE,
     cleanupIntervalMs: e.CLEANUP_INTERVAL,
     startupCleanupGraceMs: e.STARTUP_CLEANUP_GRACE,
+    privacySweepIntervalMs: e.PRIVACY_SWEEP_INTERVAL,
     jobStepPauseMs: e.JOB_STEP_PAUSE,
   };
 }

@@ -16,6 +16,9 @@ export class HttpError extends Error {
 
 export const badRequest = (code: string, message: string, details?: unknown) =>
   new HttpError(400, code, message, details);
+/** A 400 naming the field, as the validation middleware words it, so forms can place it. */
+export const fieldError = (field: string, message: string) =>
+  badRequest('validation_failed', message, { issues: [{ path: [field], message }] });
 export const unauthorized = (code: string, message: string) => new HttpError(401, code, message);
 export const forbidden = (message: string) => new HttpError(403, 'forbidden', message);
 export const notFound = (what: string) => new HttpError(404, 'not_found', `${what} not found`);

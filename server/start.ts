@@ -2,7 +2,7 @@ import type { Server } from 'node:http';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { AddressInfo } from 'node:net';
-import { createApp } from './app';
+import { createApp, privacyOf } from './app';
 import { loadConfig } from './config';
 import { createLogger } from './logger';
 import { startRuntime } from './runtime';
@@ -117,12 +117,19 @@ export async function startStanceline(opts: StartOptions = {}): Promise<StartedS
       clock: opts.clock,
       projectRoot: opts.projectRoot,
     });
+    // The daily privacy sweep: at start (what came due while the server was down), then every interval.
+    const privacy = privacyOf(app);
+    const runPrivacySweep = () =>
+      void privacy.sweep().catch((error: unknown) => logger.warn({ err: error }, 'privacy sweep failed'));
+    const privacySweeper = setInterval(runPrivacySweep, config.privacySweepIntervalMs);
+    privacySweeper.unref();
     server = await new Promise<Server>((resolve, reject) => {
       const s = app.listen(config.port, config.host, () => resolve(s));
       s.once('error', reject);
     });
     // Node's default 5-minute request timeout would cut off long clip uploads on slow rink-side Wi-Fi.
     server.requestTimeout = 0;
+    runPrivacySweep();
     const port = (server.address() as AddressInfo).port;
     const url = `http://localhost:${port}`;
     publicUrl = config.publicUrl ?? url;
@@ -137,6 +144,8 @@ export async function startStanceline(opts: StartOptions = {}): Promise<StartedS
       close() {
         closed ??= (async () => {
           clearInterval(sweeper);
+          clearInterval(privacySweeper);
+          await privacy.idle();
           httpServer.closeAllConnections();
           await new Promise<void>((resolve) => httpServer.close(() => resolve()));
           await runtime.close();

@@ -39,6 +39,8 @@ import { FrameResultSummaryIndex1796260000003 } from '../migrations/179626000000
 import { StandardsAndFlags1796270000000 } from '../migrations/1796270000000-standards-and-flags';
 import { SeasonPlan1796280000000 } from '../migrations/1796280000000-season-plan';
 import { Reviews1796290000000 } from '../migrations/1796290000000-reviews';
+import { ConsentLifecycle1796300000000 } from '../migrations/1796300000000-consent-lifecycle';
+import { ConsentEventEntity } from '../entities/consent-event.entity';
 
 export const ALL_ENTITIES = [
   ClubEntity,
@@ -70,6 +72,7 @@ export const ALL_ENTITIES = [
   CompareStillEntity,
   ReviewItemEntity,
   ReviewReceiptEntity,
+  ConsentEventEntity,
 ];
 
 // Listed explicitly (no globs): bundlers and tsx cannot resolve migration globs reliably.
@@ -84,6 +87,7 @@ export const ALL_MIGRATIONS = [
   StandardsAndFlags1796270000000,
   SeasonPlan1796280000000,
   Reviews1796290000000,
+  ConsentLifecycle1796300000000,
 ];
 
 /** SQLite through better-sqlite3: WAL journal, foreign keys on (the driver always enables them), no synchronize. */

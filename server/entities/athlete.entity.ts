@@ -23,6 +23,12 @@ export interface Athlete {
   consentGuardianName: string | null;
   consentMethod: RecordConsentInput['method'] | null;
   consentRecordedById: string | null;
+  /** Consent to send this athlete's reviews by e-mail (a separate purpose from storing clips). */
+  consentShareByEmail: boolean;
+  /** Consent withdrawn: clips and reviews hidden from all but the head coach, then erased. */
+  consentWithdrawnAt: Date | null;
+  /** When the withdrawn athlete's clips and reviews are erased (the club's grace period after withdrawal). */
+  erasureDueAt: Date | null;
   createdAt: Date;
 }
 
@@ -41,6 +47,9 @@ export const AthleteEntity = new EntitySchema<Athlete>({
     consentGuardianName: { type: 'varchar', length: 120, nullable: true },
     consentMethod: { type: 'varchar', length: 20, nullable: true },
     consentRecordedById: nullableUuidColumn,
+    consentShareByEmail: { type: 'boolean', default: false },
+    consentWithdrawnAt: nullableTimestampColumn,
+    erasureDueAt: nullableTimestampColumn,
     createdAt: timestampColumn,
   },
   foreignKeys: [
@@ -52,5 +61,6 @@ export const AthleteEntity = new EntitySchema<Athlete>({
   indices: [
     { name: 'IDX_athlete_club', columns: ['clubId'] },
     { name: 'IDX_athlete_age_group', columns: ['ageGroupId'] },
+    { name: 'IDX_athlete_erasure_due', columns: ['erasureDueAt'] },
   ],
 });

@@ -5,6 +5,8 @@ export interface GuardianLink {
   id: string;
   guardianUserId: string;
   athleteId: string;
+  /** An adult athlete chose to keep this guardian's access (from 18 the athlete decides). */
+  keptByAthleteAt: Date | null;
   createdAt: Date;
 }
 
@@ -15,6 +17,7 @@ export const GuardianLinkEntity = new EntitySchema<GuardianLink>({
     id: idColumn,
     guardianUserId: uuidColumn,
     athleteId: uuidColumn,
+    keptByAthleteAt: { type: 'datetime', nullable: true },
     createdAt: timestampColumn,
   },
   foreignKeys: [

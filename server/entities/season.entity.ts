@@ -9,6 +9,8 @@ export interface Season {
   /** Calendar dates, YYYY-MM-DD, both inclusive. */
   startsOn: string;
   endsOn: string;
+  /** When the head coach was told that this season's clips are due for erasure (once per due date). */
+  retentionNoticeSentAt: Date | null;
   createdAt: Date;
 }
 
@@ -21,6 +23,7 @@ export const SeasonEntity = new EntitySchema<Season>({
     name: { type: 'varchar', length: 40 },
     startsOn: { type: 'varchar', length: 10 },
     endsOn: { type: 'varchar', length: 10 },
+    retentionNoticeSentAt: { type: 'datetime', nullable: true },
     createdAt: timestampColumn,
   },
   foreignKeys: [foreignKey('Club', 'clubId', 'CASCADE')],

@@ -2,7 +2,7 @@ import type { AgeGroupDto, AthleteDetailDto, AthleteDto, GuardianDto } from '@sh
 import type { AgeGroup } from '../entities/age-group.entity';
 import type { Athlete } from '../entities/athlete.entity';
 import type { User } from '../entities/user.entity';
-import { consentStatus } from '../services/consent.rules';
+import { consentManagedBy, consentStatus, mayEmailReviewsOf } from '../services/consent.rules';
 
 export function toAgeGroupDto(group: AgeGroup): AgeGroupDto {
   return { id: group.id, name: group.name, minAge: group.minAge, maxAge: group.maxAge };
@@ -19,6 +19,10 @@ export function toAthleteDto(athlete: Athlete, group: AgeGroup, clipCount: numbe
       status: consentStatus(athlete, now),
       recordedAt: athlete.consentRecordedAt ? athlete.consentRecordedAt.toISOString() : null,
       guardianName: athlete.consentGuardianName,
+      shareByEmail: mayEmailReviewsOf(athlete, now),
+      withdrawnAt: athlete.consentWithdrawnAt ? athlete.consentWithdrawnAt.toISOString() : null,
+      erasureDueAt: athlete.erasureDueAt ? athlete.erasureDueAt.toISOString() : null,
+      managedBy: consentManagedBy(athlete, now),
     },
     clipCount,
   };

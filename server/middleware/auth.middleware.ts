@@ -7,7 +7,7 @@ import type { Permission } from '@shared/access/permissions';
 import type { AccessService } from '../services/access.service';
 import type { AuthService } from '../services/auth.service';
 import type { Principal } from '../services/principal';
-import { ACCESS_AUDIENCE, TOKEN_ISSUER, type TokenService } from '../services/token.service';
+import { ACCESS_AUDIENCE, athleteExportScope, TOKEN_ISSUER, type TokenService } from '../services/token.service';
 
 function tokenFailure(info: unknown): HttpError {
   if (info instanceof jwt.TokenExpiredError) {
@@ -26,6 +26,7 @@ export interface AuthMiddleware {
   authenticate: RequestHandler;
   /** Media routes: a signed `?token=` for this clip (what a <video> element can send) or a bearer token. */
   authenticateMedia: RequestHandler;
+  authenticateExport: RequestHandler;
   /** The role check of the access table; must follow authenticate. */
   authorize(permission: Permission): RequestHandler;
 }
@@ -72,7 +73,13 @@ export function createAuthMiddleware(deps: {
     )(req, res, next);
   };
 
-  const authenticateMedia: RequestHandler = (req: Request, res: Response, next: NextFunction) => {
+  /**
+   * A signed link (`?token=`) for what a browser loads by address (video, images, a download), bound to
+   * one scope; without a token, the bearer token as everywhere else.
+   */
+  const authenticateSigned =
+    (scopeOf: (req: Request) => string, what: string): RequestHandler =>
+    (req: Request, res: Response, next: NextFunction) => {
     const token = typeof req.query.token === 'string' ? req.query.token : undefined;
     if (!token) return authenticate(req, res, next);
     let claims;
@@ -80,12 +87,12 @@ export function createAuthMiddleware(deps: {
       claims = deps.tokens.verifyMedia(token);
     } catch (error) {
       if (error instanceof jwt.TokenExpiredError) {
-        return next(unauthorized('media_token_expired', 'The media link expired; reload the clip'));
+        return next(unauthorized('media_token_expired', `The ${what} link expired; ${what === 'media' ? 'reload the clip' : 'ask for the download again'}`));
       }
-      return next(unauthorized('invalid_media_token', 'The media link is not valid'));
+      return next(unauthorized('invalid_media_token', `The ${what} link is not valid`));
     }
-    if (claims.clip !== req.params.id) {
-      return next(unauthorized('invalid_media_token', 'The media link is for another clip'));
+    if (claims.clip !== scopeOf(req)) {
+      return next(unauthorized('invalid_media_token', `The ${what} link is for something else`));
     }
     deps.auth
       .loadPrincipal(claims.sub, claims.ver, claims.sid)
@@ -105,7 +112,10 @@ export function createAuthMiddleware(deps: {
       next();
     };
 
-  return { authenticate, authenticateMedia, authorize };
+  const authenticateMedia = authenticateSigned((req) => String(req.params.id), 'media');
+  const authenticateExport = authenticateSigned((req) => athleteExportScope(String(req.params.id)), 'download');
+
+  return { authenticate, authenticateMedia, authenticateExport, authorize };
 }
 
 /** The principal of an authenticated request (routes run after authenticate). */

@@ -1,7 +1,8 @@
-import { In, type EntityManager } from 'typeorm';
+import { In, IsNull, LessThanOrEqual, Not, type EntityManager } from 'typeorm';
 import { AthleteEntity, type Athlete } from '../entities/athlete.entity';
 import { ClipAthleteEntity } from '../entities/clip-athlete.entity';
-import { GuardianLinkEntity } from '../entities/guardian-link.entity';
+import { ConsentEventEntity, type ConsentEvent } from '../entities/consent-event.entity';
+import { GuardianLinkEntity, type GuardianLink } from '../entities/guardian-link.entity';
 import { UserEntity, type User } from '../entities/user.entity';
 
 export interface AthleteFilter {
@@ -77,6 +78,59 @@ export class AthleteRepository {
     const users = await this.manager.findBy(UserEntity, { id: In(links.map((l) => l.guardianUserId)) });
     const byId = new Map(users.map((u) => [u.id, u]));
     return links.map((l) => byId.get(l.guardianUserId)).filter((u): u is User => Boolean(u));
+  }
+
+  /** Clips of the club that show an athlete whose consent is withdrawn. */
+  async withdrawnClipIds(clubId: string): Promise<string[]> {
+    const rows: { clipId: string }[] = await this.manager.query(
+      `SELECT DISTINCT ca.clipId AS clipId FROM clip_athlete ca INNER JOIN athlete a ON a.id = ca.athleteId
+       WHERE a.clubId = ? AND a.consentWithdrawnAt IS NOT NULL`,
+      [clubId],
+    );
+    return rows.map((r) => r.clipId);
+  }
+
+  /** Ids of the clips an athlete is tagged in. */
+  async clipIdsOf(athleteId: string): Promise<string[]> {
+    const rows = await this.manager.find(ClipAthleteEntity, { select: { clipId: true }, where: { athleteId } });
+    return rows.map((r) => r.clipId);
+  }
+
+  /** Withdrawn athletes (any club) whose erasure date has come. */
+  dueForErasure(now: Date): Promise<Athlete[]> {
+    return this.manager.find(AthleteEntity, {
+      where: { erasureDueAt: LessThanOrEqual(now) },
+      order: { erasureDueAt: 'ASC' },
+    });
+  }
+
+  /** The club's athletes waiting for erasure after a withdrawal. */
+  pendingErasures(clubId: string): Promise<Athlete[]> {
+    return this.manager.find(AthleteEntity, {
+      where: { clubId, erasureDueAt: Not(IsNull()) },
+      order: { erasureDueAt: 'ASC' },
+    });
+  }
+
+  guardianLinks(athleteId: string): Promise<GuardianLink[]> {
+    return this.manager.find(GuardianLinkEntity, { where: { athleteId }, order: { createdAt: 'ASC' } });
+  }
+
+  async setGuardianKept(athleteId: string, guardianUserId: string, keptAt: Date | null): Promise<number> {
+    const result = await this.manager.update(
+      GuardianLinkEntity,
+      { athleteId, guardianUserId },
+      { keptByAthleteAt: keptAt },
+    );
+    return result.affected ?? 0;
+  }
+
+  consentEvents(athleteId: string): Promise<ConsentEvent[]> {
+    return this.manager.find(ConsentEventEntity, { where: { athleteId }, order: { at: 'ASC' } });
+  }
+
+  async addConsentEvent(event: ConsentEvent): Promise<void> {
+    await this.manager.insert(ConsentEventEntity, event);
   }
 
   async insert(athlete: Athlete): Promise<void> {

@@ -8,6 +8,10 @@ export class AuditRepository {
     await this.manager.insert(AuditEventEntity, event);
   }
 
+  latest(action: string): Promise<AuditEvent | null> {
+    return this.manager.findOne(AuditEventEntity, { where: { action }, order: { createdAt: 'DESC' } });
+  }
+
   listByAction(action: string): Promise<AuditEvent[]> {
     return this.manager.find(AuditEventEntity, { where: { action }, order: { createdAt: 'ASC' } });
   }

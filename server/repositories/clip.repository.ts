@@ -70,6 +70,16 @@ export class ClipRepository {
     return (await qb.getRawMany<{ id: string }>()).map((r) => r.id);
   }
 
+  /** The club's clips whose training session lies between two calendar dates (inclusive). */
+  async idsWithSessionBetween(clubId: string, from: string, to: string): Promise<string[]> {
+    const rows: { id: string }[] = await this.manager.query(
+      `SELECT c.id AS id FROM clip c INNER JOIN training_session s ON s.id = c.sessionId
+       WHERE c.clubId = ? AND s.date >= ? AND s.date <= ? ORDER BY c.id`,
+      [clubId, from, to],
+    );
+    return rows.map((r) => r.id);
+  }
+
   /** Tagged athlete ids per clip. */
   async athleteIdsByClip(clipIds: string[]): Promise<Map<string, string[]>> {
     const result = new Map<string, string[]>();

@@ -1,4 +1,4 @@
-import type { EntityManager } from 'typeorm';
+import { IsNull, Not, type EntityManager } from 'typeorm';
 import { AgeGroupEntity, type AgeGroup } from '../entities/age-group.entity';
 import { ClubEntity, type Club } from '../entities/club.entity';
 
@@ -9,8 +9,17 @@ export class ClubRepository {
     return this.manager.findOneBy(ClubEntity, { id });
   }
 
+  /** Clubs that erase clips some time after a season ends. */
+  withRetention(): Promise<Club[]> {
+    return this.manager.find(ClubEntity, { where: { retentionDaysAfterSeason: Not(IsNull()) } });
+  }
+
   count(): Promise<number> {
     return this.manager.count(ClubEntity);
+  }
+
+  async update(id: string, patch: Partial<Club>): Promise<void> {
+    await this.manager.update(ClubEntity, { id }, patch);
   }
 
   async insert(club: Club): Promise<void> {

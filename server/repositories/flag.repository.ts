@@ -29,6 +29,8 @@ export interface FlagScope {
   athleteIds: string[] | null;
   /** Only flags of these clips (what reviews have shared with an athlete or guardian). */
   clipIds?: string[];
+  /** Never flags of these clips (clips of an athlete whose consent is withdrawn). */
+  excludeClipIds?: string[];
 }
 
 export class FlagRepository {
@@ -111,6 +113,8 @@ export class FlagRepository {
       .andWhere('f.model = c.defaultModel');
     if (scope.athleteIds !== null) qb.andWhere('f.athleteId IN (:...scoped)', { scoped: scope.athleteIds });
     if (scope.clipIds) qb.andWhere('f.clipId IN (:...clipScope)', { clipScope: scope.clipIds });
+    if (scope.excludeClipIds?.length)
+      qb.andWhere('f.clipId NOT IN (:...withheld)', { withheld: scope.excludeClipIds });
     if (query.athleteId) qb.andWhere('f.athleteId = :athleteId', { athleteId: query.athleteId });
     if (query.clipId) qb.andWhere('f.clipId = :clipId', { clipId: query.clipId });
     if (query.ageGroupId) qb.andWhere('f.ageGroupId = :ageGroupId', { ageGroupId: query.ageGroupId });

@@ -20,6 +20,10 @@ export class PlanRepository {
     await this.manager.insert(SeasonEntity, season);
   }
 
+  async updateSeason(id: string, patch: Partial<Season>): Promise<void> {
+    await this.manager.update(SeasonEntity, { id }, patch);
+  }
+
   listFocusPoints(athleteId: string, seasonId: string): Promise<FocusPoint[]> {
     return this.manager.find(FocusPointEntity, {
       where: { athleteId, seasonId },

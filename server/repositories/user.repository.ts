@@ -10,6 +10,13 @@ export interface UserLinks {
   coachedAgeGroupIds: string[];
 }
 
+/** A guardian's link with what decides whether it still gives access (the child's age, the athlete's choice). */
+export interface GuardianLinkReach {
+  athleteId: string;
+  birthYear: number;
+  keptByAthleteAt: Date | null;
+}
+
 export class UserRepository {
   constructor(private readonly manager: EntityManager) {}
 
@@ -28,6 +35,10 @@ export class UserRepository {
     return new Map(rows.map((u) => [u.id, u.name]));
   }
 
+  headCoachesOf(clubId: string): Promise<User[]> {
+    return this.manager.find(UserEntity, { where: { clubId, role: 'head_coach' }, order: { createdAt: 'ASC' } });
+  }
+
   findByEmail(email: string): Promise<User | null> {
     return this.manager.findOneBy(UserEntity, { email: email.toLowerCase() });
   }
@@ -44,7 +55,9 @@ export class UserRepository {
     await this.manager.increment(UserEntity, { id }, 'tokenVersion', 1);
   }
 
-  async links(user: User): Promise<UserLinks> {
+  async links(
+    user: User,
+  ): Promise<Omit<UserLinks, 'childAthleteIds'> & { guardianLinks: GuardianLinkReach[] }> {
     const [athlete, guardianLinks, assignments] = await Promise.all([
       this.manager.findOneBy(AthleteEntity, { userId: user.id }),
       this.manager.find(GuardianLinkEntity, {
@@ -53,9 +66,18 @@ export class UserRepository {
       }),
       this.manager.find(CoachAssignmentEntity, { where: { coachUserId: user.id } }),
     ]);
+    const children = await this.manager.find(AthleteEntity, {
+      select: { id: true, birthYear: true },
+      where: { id: In(guardianLinks.map((l) => l.athleteId)) },
+    });
+    const birthYears = new Map(children.map((c) => [c.id, c.birthYear]));
     return {
       athleteId: athlete?.id ?? null,
-      childAthleteIds: guardianLinks.map((l) => l.athleteId),
+      guardianLinks: guardianLinks.map((l) => ({
+        athleteId: l.athleteId,
+        birthYear: birthYears.get(l.athleteId) ?? 0,
+        keptByAthleteAt: l.keptByAthleteAt,
+      })),
       coachedAgeGroupIds: assignments.map((a) => a.ageGroupId),
     };
   }
@@ -66,7 +88,13 @@ export class UserRepository {
     athleteId: string,
     createdAt: Date,
   ): Promise<void> {
-    await this.manager.insert(GuardianLinkEntity, { id, guardianUserId, athleteId, createdAt });
+    await this.manager.insert(GuardianLinkEntity, {
+      id,
+      guardianUserId,
+      athleteId,
+      keptByAthleteAt: null,
+      createdAt,
+    });
   }
 
   async addCoachAssignment(id: string, coachUserId: string, ageGroupId: string): Promise<void> {

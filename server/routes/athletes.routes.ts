@@ -3,9 +3,7 @@ import { z } from 'zod';
 import {
   athleteListQuerySchema,
   createAthleteSchema,
-  recordConsentSchema,
   type CreateAthleteInput,
-  type RecordConsentInput,
 } from '@shared/schemas/athlete.schema';
 import { principalOf } from '../middleware/auth.middleware';
 import { validate } from '../middleware/validate.middleware';
@@ -63,22 +61,6 @@ export function athleteRoutes(ctx: RouteContext): Router {
       const principal = principalOf(req);
       const athlete = await ctx.athletes.findVisible(principal, req.params.id as string);
       res.json(await ctx.clips.list(principal, { athleteId: athlete.id }));
-    },
-  );
-
-  router.post(
-    '/api/athletes/:id/consent',
-    guard.authenticate,
-    guard.authorize('athlete:consent'),
-    validate({ body: recordConsentSchema }),
-    async (req, res) => {
-      res.json(
-        await ctx.athletes.recordConsent(
-          principalOf(req),
-          req.params.id as string,
-          req.body as RecordConsentInput,
-        ),
-      );
     },
   );
 

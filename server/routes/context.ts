@@ -17,6 +17,9 @@ import type { SeasonPlanService } from '../services/season-plan.service';
 import type { CompareStillService } from '../services/compare-still.service';
 import type { ReviewService } from '../services/review.service';
 import type { ErasureService } from '../services/erasure.service';
+import type { ConsentService } from '../services/consent.service';
+import type { DataExportService } from '../services/data-export.service';
+import type { PrivacyService } from '../services/privacy.service';
 import type { ToleranceBandService } from '../services/tolerance-band.service';
 import type { ObjectStorage } from '../storage/object-storage';
 import type { DataSource } from 'typeorm';
@@ -46,4 +49,7 @@ export interface RouteContext {
   compareStills: CompareStillService;
   reviews: ReviewService;
   erasure: ErasureService;
+  consent: ConsentService;
+  privacy: PrivacyService;
+  dataExports: DataExportService;
 }

@@ -49,6 +49,8 @@ export interface DemoAthlete {
   /** Guardian key (see DEMO_GUARDIANS); siblings share one. */
   guardian: string;
   consent: boolean;
+  /** Consent covers reviews by e-mail too, unless false. */
+  shareByEmail?: boolean;
   /** The athlete's own sign-in, if any. */
   email?: string;
 }
@@ -97,6 +99,7 @@ export const DEMO_ATHLETES: DemoAthlete[] = [
     group: 'U10',
     guardian: 'ashby',
     consent: true,
+    shareByEmail: false,
   },
   {
     key: 'ruben',

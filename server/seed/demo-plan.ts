@@ -60,7 +60,13 @@ export async function seedDemoSeasonPlan(dataSource: DataSource, clubId: string,
   const now = clock.now();
   await uow.transaction(async (manager) => {
     const repos = uow.of(manager);
-    const season = { id: randomUUID(), clubId, ...demoSeasonFor(now), createdAt: now };
+    const season = {
+      id: randomUUID(),
+      clubId,
+      ...demoSeasonFor(now),
+      retentionNoticeSentAt: null,
+      createdAt: now,
+    };
     await repos.plans.insertSeason(season);
     const coach = await repos.users.findByEmail('coach@larchwood.example');
     const [elsie] = (await manager.query(

@@ -40,7 +40,13 @@ export async function seedDemoClub(
     const sessions = repositoriesFor(manager).sessions;
 
     const clubId = randomUUID();
-    await clubs.insert({ id: clubId, name: DEMO_CLUB_NAME, createdAt: now });
+    await clubs.insert({
+      id: clubId,
+      name: DEMO_CLUB_NAME,
+      consentGraceDays: 30,
+      retentionDaysAfterSeason: 365,
+      createdAt: now,
+    });
 
     const groups = new Map<string, AgeGroup>();
     for (const g of DEMO_AGE_GROUPS) {
@@ -99,8 +105,24 @@ export async function seedDemoClub(
         consentGuardianName: a.consent ? guardian.name : null,
         consentMethod: a.consent ? 'signed_form' : null,
         consentRecordedById: a.consent ? headId : null,
+        consentShareByEmail: a.consent && a.shareByEmail !== false,
+        consentWithdrawnAt: null,
+        erasureDueAt: null,
         createdAt: now,
       });
+      if (a.consent) {
+        await athletes.addConsentEvent({
+          id: randomUUID(),
+          athleteId,
+          action: 'given',
+          purposes: a.shareByEmail === false ? ['store_clips'] : ['store_clips', 'share_by_email'],
+          decidedBy: guardian.name,
+          method: 'signed_form',
+          recordedById: headId,
+          recordedByRole: 'head_coach',
+          at: now,
+        });
+      }
       await users.addGuardianLink(randomUUID(), guardianIds.get(a.guardian)!, athleteId, now);
     }
 

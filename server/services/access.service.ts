@@ -39,12 +39,40 @@ const FORBIDDEN_MESSAGES: Record<Permission, string> = {
   'invitation:create': 'Only coaches and the head coach can invite members',
   'club:members': 'Only the head coach can see the member list',
   'athlete:erase': 'Only the head coach erases an athlete',
+  'consent:read': 'Your role cannot read consent records',
+  'consent:decide':
+    'Only a guardian, an adult athlete, or the head coach recording their request can change consent',
+  'athlete:export': 'The athlete, their guardians and the head coach download all of an athlete’s data',
+  'privacy:manage': 'Only the head coach changes the club’s privacy settings',
   'section:home': 'Your role has no home page of its own',
   'section:athletes': 'Your role cannot browse the athlete list',
   'section:tolerances': 'Athletes and guardians see their target ranges on their own clips',
   'section:exports': 'Athletes and guardians export their own data from their clips',
   'section:sessions': 'Your role cannot browse training sessions',
 };
+
+/** The clip ids a caller may open besides the athlete rule (see `AccessService.clipReach`). */
+export class ClipReach {
+  constructor(
+    /** Null: any clip of their athletes. */
+    private readonly only: ReadonlySet<string> | null,
+    private readonly withheld: ReadonlySet<string>,
+  ) {}
+
+  allows(clipId: string): boolean {
+    return (this.only === null || this.only.has(clipId)) && !this.withheld.has(clipId);
+  }
+
+  filter<T extends { id: string }>(clips: T[]): T[] {
+    return this.only === null && this.withheld.size === 0 ? clips : clips.filter((c) => this.allows(c.id));
+  }
+
+  /** For queries: the ids to keep (undefined: any) and the ids to leave out. */
+  get sql(): { clipIds?: string[]; excludeClipIds: string[] } {
+    if (this.only === null) return { excludeClipIds: [...this.withheld] };
+    return { clipIds: [...this.only].filter((id) => !this.withheld.has(id)), excludeClipIds: [] };
+  }
+}
 
 /** Roles that see every athlete of their club. */
 const CLUB_WIDE_READERS: readonly Role[] = ['head_coach', 'analyst'];
@@ -72,13 +100,18 @@ export class AccessService {
   }
 
   /**
-   * Clips an athlete or guardian may open: those of a published review of their athlete (and the
-   * baseline it is shown beside). Null for staff, whose reach is by athlete alone.
+   * Which clips the caller may open beyond the athlete rule: athletes and guardians only those of a
+   * published review of their athlete (and the baseline shown beside it); and everyone but the head
+   * coach loses, at once, every clip showing an athlete whose consent is withdrawn.
    */
-  async readableClipIds(principal: Principal): Promise<Set<string> | null> {
-    if (principal.role !== 'athlete' && principal.role !== 'guardian') return null;
+  async clipReach(principal: Principal): Promise<ClipReach> {
+    const withheld =
+      principal.role === 'head_coach'
+        ? new Set<string>()
+        : new Set(await this.uow.repos.athletes.withdrawnClipIds(principal.clubId));
+    if (principal.role !== 'athlete' && principal.role !== 'guardian') return new ClipReach(null, withheld);
     const athleteIds = (await this.visibleAthleteIds(principal)) ?? [];
-    return new Set(await this.uow.repos.reviews.publishedClipIds(athleteIds));
+    return new ClipReach(new Set(await this.uow.repos.reviews.publishedClipIds(athleteIds)), withheld);
   }
 
   canSeeAthlete(principal: Principal, athlete: Athlete): boolean {

@@ -4,7 +4,6 @@ import type {
   AthleteListResponse,
   AthleteResponse,
   CreateAthleteInput,
-  RecordConsentInput,
 } from '@shared/schemas/athlete.schema';
 import type { Athlete } from '../entities/athlete.entity';
 import { badRequest, forbidden, notFound } from '../errors';
@@ -104,6 +103,9 @@ export class AthleteService {
       consentGuardianName: null,
       consentMethod: null,
       consentRecordedById: null,
+      consentShareByEmail: false,
+      consentWithdrawnAt: null,
+      erasureDueAt: null,
       createdAt: this.clock.now(),
     };
     await this.uow.transaction(async (manager) => {
@@ -117,35 +119,5 @@ export class AthleteService {
       });
     });
     return this.detail(principal, athlete);
-  }
-
-  async recordConsent(
-    principal: Principal,
-    athleteId: string,
-    input: RecordConsentInput,
-  ): Promise<AthleteResponse> {
-    const athlete = await this.findVisible(principal, athleteId);
-    if (!this.access.canManageAthlete(principal, athlete)) {
-      throw forbidden('Only the head coach or a coach of this athlete’s age group can record consent');
-    }
-    const now = this.clock.now();
-    const patch: Partial<Athlete> = {
-      consentRecordedAt: now,
-      consentGuardianName: input.guardianName,
-      consentMethod: input.method,
-      consentRecordedById: principal.user.id,
-    };
-    await this.uow.transaction(async (manager) => {
-      await this.uow.of(manager).athletes.update(athlete.id, patch);
-      await this.audit.record(manager, {
-        clubId: principal.clubId,
-        actorUserId: principal.user.id,
-        action: 'athlete.consent',
-        targetType: 'athlete',
-        targetId: athlete.id,
-        details: { guardianName: input.guardianName, method: input.method },
-      });
-    });
-    return this.detail(principal, { ...athlete, ...patch });
   }
 }

@@ -9,7 +9,9 @@ import type { AuditService } from './audit.service';
 import type { Clock, Principal } from './principal';
 import { hashSecretToken, newSecretToken } from './secret-token';
 import type { TokenService } from './token.service';
-import type { UnitOfWork } from '../repositories/unit-of-work';
+import type { Repositories, UnitOfWork } from '../repositories/unit-of-work';
+import type { UserLinks } from '../repositories/user.repository';
+import { guardianStillReaches } from './consent.rules';
 
 const REUSE_GRACE_MS = 30_000;
 
@@ -50,8 +52,7 @@ export class AuthService {
     if (typeof sessionId !== 'string' || !(await auth.isSessionLive(sessionId, userId, this.clock.now()))) {
       return null;
     }
-    const links = await users.links(user);
-    return { user, role: user.role, clubId: user.clubId, ...links, sessionId };
+    return { user, role: user.role, clubId: user.clubId, ...(await this.linksOf(this.uow.repos, user)), sessionId };
   }
 
   async login(input: LoginInput): Promise<SignedIn> {
@@ -106,8 +107,18 @@ export class AuthService {
   }
 
   private async principalFor(manager: EntityManager, user: User, sessionId: string): Promise<Principal> {
-    const links = await this.uow.of(manager).users.links(user);
+    const links = await this.linksOf(this.uow.of(manager), user);
     return { user, role: user.role, clubId: user.clubId, ...links, sessionId };
+  }
+
+  /** A guardian reaches a child until the child turns 18, then only if the athlete keeps them. */
+  private async linksOf(repos: Repositories, user: User): Promise<UserLinks> {
+    const { guardianLinks, ...links } = await repos.users.links(user);
+    const now = this.clock.now();
+    const childAthleteIds = guardianLinks
+      .filter((l) => guardianStillReaches(l.birthYear, l.keptByAthleteAt, now))
+      .map((l) => l.athleteId);
+    return { ...links, childAthleteIds };
   }
 
   /** Rotates the refresh token: the presented one is revoked, a new one is issued. */

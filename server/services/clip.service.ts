@@ -67,9 +67,8 @@ export class ClipService {
       athleteId: query.athleteId,
       sessionId: query.sessionId,
     });
-    // Athletes and guardians reach clips through published reviews only.
-    const readable = await this.access.readableClipIds(principal);
-    const clips = readable ? listed.filter((c) => readable.has(c.id)) : listed;
+    // Athletes and guardians reach clips through published reviews only; withdrawn consent hides clips.
+    const clips = (await this.access.clipReach(principal)).filter(listed);
     return { clips: await this.toDtos(principal, clips, visible) };
   }
 
@@ -82,8 +81,7 @@ export class ClipService {
       const tagged = (await repo.athleteIdsByClip([clip.id])).get(clip.id) ?? [];
       if (!tagged.some((id) => visible.includes(id))) throw notFound('Clip');
     }
-    const readable = await this.access.readableClipIds(principal);
-    if (readable && !readable.has(clip.id)) throw notFound('Clip');
+    if (!(await this.access.clipReach(principal)).allows(clip.id)) throw notFound('Clip');
     return clip;
   }
 

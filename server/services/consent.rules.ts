@@ -12,10 +12,28 @@ export function isMinor(birthYear: number, now: Date): boolean {
 }
 
 export function consentStatus(athlete: Athlete, now: Date): ConsentStatus {
+  if (athlete.consentWithdrawnAt) return 'withdrawn';
   if (athlete.consentRecordedAt) return 'granted';
   return isMinor(athlete.birthYear, now) ? 'missing' : 'not_required';
 }
 
 export function mayStoreClipsOf(athlete: Athlete, now: Date): boolean {
-  return consentStatus(athlete, now) !== 'missing';
+  const status = consentStatus(athlete, now);
+  return status === 'granted' || status === 'not_required';
+}
+
+/** Reviews go out by e-mail with a guardian's consent for that purpose; adults decide for themselves. */
+export function mayEmailReviewsOf(athlete: Athlete, now: Date): boolean {
+  if (athlete.consentWithdrawnAt) return false;
+  return !isMinor(athlete.birthYear, now) || athlete.consentShareByEmail;
+}
+
+/** Who decides about consent: a guardian until the athlete is an adult, then the athlete. */
+export function consentManagedBy(athlete: Athlete, now: Date): 'guardian' | 'athlete' {
+  return isMinor(athlete.birthYear, now) ? 'guardian' : 'athlete';
+}
+
+/** A guardian reaches a child until the child is an adult; then only if the athlete keeps them. */
+export function guardianStillReaches(birthYear: number, keptByAthleteAt: Date | null, now: Date): boolean {
+  return isMinor(birthYear, now) || keptByAthleteAt !== null;
 }

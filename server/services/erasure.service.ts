@@ -89,6 +89,30 @@ export class ErasureService {
     return { clips: clips.length };
   }
 
+  /**
+   * Erases clips with no member acting: the privacy sweep after a withdrawal's grace period or past
+   * the club's retention. Clips still being prepared are left for the next sweep. Returns the ids erased.
+   */
+  async eraseClipsBySweep(clubId: string, clipIds: string[], action: string): Promise<string[]> {
+    const clips = (await this.uow.repos.clips.findByIds(clipIds)).filter(
+      (c) => c.clubId === clubId && c.status !== 'uploaded' && c.status !== 'processing',
+    );
+    if (clips.length === 0) return [];
+    const keys = await this.objectKeys(clips);
+    await this.uow.transaction(async (manager) => {
+      for (const clip of clips) await this.eraseClipRows(manager, clip);
+      await this.audit.record(manager, {
+        clubId,
+        actorUserId: null,
+        action,
+        targetType: 'clip',
+        details: { clips: clips.length },
+      });
+    });
+    await this.removeObjects(keys, clips);
+    return clips.map((c) => c.id);
+  }
+
   private refuseBusy(clips: Clip[]): void {
     if (clips.some((c) => c.status === 'uploaded' || c.status === 'processing'))
       throw conflict('clip_busy', 'The server is still preparing a clip; erase once it is ready');

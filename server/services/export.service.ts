@@ -287,9 +287,8 @@ export class ExportService {
       to: query.to,
       view: query.view,
     });
-    // Athletes and guardians export what reviews have shared with them.
-    const readable = await this.access.readableClipIds(principal);
-    const shown = readable ? clips.filter((c) => readable.has(c.id)) : clips;
+    // Athletes and guardians export what reviews have shared with them; withdrawn consent hides clips.
+    const shown = (await this.access.clipReach(principal)).filter(clips);
     if (query.clipId && shown.length === 0) {
       // Another club's clip, one the caller may not see, and a clip outside the other filters look alike.
       throw notFound('Clip');

@@ -19,9 +19,9 @@ export class FlagService {
   async list(principal: Principal, query: FlagQuery): Promise<FlagListResponse> {
     const athleteIds = await this.access.visibleAthleteIds(principal);
     // Athletes and guardians see flags of the clips reviews have shared with them.
-    const readable = await this.access.readableClipIds(principal);
+    const reach = await this.access.clipReach(principal);
     const { rows, total } = await this.uow.repos.flags.search(
-      { clubId: principal.clubId, athleteIds, clipIds: readable ? [...readable] : undefined },
+      { clubId: principal.clubId, athleteIds, ...reach.sql },
       query,
     );
     return { flags: await this.toDtos(principal, rows), total, page: query.page, pageSize: query.pageSize };

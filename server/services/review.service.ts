@@ -21,8 +21,9 @@ import {
 import { BAND_METRICS, formatUnitValue, type BandMetricKey } from '@shared/tolerance';
 import type { Athlete } from '../entities/athlete.entity';
 import type { Review } from '../entities/review.entity';
-import { badRequest, conflict, forbidden, HttpError, notFound } from '../errors';
+import { conflict, fieldError, forbidden, HttpError, notFound } from '../errors';
 import { reviewMail } from '../mail/templates';
+import { guardianStillReaches, mayEmailReviewsOf } from './consent.rules';
 import type { Mailer } from '../mail/mailer';
 import type { UnitOfWork } from '../repositories/unit-of-work';
 import type { AccessService } from './access.service';
@@ -36,10 +37,6 @@ import type { Clock, Principal } from './principal';
 
 const STAFF = new Set(['head_coach', 'coach', 'analyst']);
 const isReader = (p: Principal) => p.role === 'athlete' || p.role === 'guardian';
-
-/** A 400 naming the field, as the validation middleware words it, so forms can place it. */
-const fieldError = (field: string, message: string) =>
-  badRequest('validation_failed', message, { issues: [{ path: [field], message }] });
 
 interface Deps {
   uow: UnitOfWork;
@@ -173,7 +170,9 @@ export class ReviewService {
       // Drafts and withdrawn reviews are the staff's; athletes and guardians read published ones.
       publishedOnly: isReader(principal),
     });
-    return (await this.toDtos(principal, rows)).map(
+    // Reviews of an athlete whose consent is withdrawn go out of sight with their clips.
+    const reach = await this.deps.access.clipReach(principal);
+    return (await this.toDtos(principal, rows.filter((r) => reach.allows(r.clipId)))).map(
       ({ id, clipId, clipName, athlete, title, status, publishedAt, updatedAt, author, unread }) => ({
         id,
         clipId,
@@ -241,13 +240,22 @@ export class ReviewService {
     if (review.summary.trim() === '')
       throw fieldError('summary', 'Write a short summary first: it is what the e-mail says');
     const athlete = (await uow.repos.athletes.findById(review.athleteId))!;
-    const recipients = await this.recipients(athlete);
+    const now = clock.now();
+    if (athlete.consentWithdrawnAt)
+      throw conflict(
+        'consent_withdrawn',
+        `Consent for ${athlete.firstName} is withdrawn: reviews cannot be shared unless it is restored`,
+      );
+    // Without consent to e-mail, the review waits on the Home page of those who have an account.
+    const byEmail = mayEmailReviewsOf(athlete, now);
+    const recipients = (await this.recipients(athlete, now)).filter((r) => byEmail || r.user.passwordHash);
     if (recipients.length === 0)
       throw conflict(
         'no_recipients',
-        `${athlete.firstName} has no account and no guardian with an e-mail address; invite one from the athlete page first`,
+        byEmail
+          ? `${athlete.firstName} has no account and no guardian with an e-mail address; invite one from the athlete page first`
+          : `Consent for ${athlete.firstName} does not cover e-mail and nobody of theirs has an account yet; record consent to send reviews by e-mail, or invite them first`,
       );
-    const now = clock.now();
     const patch: Partial<Review> = {
       status: 'published',
       publishedAt: now,
@@ -263,6 +271,10 @@ export class ReviewService {
     const path = `/reviews/${review.id}`;
     const sent: ReviewRecipientDto[] = [];
     for (const r of recipients) {
+      if (!byEmail) {
+        sent.push({ name: r.user.name, email: r.user.email, role: r.role, invited: false, emailed: false });
+        continue;
+      }
       const invited = !r.user.passwordHash;
       const link = invited ? await passwords.setupLink(r.user.id, path) : `${this.deps.publicUrl()}${path}`;
       await mailer.send(
@@ -279,7 +291,7 @@ export class ReviewService {
           republished: review.publishCount > 0,
         }),
       );
-      sent.push({ name: r.user.name, email: r.user.email, role: r.role, invited });
+      sent.push({ name: r.user.name, email: r.user.email, role: r.role, invited, emailed: true });
     }
     return { review: (await this.toDtos(principal, [{ ...review, ...patch }]))[0], recipients: sent };
   }
@@ -317,8 +329,8 @@ export class ReviewService {
     });
   }
 
-  /** The athlete's own account and each guardian's, with an e-mail address. */
-  private async recipients(athlete: Athlete) {
+  /** The athlete's own account and each guardian's who still has access, with an e-mail address. */
+  private async recipients(athlete: Athlete, now: Date) {
     const repos = this.deps.uow.repos;
     const out: {
       user: NonNullable<Awaited<ReturnType<typeof repos.users.findById>>>;
@@ -328,8 +340,11 @@ export class ReviewService {
       const user = await repos.users.findById(athlete.userId);
       if (user?.email) out.push({ user, role: 'athlete' });
     }
+    const links = new Map((await repos.athletes.guardianLinks(athlete.id)).map((l) => [l.guardianUserId, l]));
     for (const guardian of await repos.athletes.guardiansOf(athlete.id)) {
-      if (guardian.email) out.push({ user: guardian, role: 'guardian' });
+      const kept = links.get(guardian.id)?.keptByAthleteAt ?? null;
+      if (guardian.email && guardianStillReaches(athlete.birthYear, kept, now))
+        out.push({ user: guardian, role: 'guardian' });
     }
     return out;
   }
@@ -379,6 +394,7 @@ export class ReviewService {
     if (!review || review.clubId !== principal.clubId) throw notFound('Review');
     const athlete = await this.deps.uow.repos.athletes.findById(review.athleteId);
     if (!athlete || !this.deps.access.canSeeAthlete(principal, athlete)) throw notFound('Review');
+    if (athlete.consentWithdrawnAt && principal.role !== 'head_coach') throw notFound('Review');
     if (isReader(principal)) {
       if (review.status === 'withdrawn')
         throw new HttpError(

@@ -96,6 +96,7 @@ export class SeasonPlanService {
       id: randomUUID(),
       clubId: principal.clubId,
       ...input,
+      retentionNoticeSentAt: null,
       createdAt: this.clock.now(),
     };
     await this.uow.transaction(async (manager) => {
@@ -292,8 +293,7 @@ export class SeasonPlanService {
       athleteId,
     });
     // Athletes and guardians see the clips reviews have shared with them.
-    const readable = await this.access.readableClipIds(principal);
-    const clips = readable ? listed.filter((c) => readable.has(c.id)) : listed;
+    const clips = (await this.access.clipReach(principal)).filter(listed);
     const sessions = new Map(
       (await repos.sessions.findByIds(clips.map((c) => c.sessionId))).map((s) => [s.id, s]),
     );

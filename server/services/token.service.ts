@@ -22,6 +22,11 @@ export interface MediaClaims {
   clip: string;
 }
 
+/** What a signed download link of an athlete's data is bound to (a media token's scope). */
+export function athleteExportScope(athleteId: string): string {
+  return `athlete-export:${athleteId}`;
+}
+
 /** Signs access and media JWTs (HS256). Verification of access tokens is passport-jwt's job. */
 export class TokenService {
   /**
@@ -70,6 +75,17 @@ export class TokenService {
       poster: `/api/clips/${clipId}/poster${query}`,
       thumbnails: `/api/clips/${clipId}/thumbnails${query}`,
     };
+  }
+
+  /** A download link of all of an athlete's data, as this caller, for the browser to fetch by address. */
+  athleteExportLink(principal: Principal, athleteId: string): string {
+    const token = this.signMedia({
+      sub: principal.user.id,
+      ver: principal.user.tokenVersion,
+      sid: principal.sessionId ?? '',
+      clip: athleteExportScope(athleteId),
+    });
+    return `/api/athletes/${athleteId}/export.zip?token=${encodeURIComponent(token)}`;
   }
 
   /** Returns the claims, or throws jsonwebtoken's TokenExpiredError / JsonWebTokenError. */

@@ -47,6 +47,14 @@ export const PERMISSIONS = {
   'invitation:create': ['head_coach', 'coach'],
   'club:members': ['head_coach'],
   'athlete:erase': ['head_coach'],
+  // The consent record: staff who look after the athlete, the athlete and guardians (no analysts).
+  'consent:read': ['head_coach', 'coach', 'athlete', 'guardian'],
+  // Withdrawing or restoring: a guardian for a minor, the athlete once 18, or the head coach recording
+  // their request (narrowed in the service).
+  'consent:decide': ['head_coach', 'athlete', 'guardian'],
+  // All of an athlete's data as one download: the athlete, their guardians, the head coach on request.
+  'athlete:export': ['head_coach', 'athlete', 'guardian'],
+  'privacy:manage': ['head_coach'],
   // Sections of the app: which pages a role is sent to. The reads behind them are the rows above.
   'section:home': ['head_coach', 'coach', 'athlete', 'guardian'],
   'section:tolerances': ['head_coach', 'coach', 'analyst'],

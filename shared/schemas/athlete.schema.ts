@@ -17,6 +17,8 @@ export type CreateAthleteInput = z.infer<typeof createAthleteSchema>;
 export const recordConsentSchema = z.object({
   guardianName: z.string().trim().min(1, 'Enter the guardian who gave consent').max(120),
   method: z.enum(['signed_form', 'email', 'in_person']),
+  /** A second purpose, asked separately: reviews sent to the athlete and guardians by e-mail. */
+  shareByEmail: z.boolean().default(false),
 });
 export type RecordConsentInput = z.infer<typeof recordConsentSchema>;
 
@@ -32,7 +34,20 @@ export interface AgeGroupDto {
   maxAge: number;
 }
 
-export type ConsentStatus = 'granted' | 'missing' | 'not_required';
+export type ConsentStatus = 'granted' | 'missing' | 'not_required' | 'withdrawn';
+
+export interface AthleteConsentDto {
+  status: ConsentStatus;
+  recordedAt: string | null;
+  guardianName: string | null;
+  /** Reviews may be sent by e-mail (a guardian's consent for minors; adults decide themselves). */
+  shareByEmail: boolean;
+  withdrawnAt: string | null;
+  /** When clips and reviews of a withdrawn athlete are erased (null once erased, or not withdrawn). */
+  erasureDueAt: string | null;
+  /** Who decides: a guardian until the athlete turns 18, then the athlete. */
+  managedBy: 'guardian' | 'athlete';
+}
 
 export interface AthleteDto {
   id: string;
@@ -41,7 +56,7 @@ export interface AthleteDto {
   birthYear: number;
   ageGroup: AgeGroupDto;
   /** Under-18s need a guardian's recorded consent before clips can be stored. */
-  consent: { status: ConsentStatus; recordedAt: string | null; guardianName: string | null };
+  consent: AthleteConsentDto;
   clipCount: number;
 }
 

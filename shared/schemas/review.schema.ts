@@ -113,6 +113,8 @@ export interface ReviewRecipientDto {
   role: 'athlete' | 'guardian';
   /** No password set yet: the e-mail carries a link to set one that lands on the review. */
   invited: boolean;
+  /** False when consent covers no e-mail: the review waits on their Home instead. */
+  emailed: boolean;
 }
 
 export interface PublishReviewResponse {

@@ -22,7 +22,11 @@ export type Capability =
   | 'compare.keepStill'
   | 'reviews.write'
   | 'clips.erase'
-  | 'athletes.erase';
+  | 'athletes.erase'
+  | 'consent.read'
+  | 'consent.decide'
+  | 'athletes.export'
+  | 'privacy.manage';
 
 // Each control the client hides maps onto a row of the one role table the server enforces.
 const CAPABILITY_PERMISSION: Record<Capability, Permission> = {
@@ -44,6 +48,10 @@ const CAPABILITY_PERMISSION: Record<Capability, Permission> = {
   'reviews.write': 'review:write',
   'clips.erase': 'clip:erase',
   'athletes.erase': 'athlete:erase',
+  'consent.read': 'consent:read',
+  'consent.decide': 'consent:decide',
+  'athletes.export': 'athlete:export',
+  'privacy.manage': 'privacy:manage',
 };
 
 export const ROLE_LABELS: Record<Role, string> = {

@@ -63,7 +63,7 @@ describe('a review read on a phone', () => {
       .check();
     await page.getByText('All changes saved').waitFor();
     await page.getByRole('button', { name: 'Publish', exact: true }).click();
-    await page.getByText(/Published and e-mailed to/).waitFor();
+    await page.getByText(/Published: e-mailed to/).waitFor();
     await page.screenshot({ path: screenshotPath('review-editor'), fullPage: true });
     const reviewId = /\/reviews\/([0-9a-f-]+)\/edit/.exec(page.url())![1];
 

@@ -39,6 +39,7 @@ describe('database schema', () => {
         'clip_turns',
         'club',
         'compare_still',
+        'consent_event',
         'coach_assignment',
         'flag',
         'focus_point',

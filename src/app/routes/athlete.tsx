@@ -7,6 +7,7 @@ import { PageSpinner } from '@/components/ui/spinner';
 import { paths } from '@/config/paths';
 import { useAthlete } from '@/features/athletes/api/get-athlete';
 import { AthleteProfile } from '@/features/athletes/components/athlete-profile';
+import { ConsentCard } from '@/features/athletes/components/consent-card';
 import { ConsentPanel } from '@/features/athletes/components/consent-panel';
 import { GuardianList } from '@/features/athletes/components/guardian-list';
 import { EraseAthleteButton } from '@/features/athletes/components/erase-athlete-button';
@@ -29,7 +30,9 @@ export function AthletePage() {
   }
 
   const record = athlete.data.athlete;
-  const canUpload = can(user.role, 'clips.upload') && record.consent.status !== 'missing';
+  const canUpload =
+    can(user.role, 'clips.upload') &&
+    (record.consent.status === 'granted' || record.consent.status === 'not_required');
   return (
     <>
       <PageHeader
@@ -57,6 +60,7 @@ export function AthletePage() {
           <AthleteProfile athlete={record} />
           <GuardianList guardians={record.guardians} />
         </div>
+        {can(user.role, 'consent.read') ? <ConsentCard athlete={record} user={user} /> : null}
         <section aria-labelledby="athlete-plan">
           <h2 id="athlete-plan" className="mb-3 text-base font-semibold text-granite-900">
             Season plan
@@ -78,7 +82,9 @@ export function AthletePage() {
               emptyText={
                 record.consent.status === 'missing'
                   ? 'Clips can be uploaded once a guardian’s consent is recorded.'
-                  : 'Upload clips from a training session and tag this athlete.'
+                  : record.consent.status === 'withdrawn'
+                    ? `Consent is withdrawn: ${record.firstName}’s clips are hidden${user.role === 'head_coach' ? ' from everyone but you' : ''} until they are erased or consent is restored.`
+                    : 'Upload clips from a training session and tag this athlete.'
               }
             />
           ) : null}

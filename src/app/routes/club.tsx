@@ -8,6 +8,7 @@ import { useMe } from '@/features/auth/api/get-me';
 import { useMembers } from '@/features/club/api/get-members';
 import { InviteForm } from '@/features/club/components/invite-form';
 import { MemberList } from '@/features/club/components/member-list';
+import { PrivacySettingsCard } from '@/features/club/components/privacy-settings';
 
 export function ClubPage() {
   const me = useMe();
@@ -45,6 +46,9 @@ export function ClubPage() {
           </p>
           <InviteForm athletes={athleteOptions} ageGroups={groupOptions} />
         </Card>
+      </div>
+      <div className="mt-6">
+        <PrivacySettingsCard />
       </div>
     </>
   );

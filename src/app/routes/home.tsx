@@ -7,6 +7,7 @@ import { paths } from '@/config/paths';
 import { useAthlete } from '@/features/athletes/api/get-athlete';
 import { useAthletes } from '@/features/athletes/api/get-athletes';
 import { ConsentBadge } from '@/features/athletes/components/consent-badge';
+import { ConsentCard } from '@/features/athletes/components/consent-card';
 import { SeasonPlanPanel } from '@/features/season-plan/components/season-plan-panel';
 import { ReviewList } from '@/features/reviews/components/review-list';
 import { useClips } from '@/features/clips/api/get-clips';
@@ -138,6 +139,13 @@ function ClubOverview({ user }: { user: UserDto }) {
   );
 }
 
+/** The athlete's own consent and data, below their clips. */
+function MyConsent({ athleteId, user }: { athleteId: string; user: UserDto }) {
+  const athlete = useAthlete(athleteId);
+  if (athlete.isError) return <QueryError error={athlete.error} what="your record" />;
+  return athlete.data ? <ConsentCard athlete={athlete.data.athlete} user={user} /> : null;
+}
+
 function MyClips({ user }: { user: UserDto }) {
   const clips = useClips(user.athleteId ? { athleteId: user.athleteId } : {});
   return (
@@ -173,11 +181,16 @@ function MyClips({ user }: { user: UserDto }) {
           emptyText="Your coach uploads clips after training; they show up here."
         />
       ) : null}
+      {user.athleteId ? (
+        <div className="mt-8">
+          <MyConsent athleteId={user.athleteId} user={user} />
+        </div>
+      ) : null}
     </>
   );
 }
 
-function ChildSection({ athleteId }: { athleteId: string }) {
+function ChildSection({ athleteId, user }: { athleteId: string; user: UserDto }) {
   const athlete = useAthlete(athleteId);
   const clips = useClips({ athleteId });
   const name = athlete.data
@@ -217,9 +230,14 @@ function ChildSection({ athleteId }: { athleteId: string }) {
         <ClipList
           clips={clips.data}
           emptyTitle="No clips yet"
-          emptyText="Clips appear here after training."
+          emptyText={
+            athlete.data?.athlete.consent.status === 'withdrawn'
+              ? 'Consent is withdrawn: clips and reviews are hidden until they are erased or consent is restored.'
+              : 'Clips appear here after training.'
+          }
         />
       ) : null}
+      {athlete.data ? <ConsentCard athlete={athlete.data.athlete} user={user} /> : null}
     </section>
   );
 }
@@ -235,7 +253,7 @@ function GuardianHome({ user }: { user: UserDto }) {
       ) : (
         <div className="space-y-10">
           {user.childAthleteIds.map((id) => (
-            <ChildSection key={id} athleteId={id} />
+            <ChildSection key={id} athleteId={id} user={user} />
           ))}
         </div>
       )}

@@ -27,6 +27,7 @@ function signedInAs(user: UserDto, athlete: AthleteDetailDto) {
       record = {
         ...record,
         consent: {
+          ...record.consent,
           status: 'granted',
           recordedAt: '2026-12-01T10:00:00.000Z',
           guardianName: body.guardianName,

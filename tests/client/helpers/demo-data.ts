@@ -31,7 +31,15 @@ export const ATHLETE_NO_CONSENT: AthleteDetailDto = {
   lastName: 'Fairweather',
   birthYear: 2013,
   ageGroup: U14,
-  consent: { status: 'missing', recordedAt: null, guardianName: null },
+  consent: {
+    status: 'missing',
+    recordedAt: null,
+    guardianName: null,
+    shareByEmail: false,
+    withdrawnAt: null,
+    erasureDueAt: null,
+    managedBy: 'guardian',
+  },
   clipCount: 0,
   guardians: [
     { id: '50000000-0000-4000-8000-000000000001', name: 'Rowan Fairweather', email: 'rowan@home.example' },
@@ -43,7 +51,13 @@ export const ATHLETE_WITH_CONSENT: AthleteDetailDto = {
   id: '40000000-0000-4000-8000-000000000002',
   firstName: 'Pia',
   lastName: 'Underhill',
-  consent: { status: 'granted', recordedAt: '2026-11-02T09:00:00.000Z', guardianName: 'Sam Underhill' },
+  consent: {
+    ...ATHLETE_NO_CONSENT.consent,
+    status: 'granted',
+    recordedAt: '2026-11-02T09:00:00.000Z',
+    guardianName: 'Sam Underhill',
+    shareByEmail: true,
+  },
 };
 
 export const SESSION: SessionDto = {

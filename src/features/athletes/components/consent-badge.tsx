@@ -5,6 +5,7 @@ const LABELS: Record<ConsentStatus, { text: string; tone: 'good' | 'warn' | 'neu
   granted: { text: 'Consent recorded', tone: 'good' },
   missing: { text: 'Consent missing', tone: 'warn' },
   not_required: { text: 'Adult, no consent needed', tone: 'neutral' },
+  withdrawn: { text: 'Consent withdrawn', tone: 'warn' },
 };
 
 export function ConsentBadge({ status }: { status: ConsentStatus }) {

@@ -1,4 +1,5 @@
 import { useForm } from 'react-hook-form';
+import type { z } from 'zod';
 import { zodResolver } from '@hookform/resolvers/zod';
 import {
   recordConsentSchema,
@@ -25,9 +26,9 @@ function ConsentForm({ athlete }: { athlete: AthleteDetailDto }) {
     register,
     handleSubmit,
     formState: { errors },
-  } = useForm<RecordConsentInput>({
+  } = useForm<z.input<typeof recordConsentSchema>, unknown, RecordConsentInput>({
     resolver: zodResolver(recordConsentSchema),
-    defaultValues: { guardianName: athlete.guardians[0]?.name ?? '', method: 'signed_form' },
+    defaultValues: { guardianName: athlete.guardians[0]?.name ?? '', method: 'signed_form', shareByEmail: false },
   });
   const listId = `guardians-${athlete.id}`;
 
@@ -62,6 +63,13 @@ function ConsentForm({ athlete }: { athlete: AthleteDetailDto }) {
           ))}
         </SelectField>
       </div>
+      <label className="flex items-start gap-2 text-sm text-granite-800">
+        <input type="checkbox" className="mt-0.5 h-4 w-4" {...register('shareByEmail')} />
+        <span>
+          The guardian also agreed to reviews being sent by e-mail to {athlete.firstName} and guardians.
+          Without it, reviews are only shown in the app.
+        </span>
+      </label>
       <FormError message={consent.isError ? errorMessage(consent.error) : null} />
       <Button type="submit" busy={consent.isPending}>
         Record consent

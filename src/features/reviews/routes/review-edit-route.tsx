@@ -2,7 +2,12 @@ import { useEffect, useRef, useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { Eye, Send, Undo2 } from 'lucide-react';
 import { focusLabel } from '@shared/plan';
-import type { ReviewDto, ReviewOverlays, UpdateReviewInput } from '@shared/schemas/review.schema';
+import type {
+  ReviewDto,
+  ReviewOverlays,
+  ReviewRecipientDto,
+  UpdateReviewInput,
+} from '@shared/schemas/review.schema';
 import { Badge } from '@/components/ui/badge';
 import { Button, ButtonLink } from '@/components/ui/button';
 import { FormError, TextAreaField, TextField } from '@/components/ui/field';
@@ -131,9 +136,7 @@ function ReviewEditor({ review }: { review: ReviewDto }) {
                 onClick={() =>
                   publish.mutate(undefined, {
                     onSuccess: (data) =>
-                      toast.success(
-                        `Published and e-mailed to ${data.recipients.map((r) => r.name).join(', ')}`,
-                      ),
+                      toast.success(publishedMessage(data.recipients)),
                   })
                 }
               >
@@ -314,4 +317,16 @@ function ReviewEditor({ review }: { review: ReviewDto }) {
       </div>
     </>
   );
+}
+
+/** Who was told how: by e-mail, or (without consent to e-mail) on their Home page only. */
+function publishedMessage(recipients: ReviewRecipientDto[]): string {
+  const names = (list: ReviewRecipientDto[]) => list.map((r) => r.name).join(', ');
+  const mailed = recipients.filter((r) => r.emailed);
+  const inApp = recipients.filter((r) => !r.emailed);
+  const parts = [
+    mailed.length > 0 ? `e-mailed to ${names(mailed)}` : '',
+    inApp.length > 0 ? `on the Home page of ${names(inApp)} (consent does not cover e-mail)` : '',
+  ].filter(Boolean);
+  return `Published: ${parts.join('; ')}`;
 }
