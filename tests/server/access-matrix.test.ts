@@ -54,6 +54,13 @@ interface Ids {
   reviewDraft: string;
   toPublish: Record<DemoRole, string>;
   toWithdraw: Record<DemoRole, string>;
+  /** Elsie's brother (U12), the demo guardian's other child: the guardian withdraws and restores his consent. */
+  finn: string;
+  /** A U14 athlete with consent, for the head coach to withdraw and restore on a guardian's request. */
+  withdrawByHead: string;
+  /** The demo guardian's user id. */
+  guardianUser: string; /** A clip of a U14 athlete whose consent the head coach withdrew (still within the grace period). */
+  clipWithdrawn: string;
 }
 
 type Expect = Record<DemoRole, number>;
@@ -226,6 +233,13 @@ const ROWS: Row[] = [
     target: 'own clip',
     path: (i) => `/api/clips/${i.clipElsie}`,
     expect: all(200),
+  },
+  {
+    // Withdrawn consent hides the clip at once from everyone but the head coach.
+    route: 'GET /api/clips/:id',
+    target: 'clip of a U14 athlete whose consent is withdrawn',
+    path: (i) => `/api/clips/${i.clipWithdrawn}`,
+    expect: { head: 200, coach: 404, analyst: 404, athlete: 404, guardian: 404 },
   },
   {
     route: 'GET /api/clips/:id',
@@ -468,6 +482,12 @@ const ROWS: Row[] = [
   },
   {
     route: 'GET /api/exports/frames.csv',
+    target: 'clip of a U14 athlete whose consent is withdrawn',
+    path: (i) => `/api/exports/frames.csv?clipId=${i.clipWithdrawn}`,
+    expect: { head: 200, coach: 404, analyst: 404, athlete: 404, guardian: 404 },
+  },
+  {
+    route: 'GET /api/exports/frames.csv',
     target: 'a clip of another group (U16)',
     path: (i) => `/api/exports/frames.csv?clipId=${i.clipSigne}`,
     expect: { head: 200, coach: 404, analyst: 200, athlete: 404, guardian: 404 },
@@ -657,6 +677,86 @@ const ROWS: Row[] = [
     target: 'Elsie with her teammate',
     path: (i) => `/api/compare-stills/${i.still}/image`,
     expect: { head: 200, coach: 200, analyst: 200, athlete: 404, guardian: 404 },
+  },
+  {
+    route: 'GET /api/athletes/:id/consent',
+    target: 'own record / own child',
+    path: (i) => `/api/athletes/${i.elsie}/consent`,
+    expect: { head: 200, coach: 200, analyst: 403, athlete: 200, guardian: 200 },
+  },
+  {
+    route: 'GET /api/athletes/:id/consent',
+    target: 'other group',
+    path: (i) => `/api/athletes/${i.signe}/consent`,
+    expect: { head: 200, coach: 404, analyst: 403, athlete: 404, guardian: 404 },
+  },
+  {
+    // The head coach records a guardian's request; the guardian decides for her younger child herself;
+    // Elsie is a minor, so a guardian decides for her.
+    route: 'POST /api/athletes/:id/consent/withdraw',
+    target: 'a minor: head coach on request, guardian for own child',
+    path: (i, role) =>
+      `/api/athletes/${role === 'head' ? i.withdrawByHead : role === 'guardian' ? i.finn : i.elsie}/consent/withdraw`,
+    body: (_i, role) => (role === 'head' ? { decidedBy: 'Sami Gorrie', method: 'email' } : {}),
+    expect: { head: 200, coach: 403, analyst: 403, athlete: 403, guardian: 200 },
+  },
+  {
+    route: 'POST /api/athletes/:id/consent/withdraw',
+    target: 'other family',
+    path: (i) => `/api/athletes/${i.signe}/consent/withdraw`,
+    expect: { head: 400, coach: 403, analyst: 403, athlete: 404, guardian: 404 },
+  },
+  {
+    route: 'POST /api/athletes/:id/consent/restore',
+    target: 'withdrawn just before',
+    path: (i, role) =>
+      `/api/athletes/${role === 'head' ? i.withdrawByHead : role === 'guardian' ? i.finn : i.elsie}/consent/restore`,
+    body: (_i, role) => (role === 'head' ? { decidedBy: 'Sami Gorrie', method: 'email' } : {}),
+    expect: { head: 200, coach: 403, analyst: 403, athlete: 403, guardian: 200 },
+  },
+  {
+    route: 'PUT /api/athletes/:id/guardians/:guardianId/access',
+    target: 'a minor: the choice comes at 18',
+    path: (i) => `/api/athletes/${i.elsie}/guardians/${i.guardianUser}/access`,
+    body: () => ({ keep: false }),
+    expect: all(403),
+  },
+  {
+    route: 'POST /api/athletes/:id/export-link',
+    target: 'own record / own child',
+    path: (i) => `/api/athletes/${i.elsie}/export-link`,
+    expect: { head: 200, coach: 403, analyst: 403, athlete: 200, guardian: 200 },
+  },
+  {
+    route: 'POST /api/athletes/:id/export-link',
+    target: 'other group',
+    path: (i) => `/api/athletes/${i.signe}/export-link`,
+    expect: { head: 200, coach: 403, analyst: 403, athlete: 404, guardian: 404 },
+  },
+  {
+    route: 'GET /api/athletes/:id/export.zip',
+    target: 'own record / own child',
+    path: (i) => `/api/athletes/${i.elsie}/export.zip`,
+    expect: { head: 200, coach: 403, analyst: 403, athlete: 200, guardian: 200 },
+  },
+  {
+    route: 'GET /api/athletes/:id/export.zip',
+    target: 'other group',
+    path: (i) => `/api/athletes/${i.signe}/export.zip`,
+    expect: { head: 200, coach: 403, analyst: 403, athlete: 404, guardian: 404 },
+  },
+  {
+    route: 'GET /api/club/privacy',
+    target: 'club',
+    path: () => '/api/club/privacy',
+    expect: { ...all(403), head: 200 },
+  },
+  {
+    route: 'PUT /api/club/privacy',
+    target: 'club',
+    path: () => '/api/club/privacy',
+    body: () => ({ consentGraceDays: 30, retentionDaysAfterSeason: 365 }),
+    expect: { ...all(403), head: 200 },
   },
   {
     route: 'DELETE /api/athletes/:id',
@@ -880,6 +980,40 @@ beforeAll(async () => {
     toPublish[r] = await review(clips.clipElsie, base.elsie, false);
     toWithdraw[r] = await review(clips.clipElsie, base.elsie, true);
   }
+  const withdrawByHead = (
+    await post('/api/athletes', {
+      firstName: 'Mae',
+      lastName: 'Withdrawing',
+      birthYear: 2013,
+      ageGroupId: base.u14,
+    })
+  ).athlete.id as string;
+  const consented = await server.http
+    .post(`/api/athletes/${withdrawByHead}/consent`)
+    .set(await server.bearer('head'))
+    .send({ guardianName: 'Sami Gorrie', method: 'signed_form' });
+  if (consented.status !== 200) throw new Error(`seed consent: ${consented.status}`);
+  const guardianMe = await server.http.get('/api/me').set(await server.bearer('guardian'));
+  const withdrawnAthlete = (
+    await post('/api/athletes', {
+      firstName: 'Wyn',
+      lastName: 'Withdrawn',
+      birthYear: 2013,
+      ageGroupId: base.u14,
+    })
+  ).athlete.id as string;
+  const consentWyn = await server.http
+    .post(`/api/athletes/${withdrawnAthlete}/consent`)
+    .set(await server.bearer('head'))
+    .send({ guardianName: 'Pat Withdrawn', method: 'email' });
+  if (consentWyn.status !== 200) throw new Error(`seed consent: ${consentWyn.status}`);
+  const clipWithdrawn = await seedClip(s1, withdrawnAthlete);
+  await server.runtime.mediaQueue.idle();
+  const withdrawn = await server.http
+    .post(`/api/athletes/${withdrawnAthlete}/consent/withdraw`)
+    .set(await server.bearer('head'))
+    .send({ decidedBy: 'Pat Withdrawn', method: 'email' });
+  if (withdrawn.status !== 200) throw new Error(`seed withdrawal: ${withdrawn.status}`);
   const eraseAthlete = (
     await post('/api/athletes', {
       firstName: 'Ola',
@@ -890,6 +1024,10 @@ beforeAll(async () => {
   ).athlete.id;
   const reviews = {
     eraseAthlete,
+    withdrawByHead,
+    finn: await server.athleteId('Finn'),
+    guardianUser: guardianMe.body.user.id as string,
+    clipWithdrawn,
     reviewElsie: await review(clips.clipElsie, base.elsie, true),
     reviewSigne: await review(clips.clipSigne, base.signe, true),
     reviewDraft: await review(clips.clipElsie, base.elsie, false),

@@ -138,3 +138,19 @@ export async function shareWithAthlete(
     throw new Error(`publish: ${published.status} ${JSON.stringify(published.body)}`);
   return id;
 }
+
+/** Every row of every table that mentions the text, as "table: row" (erasure leaves none). */
+export async function rowsMentioning(server: TestServer, text: string): Promise<string[]> {
+  const ds = server.runtime.dataSource;
+  const tables = (await ds.query(
+    "SELECT name FROM sqlite_master WHERE type = 'table' AND name NOT LIKE 'sqlite_%'",
+  )) as { name: string }[];
+  const found: string[] = [];
+  for (const { name } of tables) {
+    for (const row of (await ds.query(`SELECT * FROM "${name}"`)) as Record<string, unknown>[]) {
+      const json = JSON.stringify(row);
+      if (json.includes(text)) found.push(`${name}: ${json.slice(0, 160)}`);
+    }
+  }
+  return found;
+}

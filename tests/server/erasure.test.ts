@@ -2,7 +2,14 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { ClipDto } from '@shared/schemas/clip.schema';
 import { createTestServer, type TestServer } from '../helpers/server-harness';
 import { clip as syntheticClip } from '../shared/series/synthetic-clip';
-import { removeRenderedVideos, renderVideo, settled, shareWithAthlete, uploadClip } from './clip-fixtures';
+import {
+  removeRenderedVideos,
+  renderVideo,
+  rowsMentioning as rowsMentioningIn,
+  settled,
+  shareWithAthlete,
+  uploadClip,
+} from './clip-fixtures';
 
 // Erasure on request, of a clip and of an athlete: afterwards no row of any table and no object in the
 // store refers to what was erased, and the audit keeps who erased what kind of record and when, with no
@@ -16,21 +23,7 @@ let elsie: string;
 let sessionId: string;
 let videoPath: string;
 
-/** Every row of every table that mentions the text, as "table: row". */
-async function rowsMentioning(text: string): Promise<string[]> {
-  const ds = server.runtime.dataSource;
-  const tables = (await ds.query(
-    "SELECT name FROM sqlite_master WHERE type = 'table' AND name NOT LIKE 'sqlite_%'",
-  )) as { name: string }[];
-  const found: string[] = [];
-  for (const { name } of tables) {
-    for (const row of (await ds.query(`SELECT * FROM "${name}"`)) as Record<string, unknown>[]) {
-      const json = JSON.stringify(row);
-      if (json.includes(text)) found.push(`${name}: ${json.slice(0, 160)}`);
-    }
-  }
-  return found;
-}
+const rowsMentioning = (text: string) => rowsMentioningIn(server, text);
 
 /** A clip of Elsie with everything a clip gathers: frames, turns, flags, a note, a review, a still. */
 async function fullClip(role: 'coach' | 'head' = 'coach'): Promise<ClipDto> {
