@@ -34,6 +34,9 @@ export const ConsentEventEntity = new EntitySchema<ConsentEvent>({
     recordedByRole: { type: 'varchar', length: 12 },
     at: timestampColumn,
   },
-  foreignKeys: [foreignKey('Athlete', 'athleteId', 'CASCADE'), foreignKey('User', 'recordedById', 'SET NULL')],
+  foreignKeys: [
+    foreignKey('Athlete', 'athleteId', 'CASCADE'),
+    foreignKey('User', 'recordedById', 'SET NULL'),
+  ],
   indices: [{ name: 'IDX_consent_event_athlete', columns: ['athleteId', 'at'] }],
 });

@@ -125,13 +125,24 @@ export function retentionNoticeMail(opts: {
     'Frames, flags, notes and reviews of those clips go with them. Athletes and guardians can download their data before then from their Home page.',
     'To keep them longer, change how long clips are kept after a season ends:',
   ];
-  const text = [`Hello ${opts.recipientName},`, '', ...lines.slice(0, 2), '', `${lines[2]} ${opts.link}`].join('\n');
+  const text = [
+    `Hello ${opts.recipientName},`,
+    '',
+    ...lines.slice(0, 2),
+    '',
+    `${lines[2]} ${opts.link}`,
+  ].join('\n');
   const html = [
     `<p>Hello ${escapeHtml(opts.recipientName)},</p>`,
     ...lines.slice(0, 2).map((l) => `<p>${escapeHtml(l)}</p>`),
     `<p><a href="${escapeHtml(opts.link)}">Change the retention setting</a></p>`,
   ].join('\n');
-  return { to: opts.to, subject: `Clips of season ${opts.seasonName} will be erased on ${opts.erasesOn}`, text, html };
+  return {
+    to: opts.to,
+    subject: `Clips of season ${opts.seasonName} will be erased on ${opts.erasesOn}`,
+    text,
+    html,
+  };
 }
 
 /** To the head coach when a guardian or an adult athlete withdraws consent in the app. */
@@ -144,7 +155,13 @@ export function consentWithdrawnMail(opts: {
   link: string;
 }): OutgoingMail {
   const body = `${opts.decidedBy} withdrew consent for ${opts.athleteName}. Their clips and reviews are hidden from everyone but you, and will be erased on ${opts.erasesOn} unless consent is restored before then.`;
-  const text = [`Hello ${opts.recipientName},`, '', body, '', `The athlete's consent record: ${opts.link}`].join('\n');
+  const text = [
+    `Hello ${opts.recipientName},`,
+    '',
+    body,
+    '',
+    `The athlete's consent record: ${opts.link}`,
+  ].join('\n');
   const html = [
     `<p>Hello ${escapeHtml(opts.recipientName)},</p>`,
     `<p>${escapeHtml(body)}</p>`,

@@ -7,7 +7,12 @@ import type { Permission } from '@shared/access/permissions';
 import type { AccessService } from '../services/access.service';
 import type { AuthService } from '../services/auth.service';
 import type { Principal } from '../services/principal';
-import { ACCESS_AUDIENCE, athleteExportScope, TOKEN_ISSUER, type TokenService } from '../services/token.service';
+import {
+  ACCESS_AUDIENCE,
+  athleteExportScope,
+  TOKEN_ISSUER,
+  type TokenService,
+} from '../services/token.service';
 
 function tokenFailure(info: unknown): HttpError {
   if (info instanceof jwt.TokenExpiredError) {
@@ -80,29 +85,35 @@ export function createAuthMiddleware(deps: {
   const authenticateSigned =
     (scopeOf: (req: Request) => string, what: string): RequestHandler =>
     (req: Request, res: Response, next: NextFunction) => {
-    const token = typeof req.query.token === 'string' ? req.query.token : undefined;
-    if (!token) return authenticate(req, res, next);
-    let claims;
-    try {
-      claims = deps.tokens.verifyMedia(token);
-    } catch (error) {
-      if (error instanceof jwt.TokenExpiredError) {
-        return next(unauthorized('media_token_expired', `The ${what} link expired; ${what === 'media' ? 'reload the clip' : 'ask for the download again'}`));
+      const token = typeof req.query.token === 'string' ? req.query.token : undefined;
+      if (!token) return authenticate(req, res, next);
+      let claims;
+      try {
+        claims = deps.tokens.verifyMedia(token);
+      } catch (error) {
+        if (error instanceof jwt.TokenExpiredError) {
+          return next(
+            unauthorized(
+              'media_token_expired',
+              `The ${what} link expired; ${what === 'media' ? 'reload the clip' : 'ask for the download again'}`,
+            ),
+          );
+        }
+        return next(unauthorized('invalid_media_token', `The ${what} link is not valid`));
       }
-      return next(unauthorized('invalid_media_token', `The ${what} link is not valid`));
-    }
-    if (claims.clip !== scopeOf(req)) {
-      return next(unauthorized('invalid_media_token', `The ${what} link is for something else`));
-    }
-    deps.auth
-      .loadPrincipal(claims.sub, claims.ver, claims.sid)
-      .then((principal) => {
-        if (!principal) return next(unauthorized('invalid_media_token', 'The media link is no longer valid'));
-        req.principal = principal;
-        next();
-      })
-      .catch(next);
-  };
+      if (claims.clip !== scopeOf(req)) {
+        return next(unauthorized('invalid_media_token', `The ${what} link is for something else`));
+      }
+      deps.auth
+        .loadPrincipal(claims.sub, claims.ver, claims.sid)
+        .then((principal) => {
+          if (!principal)
+            return next(unauthorized('invalid_media_token', 'The media link is no longer valid'));
+          req.principal = principal;
+          next();
+        })
+        .catch(next);
+    };
 
   const authorize =
     (permission: Permission): RequestHandler =>
@@ -113,7 +124,10 @@ export function createAuthMiddleware(deps: {
     };
 
   const authenticateMedia = authenticateSigned((req) => String(req.params.id), 'media');
-  const authenticateExport = authenticateSigned((req) => athleteExportScope(String(req.params.id)), 'download');
+  const authenticateExport = authenticateSigned(
+    (req) => athleteExportScope(String(req.params.id)),
+    'download',
+  );
 
   return { authenticate, authenticateMedia, authenticateExport, authorize };
 }

@@ -12,7 +12,9 @@ export class ConsentLifecycle1796300000000 implements MigrationInterface {
     await queryRunner.query(
       `CREATE TABLE "consent_event" ("id" varchar(36) PRIMARY KEY NOT NULL, "athleteId" varchar(36) NOT NULL, "action" varchar(20) NOT NULL, "purposes" text NOT NULL, "decidedBy" varchar(120) NOT NULL, "method" varchar(20), "recordedById" varchar(36), "recordedByRole" varchar(12) NOT NULL, "at" datetime NOT NULL, CONSTRAINT "FK_d5f0b9985e8a4071591c1717068" FOREIGN KEY ("athleteId") REFERENCES "athlete" ("id") ON DELETE CASCADE ON UPDATE NO ACTION, CONSTRAINT "FK_8d1ba682be7c79d13d1f8e9d792" FOREIGN KEY ("recordedById") REFERENCES "user" ("id") ON DELETE SET NULL ON UPDATE NO ACTION)`,
     );
-    await queryRunner.query(`CREATE INDEX "IDX_consent_event_athlete" ON "consent_event" ("athleteId", "at") `);
+    await queryRunner.query(
+      `CREATE INDEX "IDX_consent_event_athlete" ON "consent_event" ("athleteId", "at") `,
+    );
     await queryRunner.query(`ALTER TABLE "club" ADD COLUMN "consentGraceDays" integer NOT NULL DEFAULT (30)`);
     await queryRunner.query(`ALTER TABLE "club" ADD COLUMN "retentionDaysAfterSeason" integer DEFAULT (365)`);
     await queryRunner.query(

@@ -92,7 +92,10 @@ export class AthleteRepository {
 
   /** Ids of the clips an athlete is tagged in. */
   async clipIdsOf(athleteId: string): Promise<string[]> {
-    const rows = await this.manager.find(ClipAthleteEntity, { select: { clipId: true }, where: { athleteId } });
+    const rows = await this.manager.find(ClipAthleteEntity, {
+      select: { clipId: true },
+      where: { athleteId },
+    });
     return rows.map((r) => r.clipId);
   }
 

@@ -36,7 +36,10 @@ export class UserRepository {
   }
 
   headCoachesOf(clubId: string): Promise<User[]> {
-    return this.manager.find(UserEntity, { where: { clubId, role: 'head_coach' }, order: { createdAt: 'ASC' } });
+    return this.manager.find(UserEntity, {
+      where: { clubId, role: 'head_coach' },
+      order: { createdAt: 'ASC' },
+    });
   }
 
   findByEmail(email: string): Promise<User | null> {

@@ -50,7 +50,11 @@ export function privacyRoutes(ctx: RouteContext): Router {
       validate({ params: athleteParams, body: consentDecisionSchema }),
       async (req, res) => {
         res.json(
-          await ctx.consent[action](principalOf(req), req.params.id as string, req.body as ConsentDecisionInput),
+          await ctx.consent[action](
+            principalOf(req),
+            req.params.id as string,
+            req.body as ConsentDecisionInput,
+          ),
         );
       },
     );

@@ -52,7 +52,13 @@ export class AuthService {
     if (typeof sessionId !== 'string' || !(await auth.isSessionLive(sessionId, userId, this.clock.now()))) {
       return null;
     }
-    return { user, role: user.role, clubId: user.clubId, ...(await this.linksOf(this.uow.repos, user)), sessionId };
+    return {
+      user,
+      role: user.role,
+      clubId: user.clubId,
+      ...(await this.linksOf(this.uow.repos, user)),
+      sessionId,
+    };
   }
 
   async login(input: LoginInput): Promise<SignedIn> {

@@ -96,7 +96,10 @@ export class ConsentService {
     const status = consentStatus(athlete, now);
     if (status === 'withdrawn') throw conflict('consent_withdrawn', 'Consent is withdrawn already');
     if (status === 'missing')
-      throw conflict('no_consent', `No consent for ${athlete.firstName} is on record, so none can be withdrawn`);
+      throw conflict(
+        'no_consent',
+        `No consent for ${athlete.firstName} is on record, so none can be withdrawn`,
+      );
     const club = await uow.repos.club.findById(athlete.clubId);
     const graceDays = club?.consentGraceDays ?? 30;
     const patch: Partial<Athlete> = {

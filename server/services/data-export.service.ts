@@ -110,7 +110,8 @@ export class DataExportService {
     const sessions = new Map(
       (await this.uow.repos.sessions.findByIds(clips.map((c) => c.sessionId))).map((s) => [s.id, s]),
     );
-    const dateOf = (clip: Clip) => sessions.get(clip.sessionId)?.date ?? clip.createdAt.toISOString().slice(0, 10);
+    const dateOf = (clip: Clip) =>
+      sessions.get(clip.sessionId)?.date ?? clip.createdAt.toISOString().slice(0, 10);
     const folders = new Map(clips.map((c) => [c.id, clipFolder(c, dateOf(c))]));
 
     await add(JSON.stringify(await this.records(plan, folders, dateOf), null, 2), 'athlete.json');
@@ -127,7 +128,13 @@ export class DataExportService {
       if (stopped()) break;
       const csv = new PassThrough();
       await add(csv, `${kind}.csv`, () =>
-        this.exports.write({ clips: exportClips, firstAthletes }, kind, { values: 'raw', metrics: undefined }, csv, stopped),
+        this.exports.write(
+          { clips: exportClips, firstAthletes },
+          kind,
+          { values: 'raw', metrics: undefined },
+          csv,
+          stopped,
+        ),
       );
     }
 
@@ -140,7 +147,12 @@ export class DataExportService {
           notes.map((n) => n.authorId).filter((id): id is string => id !== null),
         );
         const vtt = notesToWebVtt(
-          notes.map((n) => ({ id: n.id, timeMs: n.timeMs, text: n.body, author: names.get(n.authorId ?? '') ?? null })),
+          notes.map((n) => ({
+            id: n.id,
+            timeMs: n.timeMs,
+            text: n.body,
+            author: names.get(n.authorId ?? '') ?? null,
+          })),
           clip.durationMs,
         );
         await add(vtt, `clips/${folder}/notes.vtt`);
@@ -171,10 +183,9 @@ export class DataExportService {
     const events = await repos.athletes.consentEvents(athlete.id);
     const reviews = await repos.reviews.list({ clubId: athlete.clubId, athleteIds: [athlete.id] });
     const seasons = await repos.plans.listSeasons(athlete.clubId);
-    const userIds = [
-      ...events.map((e) => e.recordedById),
-      ...reviews.map((r) => r.createdById),
-    ].filter((id): id is string => id !== null);
+    const userIds = [...events.map((e) => e.recordedById), ...reviews.map((r) => r.createdById)].filter(
+      (id): id is string => id !== null,
+    );
     const names = await repos.users.namesByIds(userIds);
     const sessions = new Map(
       (await repos.sessions.findByIds(clips.map((c) => c.sessionId))).map((s) => [s.id, s]),

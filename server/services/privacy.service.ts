@@ -112,7 +112,13 @@ export class PrivacyService {
   }
 
   /** Tells the club's head coaches that consent was withdrawn in the app (a coach's record needs no notice). */
-  async noticeWithdrawal(clubId: string, athleteId: string, athleteName: string, decidedBy: string, due: Date) {
+  async noticeWithdrawal(
+    clubId: string,
+    athleteId: string,
+    athleteName: string,
+    decidedBy: string,
+    due: Date,
+  ) {
     const { uow, mailer, publicUrl } = this.deps;
     for (const head of await uow.repos.users.headCoachesOf(clubId)) {
       await mailer.send(
@@ -192,9 +198,15 @@ export class PrivacyService {
     }
 
     await uow.transaction((manager) =>
-      this.deps.audit.record(manager, { clubId: null, actorUserId: null, action: SWEEP_ACTION, details: { ...report } }),
+      this.deps.audit.record(manager, {
+        clubId: null,
+        actorUserId: null,
+        action: SWEEP_ACTION,
+        details: { ...report },
+      }),
     );
-    if (report.withdrawnClips + report.retentionClips + report.notices > 0) logger.info({ report }, 'privacy sweep');
+    if (report.withdrawnClips + report.retentionClips + report.notices > 0)
+      logger.info({ report }, 'privacy sweep');
     return report;
   }
 

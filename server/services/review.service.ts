@@ -172,20 +172,23 @@ export class ReviewService {
     });
     // Reviews of an athlete whose consent is withdrawn go out of sight with their clips.
     const reach = await this.deps.access.clipReach(principal);
-    return (await this.toDtos(principal, rows.filter((r) => reach.allows(r.clipId)))).map(
-      ({ id, clipId, clipName, athlete, title, status, publishedAt, updatedAt, author, unread }) => ({
-        id,
-        clipId,
-        clipName,
-        athlete,
-        title,
-        status,
-        publishedAt,
-        updatedAt,
-        author,
-        unread,
-      }),
-    );
+    return (
+      await this.toDtos(
+        principal,
+        rows.filter((r) => reach.allows(r.clipId)),
+      )
+    ).map(({ id, clipId, clipName, athlete, title, status, publishedAt, updatedAt, author, unread }) => ({
+      id,
+      clipId,
+      clipName,
+      athlete,
+      title,
+      status,
+      publishedAt,
+      updatedAt,
+      author,
+      unread,
+    }));
   }
 
   /** The review page: what the athlete sees. Opening a published review as its reader is a read receipt. */

@@ -50,7 +50,10 @@ export const privacySettingsSchema = z
       .min(0, 'The grace period cannot be negative')
       .max(MAX_GRACE_DAYS, `At most ${MAX_GRACE_DAYS} days`),
     retentionDaysAfterSeason: wholeDays('how long clips are kept')
-      .min(MIN_RETENTION_DAYS, `At least ${MIN_RETENTION_DAYS} days, so the head coach can be told a week before`)
+      .min(
+        MIN_RETENTION_DAYS,
+        `At least ${MIN_RETENTION_DAYS} days, so the head coach can be told a week before`,
+      )
       .max(MAX_RETENTION_DAYS, `At most ${MAX_RETENTION_DAYS} days`)
       .nullable(),
   })

@@ -46,7 +46,8 @@ const METHOD_WORDS: Record<string, string> = {
 function mayDecide(user: UserDto, athlete: AthleteDetailDto): boolean {
   if (!can(user.role, 'consent.decide')) return false;
   if (user.role === 'guardian') return athlete.consent.managedBy === 'guardian';
-  if (user.role === 'athlete') return athlete.consent.managedBy === 'athlete' && user.athleteId === athlete.id;
+  if (user.role === 'athlete')
+    return athlete.consent.managedBy === 'athlete' && user.athleteId === athlete.id;
   return true;
 }
 
@@ -134,7 +135,9 @@ function DecisionDialog({
           <div className="grid gap-3 sm:grid-cols-2">
             <TextField
               label="Whose request is it"
-              hint={athlete.consent.managedBy === 'athlete' ? 'The athlete, who is 18 or older' : 'A guardian'}
+              hint={
+                athlete.consent.managedBy === 'athlete' ? 'The athlete, who is 18 or older' : 'A guardian'
+              }
               value={decidedBy}
               onChange={(e) => setDecidedBy(e.target.value)}
             />
@@ -235,9 +238,9 @@ export function ConsentCard({ athlete, user }: { athlete: AthleteDetailDto; user
           <Notice tone="caution" title="Consent withdrawn">
             {consent.erasureDueAt ? (
               <p>
-                Withdrawn on {day(consent.withdrawnAt!)}. {athlete.firstName}’s clips and reviews are hidden from
-                everyone but the head coach and will be erased on <strong>{day(consent.erasureDueAt)}</strong>
-                , unless consent is restored before then.
+                Withdrawn on {day(consent.withdrawnAt!)}. {athlete.firstName}’s clips and reviews are hidden
+                from everyone but the head coach and will be erased on{' '}
+                <strong>{day(consent.erasureDueAt)}</strong>, unless consent is restored before then.
               </p>
             ) : (
               <p>
@@ -280,7 +283,10 @@ export function ConsentCard({ athlete, user }: { athlete: AthleteDetailDto; user
             </Button>
           ) : null}
           {decide && consent.status === 'withdrawn' ? (
-            <Button icon={<RotateCcw aria-hidden="true" className="h-4 w-4" />} onClick={() => setDialog('restore')}>
+            <Button
+              icon={<RotateCcw aria-hidden="true" className="h-4 w-4" />}
+              onClick={() => setDialog('restore')}
+            >
               Restore consent
             </Button>
           ) : null}

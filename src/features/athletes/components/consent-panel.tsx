@@ -28,7 +28,11 @@ function ConsentForm({ athlete }: { athlete: AthleteDetailDto }) {
     formState: { errors },
   } = useForm<z.input<typeof recordConsentSchema>, unknown, RecordConsentInput>({
     resolver: zodResolver(recordConsentSchema),
-    defaultValues: { guardianName: athlete.guardians[0]?.name ?? '', method: 'signed_form', shareByEmail: false },
+    defaultValues: {
+      guardianName: athlete.guardians[0]?.name ?? '',
+      method: 'signed_form',
+      shareByEmail: false,
+    },
   });
   const listId = `guardians-${athlete.id}`;
 

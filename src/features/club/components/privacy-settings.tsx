@@ -118,7 +118,11 @@ export function PrivacySettingsCard() {
       <div id="privacy" className="space-y-6">
         {settings.isPending ? <PageSpinner label="Loading privacy settings" /> : null}
         {settings.isError ? (
-          <QueryError error={settings.error} what="the privacy settings" retry={() => void settings.refetch()} />
+          <QueryError
+            error={settings.error}
+            what="the privacy settings"
+            retry={() => void settings.refetch()}
+          />
         ) : null}
         {settings.data ? (
           <>
@@ -128,7 +132,9 @@ export function PrivacySettingsCard() {
                 Clips by season
               </h3>
               {settings.data.seasons.length === 0 ? (
-                <p className="text-sm text-granite-600">No seasons yet; add one on an athlete’s season plan.</p>
+                <p className="text-sm text-granite-600">
+                  No seasons yet; add one on an athlete’s season plan.
+                </p>
               ) : (
                 <table className="w-full text-left text-sm">
                   <thead className="text-granite-600">
@@ -169,11 +175,15 @@ export function PrivacySettingsCard() {
                 <ul className="divide-y divide-granite-100 text-sm">
                   {settings.data.pendingErasures.map((p) => (
                     <li key={p.athleteId} className="flex flex-wrap justify-between gap-2 py-1.5">
-                      <Link className="font-medium text-glacier-700 hover:underline" to={paths.athlete.href(p.athleteId)}>
+                      <Link
+                        className="font-medium text-glacier-700 hover:underline"
+                        to={paths.athlete.href(p.athleteId)}
+                      >
                         {p.name}
                       </Link>
                       <span className="text-granite-600">
-                        {p.clips} {p.clips === 1 ? 'clip' : 'clips'}, erased on {formatDay(p.erasureDueAt.slice(0, 10))}
+                        {p.clips} {p.clips === 1 ? 'clip' : 'clips'}, erased on{' '}
+                        {formatDay(p.erasureDueAt.slice(0, 10))}
                       </span>
                     </li>
                   ))}

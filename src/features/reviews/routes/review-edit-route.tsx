@@ -135,8 +135,7 @@ function ReviewEditor({ review }: { review: ReviewDto }) {
                 icon={<Send aria-hidden="true" className="h-4 w-4" />}
                 onClick={() =>
                   publish.mutate(undefined, {
-                    onSuccess: (data) =>
-                      toast.success(publishedMessage(data.recipients)),
+                    onSuccess: (data) => toast.success(publishedMessage(data.recipients)),
                   })
                 }
               >
