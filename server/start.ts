@@ -11,6 +11,7 @@ import { seedDemoClub } from './seed/demo-seed';
 import { seedDemoBandChanges, seedDemoFlagReviews } from './seed/demo-standards';
 import { seedDemoSeasonPlan } from './seed/demo-plan';
 import { seedDemoReviews } from './seed/demo-reviews';
+import { seedDemoPrivacy } from './seed/demo-privacy';
 import { FrameStore } from './services/frame-store';
 import { StorageJanitor } from './services/storage-janitor';
 import { UnitOfWork } from './repositories/unit-of-work';
@@ -79,6 +80,7 @@ export async function startStanceline(opts: StartOptions = {}): Promise<StartedS
       await seedDemoFlagReviews(runtime.dataSource, opts.clock);
       await seedDemoSeasonPlan(runtime.dataSource, seeded.clubId, opts.clock);
       await seedDemoReviews(runtime.dataSource, seeded.clubId, opts.clock);
+      await seedDemoPrivacy(runtime.dataSource, seeded.clubId, opts.clock);
     }
     // What an earlier run left when it was killed mid-upload: scratch files, parts, unrecorded objects.
     const janitor = new StorageJanitor({

@@ -21,6 +21,9 @@ function signedInAs(user: UserDto, athlete: AthleteDetailDto) {
     http.get(`${ORIGIN}/api/athletes/:id`, () => HttpResponse.json({ athlete: record })),
     http.get(`${ORIGIN}/api/clips`, () => HttpResponse.json({ clips: [] })),
     http.get(`${ORIGIN}/api/flags`, () => HttpResponse.json({ flags: [], total: 0, page: 1, pageSize: 10 })),
+    http.get(`${ORIGIN}/api/athletes/:id/consent`, () =>
+      HttpResponse.json({ events: [], guardianAccess: [] }),
+    ),
     http.post(`${ORIGIN}/api/athletes/:id/consent`, async ({ request }) => {
       const body = (await request.json()) as { guardianName: string };
       consentBodies.push(body);
@@ -63,11 +66,15 @@ describe('athlete page', () => {
     expect((within(form).getByLabelText('Guardian who gave consent') as HTMLInputElement).value).toBe(
       'Rowan Fairweather',
     );
+    // The second purpose is asked separately, and left unticked unless the guardian agreed.
+    await user.click(within(form).getByRole('checkbox', { name: /reviews being sent by e-mail/ }));
     await user.click(within(form).getByRole('button', { name: 'Record consent' }));
 
     expect(await screen.findByText('Consent recorded for Juno.')).toBeTruthy();
     expect(screen.queryByText('Guardian consent not recorded')).toBeNull();
-    expect(bodies).toEqual([{ guardianName: 'Rowan Fairweather', method: 'signed_form' }]);
+    expect(bodies).toEqual([
+      { guardianName: 'Rowan Fairweather', method: 'signed_form', shareByEmail: true },
+    ]);
     expect(screen.getByRole('link', { name: 'Upload clips' })).toBeTruthy();
   });
 
