@@ -21,12 +21,18 @@ export interface CodebookColumn {
 }
 
 /** Unit suffix of a metric column: `kneeFlexionLeft_deg`, `stanceWidthRatio_ratio`, `foreAftOffset_shin`. */
-export const UNIT_SUFFIX: Record<MetricUnit, string> = { deg: 'deg', ratio: 'ratio', 'shin lengths': 'shin' };
+export const UNIT_SUFFIX: Record<MetricUnit, string> = {
+  deg: 'deg',
+  ratio: 'ratio',
+  'shin lengths': 'shin',
+  'hip widths': 'hipw',
+};
 
 const UNIT_WORDS: Record<MetricUnit, string> = {
   deg: 'degrees',
   ratio: 'ratio (no unit)',
   'shin lengths': 'shin lengths (knee-to-ankle distance)',
+  'hip widths': 'hip widths (distance between the hip points)',
 };
 
 /** The sign of each metric, as docs/metrics.md states it. */
@@ -44,6 +50,7 @@ export const METRIC_SIGNS: Record<MetricKey, string> = {
   ankleFlexionDifference: '+ = left ankle more flexed',
   foreAftOffset: '+ = left foot ahead',
   legExtension: '1 = fully straight, less = bent',
+  standHeight: 'larger = standing taller; about 3.3 for straight legs',
   stanceWidthRatio: '1 = feet as wide as the hips',
   kneeSeparationRatio: '1 = knees as wide as the hips, below = knees pinched in',
   shoulderTilt: '+ = left shoulder higher',

@@ -14,6 +14,7 @@ export type MetricKey =
   | 'ankleFlexionDifference'
   | 'foreAftOffset'
   | 'legExtension'
+  | 'standHeight'
   | 'stanceWidthRatio'
   | 'kneeSeparationRatio'
   | 'shoulderTilt'
@@ -24,7 +25,7 @@ export type MetricKey =
   | 'kneeAngulation'
   | 'comForeAft';
 
-export type MetricUnit = 'deg' | 'ratio' | 'shin lengths';
+export type MetricUnit = 'deg' | 'ratio' | 'shin lengths' | 'hip widths';
 
 export interface MetricDefinition {
   key: MetricKey;
@@ -164,6 +165,14 @@ export const METRIC_DEFINITIONS: Record<MetricKey, MetricDefinition> = {
     ['front', 'side'],
     [...LEFT_LEG, ...RIGHT_LEG],
     'Hip–ankle distance over thigh plus shin length, mean of the legs; 1 = fully straight.',
+  ),
+  standHeight: def(
+    'standHeight',
+    'Standing height',
+    'hip widths',
+    FRONT,
+    [...HIPS, ...ANKLES],
+    'Ankle midpoint to hip midpoint over hip width, seen from the front; larger = standing taller.',
   ),
   stanceWidthRatio: def(
     'stanceWidthRatio',

@@ -20,7 +20,7 @@ import {
 import { METRIC_DEFINITIONS, METRIC_KEYS, type MetricKey } from './definitions';
 import { MetricUnavailable, PointReader, PosePoints } from './pose-points';
 import { SEGMENT_TABLES, type SegmentTableName } from './segment-table';
-import { detectFacing, type Facing } from './view-detection';
+import { detectFacing, viewDistrust, type Facing } from './view-detection';
 
 export interface FrameMetrics {
   metrics: Record<MetricKey, number | null>;
@@ -149,6 +149,18 @@ function legExtension(c: Context): number {
   });
 }
 
+/**
+ * How tall the skier stands, seen from the front: the ankle-midpoint→hip-midpoint distance (along the
+ * leg axis, whatever its lean) over hip width. Flexing the legs shortens it (thighs and shins point at
+ * the camera); leaning into the turn turns it in the image plane without changing it; the skier's
+ * distance from the camera scales both lengths alike.
+ */
+function standHeight(c: Context): number {
+  const leg = distance(c.r.pair('left_hip', 'right_hip'), c.r.pair('left_ankle', 'right_ankle'));
+  const hipWidth = distance(c.r.get('left_hip'), c.r.get('right_hip'));
+  return need(hipWidth > 0 ? leg / hipWidth : null, 'hips not separated');
+}
+
 function separationRatio(c: Context, part: 'ankle' | 'knee'): number {
   const hipLine = sub(c.r.get('left_hip'), c.r.get('right_hip'));
   const u = normalize(hipLine);
@@ -242,6 +254,7 @@ const COMPUTE: Record<MetricKey, (c: Context) => number> = {
   ankleFlexionDifference: (c) => ankleFlexion(c, 'left') - ankleFlexion(c, 'right'),
   foreAftOffset,
   legExtension,
+  standHeight,
   stanceWidthRatio: (c) => separationRatio(c, 'ankle'),
   kneeSeparationRatio: (c) => separationRatio(c, 'knee'),
   shoulderTilt: (c) => tilt(c, 'shoulder'),
@@ -268,10 +281,18 @@ export function computeFrameMetrics(input: FrameInput, options: FrameMetricOptio
     notes: {},
     facing,
   };
+  // A camera far from the view the clip says (a front clip seen from the side, a side clip seen
+  // three-quarters on) makes that view's numbers wrong by an unknown amount: no number, the reason.
+  const distrust = viewDistrust(points, input.view);
   for (const key of METRIC_KEYS) {
     result.metrics[key] = null;
-    if (!METRIC_DEFINITIONS[key].views.includes(input.view)) {
+    const views = METRIC_DEFINITIONS[key].views;
+    if (!views.includes(input.view)) {
       result.reasons[key] = 'wrong view';
+      continue;
+    }
+    if (distrust && views.length === 1) {
+      result.reasons[key] = distrust;
       continue;
     }
     const reader = new PointReader(points);

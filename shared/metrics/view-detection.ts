@@ -11,21 +11,52 @@ export type Facing = 'left' | 'right';
  */
 export const FRONT_WIDTH_THRESHOLD = 0.35;
 
-/** Suggests front or side view from body widths; confidence 0 means "could not tell". */
-export function suggestView(keypoints: Keypoint[]): { view: View; confidence: number } {
-  const p = new PosePoints(keypoints);
+/**
+ * Below this body width (torso lengths) a front-view number is not trusted: the camera is more than
+ * about 48° off the skier's front (the phantom and MoveNet read 0.52 to 0.61 front-on, and width
+ * shrinks with the cosine of the turn: 0.57 × cos 48° ≈ 0.38). docs/metrics.md, "Trusting a number".
+ */
+export const FRONT_TRUST_MIN_WIDTH = 0.38;
+/**
+ * Above this body width a side-view number is not trusted: the camera is more than about 26° off the
+ * skier's side (0.57 × cos 64° ≈ 0.25); a three-quarter view reads about 0.40.
+ */
+export const SIDE_TRUST_MAX_WIDTH = 0.25;
+
+/** Mean of shoulder and hip width over torso length; null when a point is missing or the torso has no length. */
+export function bodyWidthRatio(keypoints: Keypoint[] | PosePoints): number | null {
+  const p = keypoints instanceof PosePoints ? keypoints : new PosePoints(keypoints);
   const pt = (n: KeypointName): Vec2 => p.record(n).point;
   const pairs: [KeypointName, KeypointName][] = [
     ['left_shoulder', 'right_shoulder'],
     ['left_hip', 'right_hip'],
   ];
-  if (!pairs.every(([l, r]) => p.has(l) && p.has(r))) return { view: 'front', confidence: 0 };
+  if (!pairs.every(([l, r]) => p.has(l) && p.has(r))) return null;
   const shoulderMid = midpoint(pt('left_shoulder'), pt('right_shoulder'));
   const hipMid = midpoint(pt('left_hip'), pt('right_hip'));
   const torso = distance(shoulderMid, hipMid);
-  if (torso === 0) return { view: 'front', confidence: 0 };
-  const width = mean(pairs.map(([l, r]) => ({ x: distance(pt(l), pt(r)), y: 0 })))!.x;
-  const ratio = width / torso;
+  if (torso === 0) return null;
+  return mean(pairs.map(([l, r]) => ({ x: distance(pt(l), pt(r)), y: 0 })))!.x / torso;
+}
+
+/**
+ * Why this frame's numbers of the clip's view should not be trusted, or null when the camera sees the
+ * skier as that view needs (or the widths cannot be measured, which other reasons already cover).
+ */
+export function viewDistrust(points: Keypoint[] | PosePoints, view: View): string | null {
+  const ratio = bodyWidthRatio(points);
+  if (ratio === null) return null;
+  if (view === 'front' && ratio < FRONT_TRUST_MIN_WIDTH)
+    return `not trusted: seen from the side (body ${ratio.toFixed(2)} torso lengths wide, a front view needs ${FRONT_TRUST_MIN_WIDTH})`;
+  if (view === 'side' && ratio > SIDE_TRUST_MAX_WIDTH)
+    return `not trusted: seen three-quarters on (body ${ratio.toFixed(2)} torso lengths wide, a side view needs at most ${SIDE_TRUST_MAX_WIDTH})`;
+  return null;
+}
+
+/** Suggests front or side view from body widths; confidence 0 means "could not tell". */
+export function suggestView(keypoints: Keypoint[]): { view: View; confidence: number } {
+  const ratio = bodyWidthRatio(keypoints);
+  if (ratio === null) return { view: 'front', confidence: 0 };
   const confidence = Math.min(1, Math.abs(ratio - FRONT_WIDTH_THRESHOLD) / FRONT_WIDTH_THRESHOLD);
   return { view: ratio >= FRONT_WIDTH_THRESHOLD ? 'front' : 'side', confidence };
 }

@@ -64,7 +64,7 @@ export interface Turn {
   complete: boolean;
   insideSide: 'left' | 'right';
   apexValues: Record<MetricKey, number | null>;
-  /** legExtension at the transition ending this turn minus its value at this turn's apex. */
+  /** standHeight at the transition ending this turn over its value at this turn's apex, minus 1. */
   transitionRise: number | null;
   /** shoulderTilt at the apex, positive when the inside shoulder is lower. */
   insideShoulderDrop: number | null;
@@ -227,12 +227,12 @@ export function analyzeSeries(input: SeriesFrameInput[], options: SeriesOptions)
     for (const span of seg.turns) {
       const apex = out[span.apex];
       const side = span.direction > 0 ? 'left' : 'right';
+      // Seen from the front the legs' bend shows as a shorter ankle-to-hip distance, so the rise is
+      // how much taller the skier stands at the transition than at the apex, as a share of the latter.
+      const atEnd = out[span.end].metrics.standHeight;
+      const atApex = apex.metrics.standHeight;
       const rise =
-        span.endsAtTransition &&
-        out[span.end].metrics.legExtension !== null &&
-        apex.metrics.legExtension !== null
-          ? out[span.end].metrics.legExtension! - apex.metrics.legExtension!
-          : null;
+        span.endsAtTransition && atEnd !== null && atApex !== null && atApex > 0 ? atEnd / atApex - 1 : null;
       const tilt = apex.metrics.shoulderTilt;
       const foreAft = apex.metrics.foreAftOffset;
       turns.push({

@@ -53,6 +53,8 @@ export function formatUnitValue(value: number, unit: MetricUnit): string {
       return value.toFixed(2);
     case 'shin lengths':
       return `${value.toFixed(2)} shin lengths`;
+    case 'hip widths':
+      return `${value.toFixed(2)} hip widths`;
   }
 }
 
@@ -88,7 +90,7 @@ const signed = (positive: string, negative: string, unit: MetricUnit): Words => 
 };
 
 const READOUT_OF_TURN_VALUE: Record<TurnValueKey, MetricKey> = {
-  transitionRise: 'legExtension',
+  transitionRise: 'standHeight',
   apexInclination: 'inclination',
   apexAngulation: 'angulation',
   insideShoulderDrop: 'shoulderTilt',
@@ -162,6 +164,10 @@ function buildCatalogue(): Record<BandMetricKey, BandMetricInfo> {
   frame.legExtension = frameMetric('legExtension', [0, 1], {
     below: (v) => `legs more bent (extension under ${v})`,
     above: (v) => `legs straighter (extension over ${v})`,
+  });
+  frame.standHeight = frameMetric('standHeight', [0, 10], {
+    below: (v) => `standing lower than ${v}`,
+    above: (v) => `standing taller than ${v}`,
   });
   frame.stanceWidthRatio = frameMetric('stanceWidthRatio', [-5, 5], {
     below: (v) => `feet closer together than ${v} of hip width`,

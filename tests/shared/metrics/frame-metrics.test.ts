@@ -46,6 +46,7 @@ describe('metric table', () => {
       'ankleFlexionDifference',
       'foreAftOffset',
       'legExtension',
+      'standHeight',
       'stanceWidthRatio',
       'kneeSeparationRatio',
       'shoulderTilt',

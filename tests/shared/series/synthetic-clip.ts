@@ -10,13 +10,22 @@ export interface PoseSpec {
   legExtension: number;
   /** Shoulder line against the horizontal, + left shoulder higher. */
   shoulderTiltDeg: number;
+  /** Ankle-mid → hip-mid distance over hip width (the front view's standing height); default 4. */
+  standHeight?: number;
 }
 
 const rad = (d: number) => (d * Math.PI) / 180;
 
-export function frontPose({ inclinationDeg, legExtension, shoulderTiltDeg }: PoseSpec): Pose {
+export function frontPose({
+  inclinationDeg,
+  legExtension,
+  shoulderTiltDeg,
+  standHeight = 4,
+}: PoseSpec): Pose {
   const i = rad(inclinationDeg);
-  const hipMid: [number, number] = [80 * Math.sin(i), 80 * Math.cos(i)];
+  // Hips 20 apart, so the hip midpoint sits standHeight × 20 from the ankle midpoint.
+  const leg = standHeight * 20;
+  const hipMid: [number, number] = [leg * Math.sin(i), leg * Math.cos(i)];
   const pose: Pose = {
     left_ankle: [15, 0],
     right_ankle: [-15, 0],

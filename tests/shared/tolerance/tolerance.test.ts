@@ -94,10 +94,12 @@ describe('evaluateFrame', () => {
 
 describe('groupFlags: one flag per habit and turn', () => {
   it('flags a transition rise above 0.05 once per turn, and a stance held outside its band once per turn', () => {
-    // Legs 0.85 in the turns and 0.93 at each transition: a rise of 0.08, 0.03 over the band.
+    // Standing 4.0 hip widths tall in the turns and 4.32 at each transition: a rise of 0.08, 0.03 over
+    // the band.
     const frames = clip(88, 25, (t) => ({
       inclinationDeg: 20 * Math.sin((2 * Math.PI * (t + 250)) / 2000),
-      legExtension: [750, 1750, 2750].some((c) => Math.abs(t - c) <= 80) ? 0.93 : 0.85,
+      legExtension: 0.85,
+      standHeight: [750, 1750, 2750].some((c) => Math.abs(t - c) <= 80) ? 4.32 : 4.0,
       shoulderTiltDeg: 0,
     }));
     const result = analyzeSeries(frames, { view: 'front', fps: 25, filter: { kind: 'none' } });

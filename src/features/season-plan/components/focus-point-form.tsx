@@ -16,7 +16,12 @@ import { errorMessage } from '@/lib/api-client';
 import { placeFieldIssues } from '@/lib/form-errors';
 
 const FIELDS = ['title', 'cue', 'metric', 'phase', 'targetMin', 'targetMax', 'direction', 'status'] as const;
-const UNIT_WORDS = { deg: 'degrees', ratio: 'a ratio', 'shin lengths': 'shin lengths' } as const;
+const UNIT_WORDS = {
+  deg: 'degrees',
+  ratio: 'a ratio',
+  'shin lengths': 'shin lengths',
+  'hip widths': 'hip widths',
+} as const;
 
 const asNumber = (text: unknown) =>
   text === '' || text === null || text === undefined ? null : Number(text);

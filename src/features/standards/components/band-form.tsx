@@ -12,7 +12,12 @@ import { FormError, TextField } from '@/components/ui/field';
 import { errorMessage } from '@/lib/api-client';
 import { placeFieldIssues } from '@/lib/form-errors';
 
-const UNIT_WORDS = { deg: 'degrees', ratio: 'ratio', 'shin lengths': 'shin lengths' } as const;
+const UNIT_WORDS = {
+  deg: 'degrees',
+  ratio: 'ratio',
+  'shin lengths': 'shin lengths',
+  'hip widths': 'hip widths',
+} as const;
 const FIELDS = ['min', 'max', 'target'] as const;
 
 /** An empty box is "no limit"; anything else must read as a number (the schema says which). */

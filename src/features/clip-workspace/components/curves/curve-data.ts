@@ -125,6 +125,7 @@ export const UNIT_WORDS: Record<MetricUnit, string> = {
   deg: 'degrees',
   ratio: 'ratio',
   'shin lengths': 'shin lengths',
+  'hip widths': 'hip widths',
 };
 
 export interface FlagSpan {
