@@ -45,6 +45,16 @@ describe('readout formatting', () => {
   it('turns null reasons into words', () => {
     expect(describeReason('missing: left_knee')).toBe('left knee not found');
     expect(describeReason('low confidence: right_ankle')).toBe('right ankle too uncertain');
+    expect(
+      describeReason(
+        'not trusted: seen three-quarters on (body 0.46 torso lengths wide, a side view needs at most 0.25)',
+      ),
+    ).toBe('not trusted here: the camera sees the skier three-quarters on, this needs a side view');
+    expect(
+      describeReason(
+        'not trusted: seen from the side (body 0.2 torso lengths wide, a front view needs 0.38)',
+      ),
+    ).toBe('not trusted here: the camera sees the skier from the side, this needs a front view');
     expect(describeReason('wrong view')).toBe('not measured in this view');
     expect(describeReason('facing unknown')).toBe('facing unknown');
     expect(describeReason(undefined)).toBe('not computed');

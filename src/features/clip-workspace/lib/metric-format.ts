@@ -34,5 +34,10 @@ export function describeReason(reason: string | undefined): string {
   const invalid = /^invalid: (.+)$/.exec(reason);
   if (invalid) return `${point(invalid[1])} has no usable position`;
   if (reason === 'wrong view') return 'not measured in this view';
+  // The camera is far from the view the clip is set to: say so rather than show a confident number.
+  if (reason.startsWith('not trusted: seen from the side'))
+    return 'not trusted here: the camera sees the skier from the side, this needs a front view';
+  if (reason.startsWith('not trusted: seen three-quarters on'))
+    return 'not trusted here: the camera sees the skier three-quarters on, this needs a side view';
   return reason;
 }
