@@ -76,6 +76,13 @@ export interface Keypoint {
 }
 
 export type View = 'front' | 'side';
+
+/**
+ * Which way a front-view skier faces: toward the camera (filmed from below, the usual) or away from it
+ * (filmed from behind, where the models swap left and right; docs/metrics.md "Filmed from behind").
+ */
+export type SkierFacing = 'toward' | 'away';
+export const SKIER_FACINGS: readonly SkierFacing[] = ['toward', 'away'];
 export const VIEWS: readonly View[] = ['front', 'side'];
 
 export type PoseModelName = 'lightning' | 'thunder' | 'blazepose';

@@ -40,6 +40,7 @@ import { StandardsAndFlags1796270000000 } from '../migrations/1796270000000-stan
 import { SeasonPlan1796280000000 } from '../migrations/1796280000000-season-plan';
 import { Reviews1796290000000 } from '../migrations/1796290000000-reviews';
 import { ConsentLifecycle1796300000000 } from '../migrations/1796300000000-consent-lifecycle';
+import { ClipFacing1796300000001 } from '../migrations/1796300000001-clip-facing';
 import { ConsentEventEntity } from '../entities/consent-event.entity';
 
 export const ALL_ENTITIES = [
@@ -88,6 +89,7 @@ export const ALL_MIGRATIONS = [
   SeasonPlan1796280000000,
   Reviews1796290000000,
   ConsentLifecycle1796300000000,
+  ClipFacing1796300000001,
 ];
 
 /** SQLite through better-sqlite3: WAL journal, foreign keys on (the driver always enables them), no synchronize. */

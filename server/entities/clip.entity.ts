@@ -1,5 +1,5 @@
 import { EntitySchema } from 'typeorm';
-import type { PoseModelName } from '@shared/keypoints';
+import type { PoseModelName, SkierFacing } from '@shared/keypoints';
 import type { ClipStatus, CLIP_VIEWS } from '@shared/schemas/clip.schema';
 import { foreignKey, idColumn, nullableUuidColumn, timestampColumn, uuidColumn } from './columns';
 
@@ -9,6 +9,8 @@ export interface Clip {
   sessionId: string;
   uploadedById: string | null;
   view: (typeof CLIP_VIEWS)[number];
+  /** Front view: the skier faces the camera ('toward') or was filmed from behind ('away'). */
+  facing: SkierFacing;
   status: ClipStatus;
   failureReason: string | null;
   originalName: string;
@@ -56,6 +58,7 @@ export const ClipEntity = new EntitySchema<Clip>({
     sessionId: uuidColumn,
     uploadedById: nullableUuidColumn,
     view: { type: 'varchar', length: 10 },
+    facing: { type: 'varchar', length: 6, default: 'toward' },
     status: { type: 'varchar', length: 20 },
     failureReason: { type: 'text', nullable: true },
     originalName: { type: 'varchar', length: 255 },

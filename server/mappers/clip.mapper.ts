@@ -32,6 +32,7 @@ export function toClipDto(clip: Clip, athletes: Athlete[], links: ClipLinks, ext
     sessionId: clip.sessionId,
     athletes: athletes.map((a) => ({ id: a.id, name: `${a.firstName} ${a.lastName}` })),
     view: clip.view,
+    facing: clip.facing,
     status: clip.status,
     failureReason: clip.failureReason,
     originalName: clip.originalName,

@@ -119,6 +119,7 @@ export async function seedDemoClips(deps: DemoClipDeps, clubId: string): Promise
       sessionId: session.id,
       uploadedById: coach?.id ?? null,
       view: plan.view,
+      facing: 'toward',
       status: 'uploaded',
       failureReason: null,
       originalName: `${plan.footage}.mp4`,

@@ -94,6 +94,7 @@ export class ClipAnalysisService {
       }
       const patch: Partial<Clip> = {};
       if (input.view !== undefined) patch.view = input.view;
+      if (input.facing !== undefined && input.facing !== clip.facing) patch.facing = input.facing;
       if (input.defaultModel !== undefined) patch.defaultModel = input.defaultModel;
       if (Object.keys(patch).length > 0) await repos.clipMedia.update(clip.id, patch);
       if (input.referenceLine !== undefined) {
@@ -105,11 +106,14 @@ export class ClipAnalysisService {
       }
       const updated: Clip = { ...clip, ...patch };
       const line = input.referenceLine !== undefined ? input.referenceLine : before.line;
+      // The stored points are the skier's own sides: a new facing swaps them, then everything is measured again.
+      const swapSides = patch.facing !== undefined;
       const measuresChanged =
+        swapSides ||
         updated.view !== before.view ||
         JSON.stringify(line) !== JSON.stringify(before.line) ||
         input.frameReferenceLines !== undefined;
-      if (measuresChanged) await this.frames.recomputeClip(manager, updated, now);
+      if (measuresChanged) await this.frames.recomputeClip(manager, updated, now, { swapSides });
       await this.audit.record(manager, {
         clubId: clip.clubId,
         actorUserId: principal.user.id,

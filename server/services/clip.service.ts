@@ -192,6 +192,7 @@ export class ClipService {
         sessionId: session.id,
         uploadedById: principal.user.id,
         view: fields.view,
+        facing: fields.facing ?? 'toward',
         // The header probe above answers at once; the media pipeline then makes the playable copy,
         // poster and thumbnails and moves the clip to ready (or failed, with the reason).
         status: 'uploaded',

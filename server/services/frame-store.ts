@@ -1,6 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import type { EntityManager } from 'typeorm';
 import { alignToLine } from '@shared/geometry';
+import { swapLeftRight } from '@shared/pose/keypoint-mapping';
 import { POSE_MODELS, type PoseModelName } from '@shared/keypoints';
 import type {
   ClipFramesResponse,
@@ -218,18 +219,32 @@ export class FrameStore {
     return this.computeSeries(clip, ctx, frames, true);
   }
 
-  /** Every stored frame of every model of the clip, measured again with the clip's current view and line. */
-  async recomputeClip(manager: EntityManager, clip: Clip, now: Date): Promise<void> {
+  /**
+   * Every stored frame of every model of the clip, measured again with the clip's current view and line;
+   * `swapSides` first swaps each frame's left and right points (the clip's facing changed).
+   */
+  async recomputeClip(
+    manager: EntityManager,
+    clip: Clip,
+    now: Date,
+    options: { swapSides?: boolean } = {},
+  ): Promise<void> {
     const ctx = await this.measureContext(manager, clip);
     const repo = this.uow.of(manager).frames;
     const all = await repo.listByClip(clip.id);
     const byModel = new Map<PoseModelName, FrameResult[]>();
     for (const row of all) {
+      if (options.swapSides) row.keypoints = swapLeftRight(row.keypoints);
       const m = measureFrame(row.keypoints, ctx, row.frameIndex);
       row.metrics = m.metrics;
       row.reasons = m.reasons as Record<string, string>;
       row.updatedAt = now;
-      await repo.update(row.id, { metrics: row.metrics, reasons: row.reasons, updatedAt: now });
+      await repo.update(row.id, {
+        ...(options.swapSides ? { keypoints: row.keypoints } : {}),
+        metrics: row.metrics,
+        reasons: row.reasons,
+        updatedAt: now,
+      });
       const list = byModel.get(row.model) ?? [];
       list.push(row);
       byModel.set(row.model, list);

@@ -1,4 +1,4 @@
-import type { Keypoint, KeypointName, ReferenceLine, View } from '../keypoints';
+import type { Keypoint, KeypointName, PoseModelName, ReferenceLine, SkierFacing, View } from '../keypoints';
 import { distance, dot, midpoint, mean, norm, referenceFrame, sub, type Vec2 } from '../geometry';
 import { PosePoints } from './pose-points';
 
@@ -103,4 +103,41 @@ export function detectFacing(
   // band also keeps rounding noise from deciding a mirrored image differently.
   if (Math.abs(combined) < MIN_FACING_CUE) return null;
   return { facing: combined > 0 ? 'right' : 'left', confidence: Math.abs(combined) };
+}
+
+/**
+ * A clip whose median face score (mean of nose and eye scores, over frames where the body was found)
+ * is below this was likely filmed from behind. MoveNet on the phantom: Lightning 0.42 to 0.60 from
+ * behind against 0.53 to 0.86 from the front (medians 0.52 and 0.75); Thunder 0.38 to 0.68 against
+ * 0.71 to 0.88 (medians 0.56 and 0.80). docs/metrics.md, "Filmed from behind".
+ */
+export const FACING_AWAY_BELOW = 0.65;
+/** Fewer frames than this with a body found give no suggestion. */
+const FACING_MIN_FRAMES = 5;
+
+/**
+ * Whether a front-view clip's skier seems to face the camera or away from it, from its raw detections:
+ * the models put a face on a skier seen from behind too, but score it lower. Shoulder order cannot
+ * tell (the models label every figure as if it faced the camera; docs/accuracy.md), and BlazePose
+ * scores every face point 1 front or back, so it gives no suggestion. A suggestion for the coach to
+ * confirm, never applied by itself.
+ */
+export function suggestFacing(
+  frames: readonly (readonly Keypoint[])[],
+  model: PoseModelName,
+): { facing: SkierFacing; faceScore: number; frames: number } | null {
+  if (model === 'blazepose') return null;
+  const faces: number[] = [];
+  for (const keypoints of frames) {
+    const score = (n: KeypointName) => keypoints.find((k) => k.name === n)?.score ?? 0;
+    const body = (['left_shoulder', 'right_shoulder', 'left_hip', 'right_hip'] as const).every(
+      (n) => score(n) >= 0.3,
+    );
+    if (body) faces.push((score('nose') + score('left_eye') + score('right_eye')) / 3);
+  }
+  if (faces.length < FACING_MIN_FRAMES) return null;
+  faces.sort((a, b) => a - b);
+  const mid = faces.length >> 1;
+  const faceScore = faces.length % 2 ? faces[mid] : (faces[mid - 1] + faces[mid]) / 2;
+  return { facing: faceScore < FACING_AWAY_BELOW ? 'away' : 'toward', faceScore, frames: faces.length };
 }

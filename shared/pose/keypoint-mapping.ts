@@ -1,4 +1,4 @@
-import { BLAZEPOSE33_NAMES, COCO17_NAMES, type Keypoint, type KeypointName } from '../keypoints';
+import { BLAZEPOSE33_NAMES, COCO17_NAMES, type Keypoint, type KeypointName, type SkierFacing } from '../keypoints';
 
 /** What pose-detection returns for one point (image pixels of the tensor it was given). */
 export interface RawKeypoint {
@@ -40,6 +40,15 @@ export function mapKeypoints(raw: readonly RawKeypoint[], scaleX = 1, scaleY = 1
 /** Scales points detected on a downsized copy back to the source frame. */
 export function scaleKeypoints(keypoints: readonly Keypoint[], scaleX: number, scaleY: number): Keypoint[] {
   return keypoints.map((k) => ({ ...k, x: k.x * scaleX, y: k.y * scaleY }));
+}
+
+/**
+ * The keypoints with the skier's own left and right: as the model gave them for a skier facing the
+ * camera, swapped for one filmed from behind. Every path (browser, server, CLI) calls this once, right
+ * after detection, so stored points, metrics, overlays, flags and exports all carry the skier's sides.
+ */
+export function orientKeypoints(keypoints: readonly Keypoint[], facing: SkierFacing | null | undefined): Keypoint[] {
+  return facing === 'away' ? swapLeftRight(keypoints) : [...keypoints];
 }
 
 /**

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { POSE_MODELS, type PoseModelName, type ReferenceLine } from '../keypoints';
+import { POSE_MODELS, type PoseModelName, type ReferenceLine, type SkierFacing } from '../keypoints';
 
 export const CLIP_VIEWS = ['front', 'side'] as const;
 export const CLIP_STATUSES = ['uploaded', 'processing', 'ready', 'failed'] as const;
@@ -14,6 +14,8 @@ export const uploadClipFieldsSchema = z.object({
     .transform((v) => (Array.isArray(v) ? v : v.split(',')).map((s) => s.trim()).filter(Boolean))
     .pipe(z.array(z.string().uuid()).min(1, 'Tag at least one athlete')),
   view: z.enum(CLIP_VIEWS, { message: 'Choose front or side view' }),
+  /** Front view filmed from behind: 'away'. */
+  facing: z.enum(['toward', 'away'], { message: 'Choose toward or away from the camera' }).optional(),
 });
 export type UploadClipFields = z.input<typeof uploadClipFieldsSchema>;
 
@@ -32,6 +34,8 @@ export interface ClipDto {
   sessionId: string;
   athletes: { id: string; name: string }[];
   view: (typeof CLIP_VIEWS)[number];
+  /** Front view: toward the camera, or away from it (filmed from behind; left and right swapped back). */
+  facing: SkierFacing;
   status: ClipStatus;
   failureReason: string | null;
   originalName: string;
@@ -96,6 +100,7 @@ export const referenceLineSchema = z
 export const updateClipSchema = z
   .object({
     view: z.enum(CLIP_VIEWS, { message: 'Choose front or side view' }).optional(),
+    facing: z.enum(['toward', 'away'], { message: 'Choose toward or away from the camera' }).optional(),
     defaultModel: z
       .enum(POSE_MODELS as [PoseModelName, ...PoseModelName[]], {
         message: `Choose a model: ${POSE_MODELS.join(', ')}`,

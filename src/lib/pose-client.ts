@@ -11,7 +11,7 @@
 // analyzeQueue() keeps two frames in flight, reports progress, and rejects with an AbortError when
 // the signal aborts (frames not yet sent are closed, the worker drops the ones still waiting).
 
-import type { Keypoint, PoseModelName, ReferenceLine, View } from '@shared/keypoints';
+import type { Keypoint, PoseModelName, ReferenceLine, SkierFacing, View } from '@shared/keypoints';
 import type { MetricKey } from '@shared/metrics';
 
 export interface PoseFrameRequest {
@@ -21,6 +21,8 @@ export interface PoseFrameRequest {
   model: PoseModelName;
   view: View;
   referenceLine?: ReferenceLine | null;
+  /** Front view filmed from behind: the worker swaps left and right back to the skier's own. */
+  facing?: SkierFacing;
   /** A still image rather than a clip frame: tracking reset before it, no temporal smoothing. */
   still?: boolean;
 }

@@ -9,7 +9,7 @@ import '@tensorflow/tfjs-backend-webgl';
 import { setWasmPaths } from '@tensorflow/tfjs-backend-wasm';
 import type { PoseModelName } from '@shared/keypoints';
 import { computeFrameMetrics, emptyFrameMetrics } from '@shared/metrics';
-import { scaleKeypoints } from '@shared/pose/keypoint-mapping';
+import { orientKeypoints, scaleKeypoints } from '@shared/pose/keypoint-mapping';
 import { createPoseDetector, type PoseDetector } from '@shared/pose/pose-detector';
 import { modelUrl } from '@shared/pose/pose-models';
 import type { PoseFrameResult, WorkerConfig, WorkerRequest, WorkerResponse } from '@/lib/pose-client';
@@ -110,10 +110,13 @@ async function handleDetect(message: Extract<WorkerRequest, { type: 'detect' }>)
       { ...pixels, channels: 4 },
       { timeMs: req.still ? null : req.timeMs },
     );
-    const keypoints =
+    // The skier's own left and right, whichever way they face the camera (filmed from behind: swapped).
+    const keypoints = orientKeypoints(
       pixels.width === sourceWidth
         ? found.keypoints
-        : scaleKeypoints(found.keypoints, sourceWidth / pixels.width, sourceHeight / pixels.height);
+        : scaleKeypoints(found.keypoints, sourceWidth / pixels.width, sourceHeight / pixels.height),
+      req.facing,
+    );
     const computed =
       keypoints.length > 0
         ? computeFrameMetrics({

@@ -75,6 +75,7 @@ const clip: Clip = {
   sessionId: 's1',
   uploadedById: null,
   view: 'side',
+  facing: 'toward',
   status: 'ready',
   failureReason: null,
   originalName: 'side.mp4',

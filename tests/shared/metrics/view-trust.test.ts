@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { BLAZEPOSE33_NAMES, type Keypoint, type View } from '@shared/keypoints';
 import { computeFrameMetrics } from '@shared/metrics';
-import { FRONT_TRUST_MIN_WIDTH, SIDE_TRUST_MAX_WIDTH, bodyWidthRatio } from '@shared/metrics/view-detection';
+import { FRONT_TRUST_MIN_WIDTH, SIDE_TRUST_MAX_WIDTH, bodyWidthRatio } from '@shared/metrics';
 import { phantomTruth } from '../../../fixtures/phantom/render-phantom';
 
 // When the camera is far from the view a clip says (docs/metrics.md, "Trusting a number"), the view's

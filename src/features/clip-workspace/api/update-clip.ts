@@ -1,11 +1,12 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { PoseModelName, ReferenceLine, View } from '@shared/keypoints';
+import type { PoseModelName, ReferenceLine, SkierFacing, View } from '@shared/keypoints';
 import type { ClipResponse } from '@shared/schemas/clip.schema';
 import { api } from '@/lib/api-client';
 import { clipWorkspaceKeys } from './keys';
 
 export interface UpdateClipInput {
   view?: View;
+  facing?: SkierFacing;
   defaultModel?: PoseModelName;
   referenceLine?: ReferenceLine | null;
   frameReferenceLines?: { frameIndex: number; referenceLine: ReferenceLine | null }[];
@@ -21,8 +22,13 @@ export function useUpdateClip(clipId: string) {
     mutationFn: (input: UpdateClipInput) => updateClip(clipId, input),
     onSuccess: async (data, input) => {
       queryClient.setQueryData(clipWorkspaceKeys.clip(clipId), data);
-      // The server recomputes stored metrics and flags when the view or snow line changes.
-      if (input.view !== undefined || input.referenceLine !== undefined || input.frameReferenceLines) {
+      // The server recomputes stored metrics and flags when the view, facing or snow line changes.
+      if (
+        input.view !== undefined ||
+        input.facing !== undefined ||
+        input.referenceLine !== undefined ||
+        input.frameReferenceLines
+      ) {
         await queryClient.invalidateQueries({ queryKey: clipWorkspaceKeys.framesAll(clipId) });
       }
     },

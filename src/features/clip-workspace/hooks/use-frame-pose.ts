@@ -40,6 +40,13 @@ export function useFramePose() {
   }, [stored.data, model, videoSize.width, videoSize.height]);
 
   const liveCache = useRef(new Map<string, FrameKeypoints>());
+  // Live results carry the sides of the facing they were read with: a new facing reads frames afresh.
+  const facing = clip.facing;
+  const [cachedFacing, setCachedFacing] = useState(facing);
+  if (cachedFacing !== facing) {
+    liveCache.current.clear();
+    setCachedFacing(facing);
+  }
   const request = useRef(0);
   const inFlight = useRef(false);
   const rerunWanted = useRef(false);
@@ -104,6 +111,7 @@ export function useFramePose() {
           timeMs: frameStartMs(frameIndex, fps),
           model,
           view,
+          facing: clip.facing,
           // No temporal smoothing: it would blend in the frames stepped through before this one.
           still: true,
         });

@@ -1,4 +1,4 @@
-import type { Keypoint, PoseModelName, ReferenceLine, View } from '@shared/keypoints';
+import type { Keypoint, PoseModelName, ReferenceLine, SkierFacing, View } from '@shared/keypoints';
 import { MAX_FRAMES_PER_BATCH } from '@shared/schemas/frames.schema';
 import type { FrameUpload, PostClipFramesInput, PostClipFramesResponse } from '../../api/post-clip-frames';
 import { frameStartMs } from '../../lib/frame-time';
@@ -10,6 +10,7 @@ export interface DetectRequest {
   model: PoseModelName;
   view: View;
   referenceLine?: ReferenceLine | null;
+  facing?: SkierFacing;
 }
 
 export interface WholeClipDeps<F> {
@@ -29,6 +30,8 @@ export interface WholeClipPlan {
   model: PoseModelName;
   view: View;
   referenceLine: ReferenceLine | null;
+  /** Front view filmed from behind: left and right swapped back (absent: toward the camera). */
+  facing?: SkierFacing;
 }
 
 export interface WholeClipProgress {
@@ -154,6 +157,7 @@ export async function runWholeClip<F>(
         model: plan.model,
         view: plan.view,
         referenceLine: plan.referenceLine,
+        facing: plan.facing,
       });
       if (result.keypoints.length === 0) emptyFrames += 1;
       pending.push({ frameIndex, timeMs: round(timeMs, 3), keypoints: compactKeypoints(result.keypoints) });

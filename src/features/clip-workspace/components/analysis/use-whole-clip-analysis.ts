@@ -71,6 +71,7 @@ export function useWholeClipAnalysis() {
         fps: fps,
         model,
         view: clip.view,
+        facing: clip.facing,
         referenceLine: referenceLine,
       };
       const grabber = new FrameGrabber(mediaSrc, fps);
