@@ -1,22 +1,26 @@
-// npm run -s analyze -- [--model lightning|thunder|blazepose] [--view front|side] [--every N] [--json] FILE...
+// npm run -s analyze -- [--model lightning|thunder|blazepose] [--view front|side] [--facing toward|away] [--every N] [--json] FILE...
 import { readFile } from 'node:fs/promises';
 import { extname } from 'node:path';
 import { parseArgs } from 'node:util';
-import { POSE_MODELS, VIEWS, type PoseModelName, type View } from '@shared/keypoints';
+import { POSE_MODELS, SKIER_FACINGS, VIEWS, type PoseModelName, type SkierFacing, type View } from '@shared/keypoints';
+import { orientKeypoints } from '@shared/pose/keypoint-mapping';
 import { GeometryInputError } from '@shared/geometry';
 import { KeypointFileError, parseKeypointFile } from './keypoint-file';
 import { loadMediaModule } from './media-input';
 import { reportFrame, toJsonLine, toTable, type FrameReport } from './frame-report';
 
-const USAGE = `usage: npm run -s analyze -- [--model lightning|thunder|blazepose] [--view front|side] [--every N] [--json] FILE...
+const USAGE = `usage: npm run -s analyze -- [--model lightning|thunder|blazepose] [--view front|side] [--facing toward|away] [--every N] [--json] FILE...
   .json files hold keypoints ({"keypoints": [{"name","x","y","score"}], ...} or a list of such frames);
-  images and videos go through the pose pipeline.`;
+  images and videos go through the pose pipeline.
+  --facing away: a front view filmed from behind; left and right are swapped to the skier's own, as
+  the app does for a clip marked "filmed from behind".`;
 
 class UsageError extends Error {}
 
 interface Options {
   model: PoseModelName;
   view: View | null;
+  facing: SkierFacing;
   every: number;
   json: boolean;
   files: string[];
@@ -32,6 +36,7 @@ function parseOptions(argv: string[]): Options | 'help' {
       options: {
         model: { type: 'string' },
         view: { type: 'string' },
+        facing: { type: 'string' },
         every: { type: 'string' },
         json: { type: 'boolean', default: false },
         help: { type: 'boolean', short: 'h', default: false },
@@ -47,11 +52,14 @@ function parseOptions(argv: string[]): Options | 'help' {
   const view = (values.view ?? null) as View | null;
   if (view !== null && !VIEWS.includes(view))
     throw new UsageError(`--view must be one of ${VIEWS.join(', ')}`);
+  const facing = (values.facing ?? 'toward') as SkierFacing;
+  if (!SKIER_FACINGS.includes(facing))
+    throw new UsageError(`--facing must be one of ${SKIER_FACINGS.join(', ')}`);
   const every = values.every === undefined ? 1 : Number(values.every);
   if (!Number.isInteger(every) || every < 1)
     throw new UsageError('--every must be a whole number of at least 1');
   if (positionals.length === 0) throw new UsageError('no input files');
-  return { model, view, every, json: values.json ?? false, files: positionals };
+  return { model, view, facing, every, json: values.json ?? false, files: positionals };
 }
 
 async function* framesOf(file: string, options: Options): AsyncGenerator<FrameReport> {
@@ -65,7 +73,12 @@ async function* framesOf(file: string, options: Options): AsyncGenerator<FrameRe
       );
     }
     for (const f of parseKeypointFile(text)) {
-      yield reportFrame({ file, ...f, view: options.view ?? f.view });
+      yield reportFrame({
+        file,
+        ...f,
+        keypoints: orientKeypoints(f.keypoints, options.facing),
+        view: options.view ?? f.view,
+      });
     }
     return;
   }
@@ -80,7 +93,13 @@ async function* framesOf(file: string, options: Options): AsyncGenerator<FrameRe
       every: options.every,
       onProgress: progress,
     })) {
-      yield reportFrame({ file, ...f, view: options.view, referenceLine: null });
+      yield reportFrame({
+        file,
+        ...f,
+        keypoints: orientKeypoints(f.keypoints, options.facing),
+        view: options.view,
+        referenceLine: null,
+      });
     }
   } catch (error) {
     if (error instanceof media.MediaInputError) throw new KeypointFileError((error as Error).message);

@@ -119,6 +119,24 @@ describe('analyze on bad input', () => {
     expect(r.stderr.split('\n').filter(Boolean)).toHaveLength(1);
   });
 
+  it('--facing away swaps left and right to the skier’s own, as the browser does for a clip filmed from behind', () => {
+    const file = 'fixtures/keypoints/front-blazepose.json';
+    const toward = JSON.parse(analyze('--json', file).lines[0]);
+    const away = JSON.parse(analyze('--json', '--facing', 'away', file).lines[0]);
+    type Point = { name: string; x: number; y: number };
+    const at = (line: { keypoints: Point[] }, name: string) => line.keypoints.find((k) => k.name === name)!;
+    // The point the model called left is now the right one, at the same place.
+    expect(at(away, 'right_knee')).toMatchObject({
+      x: at(toward, 'left_knee').x,
+      y: at(toward, 'left_knee').y,
+    });
+    expect(at(away, 'nose')).toEqual(at(toward, 'nose'));
+    // Leans and tilts toward the skier's left change sign; widths do not change.
+    expect(away.metrics.inclination).toBeCloseTo(-toward.metrics.inclination, 9);
+    expect(away.metrics.shoulderTilt).toBeCloseTo(-toward.metrics.shoulderTilt, 9);
+    expect(away.metrics.stanceWidthRatio).toBeCloseTo(toward.metrics.stanceWidthRatio, 9);
+  });
+
   it('names a file that cannot be read', () => {
     const r = analyze('--json', 'fixtures/keypoints/does-not-exist.json');
     expect(r.code).toBe(1);
@@ -130,6 +148,7 @@ describe('analyze on bad input', () => {
     [['--every', '0', 'a.json'], '--every must be a whole number'],
     [['--model', 'huge', 'a.json'], '--model must be one of lightning, thunder, blazepose'],
     [['--view', 'top', 'a.json'], '--view must be one of front, side'],
+    [['--facing', 'sideways', 'a.json'], '--facing must be one of toward, away'],
     [['--bogus', 'a.json'], "Unknown option '--bogus'"],
   ])('rejects bad arguments %j with usage and exit code 2', (args, message) => {
     const r = analyze(...args);

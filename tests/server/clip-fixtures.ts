@@ -101,7 +101,7 @@ export async function writeScratch(name: string, bytes: Buffer | string): Promis
 export async function uploadClip(
   server: TestServer,
   file: string,
-  fields: { sessionId: string; athleteIds: string; view: 'front' | 'side' },
+  fields: { sessionId: string; athleteIds: string; view: 'front' | 'side'; facing?: 'toward' | 'away' },
   role: 'coach' | 'head' = 'coach',
 ): Promise<ClipDto> {
   const req = server.http.post('/api/clips').set(await server.bearer(role));

@@ -3,6 +3,7 @@ import { POSE_MODEL_INFO } from '@shared/pose/pose-models';
 import { POSE_MODELS, type PoseModelName } from '@shared/keypoints';
 import { useEffect, useRef } from 'react';
 import { useSearchParams } from 'react-router-dom';
+import { FacingControl } from './facing-control';
 import { Spinner } from '@/components/ui/spinner';
 import { useUser } from '@/lib/auth';
 import { readsBandsAsTarget } from '@/lib/permissions';
@@ -187,6 +188,7 @@ export function ReadoutsPanel() {
         </div>
         <StatusLine pose={currentPose} status={poseStatus} />
         <LineInForce />
+        <FacingControl />
       </header>
       <ul>
         {definitions.map((definition) => (
