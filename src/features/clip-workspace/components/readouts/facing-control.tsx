@@ -52,7 +52,9 @@ export function FacingControl() {
         onError: (error) => toast.error(`The facing was not saved: ${errorMessage(error)}`),
       },
     );
-  const disagrees = suggestion !== null && suggestion.facing !== clip.facing;
+  // Clips stored before facing existed face the camera.
+  const current: SkierFacing = clip.facing ?? 'toward';
+  const disagrees = suggestion !== null && suggestion.facing !== current;
 
   return (
     <div className="space-y-1.5 text-xs">
@@ -65,12 +67,12 @@ export function FacingControl() {
                 key={facing}
                 type="button"
                 role="radio"
-                aria-checked={clip.facing === facing}
+                aria-checked={current === facing}
                 disabled={update.isPending}
-                onClick={() => clip.facing !== facing && choose(facing)}
+                onClick={() => current !== facing && choose(facing)}
                 className={cn(
                   'rounded px-2 py-0.5',
-                  clip.facing === facing
+                  current === facing
                     ? 'bg-white text-granite-900 shadow-sm'
                     : 'text-granite-600 hover:bg-white/60',
                 )}
@@ -80,7 +82,7 @@ export function FacingControl() {
             ))}
           </div>
         ) : (
-          <span className="text-granite-800">{FACING_WORDS[clip.facing].toLowerCase()}</span>
+          <span className="text-granite-800">{FACING_WORDS[current].toLowerCase()}</span>
         )}
       </div>
       {disagrees ? (
