@@ -2,7 +2,14 @@
 import { readFile } from 'node:fs/promises';
 import { extname } from 'node:path';
 import { parseArgs } from 'node:util';
-import { POSE_MODELS, SKIER_FACINGS, VIEWS, type PoseModelName, type SkierFacing, type View } from '@shared/keypoints';
+import {
+  POSE_MODELS,
+  SKIER_FACINGS,
+  VIEWS,
+  type PoseModelName,
+  type SkierFacing,
+  type View,
+} from '@shared/keypoints';
 import { orientKeypoints } from '@shared/pose/keypoint-mapping';
 import { GeometryInputError } from '@shared/geometry';
 import { KeypointFileError, parseKeypointFile } from './keypoint-file';

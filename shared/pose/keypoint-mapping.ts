@@ -1,4 +1,10 @@
-import { BLAZEPOSE33_NAMES, COCO17_NAMES, type Keypoint, type KeypointName, type SkierFacing } from '../keypoints';
+import {
+  BLAZEPOSE33_NAMES,
+  COCO17_NAMES,
+  type Keypoint,
+  type KeypointName,
+  type SkierFacing,
+} from '../keypoints';
 
 /** What pose-detection returns for one point (image pixels of the tensor it was given). */
 export interface RawKeypoint {
@@ -47,7 +53,10 @@ export function scaleKeypoints(keypoints: readonly Keypoint[], scaleX: number, s
  * camera, swapped for one filmed from behind. Every path (browser, server, CLI) calls this once, right
  * after detection, so stored points, metrics, overlays, flags and exports all carry the skier's sides.
  */
-export function orientKeypoints(keypoints: readonly Keypoint[], facing: SkierFacing | null | undefined): Keypoint[] {
+export function orientKeypoints(
+  keypoints: readonly Keypoint[],
+  facing: SkierFacing | null | undefined,
+): Keypoint[] {
   return facing === 'away' ? swapLeftRight(keypoints) : [...keypoints];
 }
 

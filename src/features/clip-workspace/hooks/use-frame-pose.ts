@@ -111,7 +111,7 @@ export function useFramePose() {
           timeMs: frameStartMs(frameIndex, fps),
           model,
           view,
-          facing: clip.facing,
+          facing,
           // No temporal smoothing: it would blend in the frames stepped through before this one.
           still: true,
         });
@@ -151,6 +151,7 @@ export function useFramePose() {
     mediaReady,
     model,
     view,
+    facing,
     fps,
     videoRef,
     corrections,

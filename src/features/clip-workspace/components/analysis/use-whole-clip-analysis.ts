@@ -120,7 +120,7 @@ export function useWholeClipAnalysis() {
         if (controller.current === abort) controller.current = null;
       }
     },
-    [upload, mediaSrc, fps, frameCount, chosenModel, referenceLine, clip.view],
+    [upload, mediaSrc, fps, frameCount, chosenModel, referenceLine, clip.view, clip.facing],
   );
 
   const cancel = useCallback(() => {
