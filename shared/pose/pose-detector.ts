@@ -41,6 +41,20 @@ export interface PoseDetectorOptions {
 export interface DetectOptions {
   /** Frame time in a clip (ms). Null or absent for a still image: no temporal smoothing. */
   timeMs?: number | null;
+  /**
+   * Look only here (image pixels): the crop around a followed athlete, read at the model's input size,
+   * so other people outside it are never taken and a small skier is seen large. Tracking state is not
+   * carried into or out of a region read (each crop is a fresh image to the model).
+   */
+  region?: PixelBox | null;
+}
+
+/** A box in image pixels, y down. */
+export interface PixelBox {
+  x: number;
+  y: number;
+  width: number;
+  height: number;
 }
 
 export interface PoseDetection {
@@ -154,12 +168,47 @@ export async function createPoseDetector(options: PoseDetectorOptions): Promise<
     return poses[0];
   }
 
+  /** One fresh pass on the crop `box` of `tensor`, keypoints moved back to the whole image. */
+  async function detectIn(tensor: tfc.Tensor3D, box: PixelBox): Promise<poseDetection.Pose | undefined> {
+    const [height, width] = tensor.shape;
+    const x0 = Math.max(0, Math.min(width - 1, Math.floor(box.x)));
+    const y0 = Math.max(0, Math.min(height - 1, Math.floor(box.y)));
+    const x1 = Math.max(x0 + 1, Math.min(width, Math.ceil(box.x + box.width)));
+    const y1 = Math.max(y0 + 1, Math.min(height, Math.ceil(box.y + box.height)));
+    const crop = tf.slice(tensor, [y0, x0, 0], [y1 - y0, x1 - x0, 3]);
+    try {
+      inner.reset();
+      const pose = await estimate(crop, null);
+      inner.reset();
+      cold = true;
+      if (!pose) return undefined;
+      return { ...pose, keypoints: pose.keypoints.map((k) => ({ ...k, x: k.x + x0, y: k.y + y0 })) };
+    } finally {
+      crop.dispose();
+    }
+  }
+
   async function detect(image: PoseImage, opts: DetectOptions = {}): Promise<PoseDetection> {
     const start = now();
     const timeMs = opts.timeMs ?? null;
     const { tensor, owned } = toTensor(tf, image);
     const [height, width] = tensor.shape;
     let passes = 0;
+    if (opts.region) {
+      try {
+        const pose = await detectIn(tensor, opts.region);
+        const keypoints = pose ? mapKeypoints(pose.keypoints) : [];
+        return {
+          keypoints,
+          score: keypoints.length > 0 ? (pose?.score ?? null) : null,
+          width,
+          height,
+          timings: { detectMs: now() - start, passes: 1 },
+        };
+      } finally {
+        if (owned) tensor.dispose();
+      }
+    }
     try {
       let pose: poseDetection.Pose | undefined;
       if (cold && refine) {
