@@ -1,4 +1,4 @@
-// npm run -s analyze -- [--model lightning|thunder|blazepose] [--view front|side] [--facing toward|away] [--every N] [--json] FILE...
+// npm run -s analyze -- [--model lightning|thunder|blazepose] [--view front|side] [--facing toward|away] [--pick X,Y[@FRAME]] [--every N] [--json] FILE...
 import { readFile } from 'node:fs/promises';
 import { extname } from 'node:path';
 import { parseArgs } from 'node:util';
@@ -16,11 +16,13 @@ import { KeypointFileError, parseKeypointFile } from './keypoint-file';
 import { loadMediaModule } from './media-input';
 import { reportFrame, toJsonLine, toTable, type FrameReport } from './frame-report';
 
-const USAGE = `usage: npm run -s analyze -- [--model lightning|thunder|blazepose] [--view front|side] [--facing toward|away] [--every N] [--json] FILE...
+const USAGE = `usage: npm run -s analyze -- [--model lightning|thunder|blazepose] [--view front|side] [--facing toward|away] [--pick X,Y[@FRAME]] [--every N] [--json] FILE...
   .json files hold keypoints ({"keypoints": [{"name","x","y","score"}], ...} or a list of such frames);
   images and videos go through the pose pipeline.
   --facing away: a front view filmed from behind; left and right are swapped to the skier's own, as
-  the app does for a clip marked "filmed from behind".`;
+  the app does for a clip marked "filmed from behind".
+  --pick X,Y[@FRAME]: follow the athlete at pixel X,Y of frame FRAME (default 0) when others are in
+  the frame, as the app does after the coach clicks on them; earlier frames are skipped.`;
 
 class UsageError extends Error {}
 
@@ -28,6 +30,7 @@ interface Options {
   model: PoseModelName;
   view: View | null;
   facing: SkierFacing;
+  pick: { x: number; y: number; frame: number } | null;
   every: number;
   json: boolean;
   files: string[];
@@ -44,6 +47,7 @@ function parseOptions(argv: string[]): Options | 'help' {
         model: { type: 'string' },
         view: { type: 'string' },
         facing: { type: 'string' },
+        pick: { type: 'string' },
         every: { type: 'string' },
         json: { type: 'boolean', default: false },
         help: { type: 'boolean', short: 'h', default: false },
@@ -62,15 +66,23 @@ function parseOptions(argv: string[]): Options | 'help' {
   const facing = (values.facing ?? 'toward') as SkierFacing;
   if (!SKIER_FACINGS.includes(facing))
     throw new UsageError(`--facing must be one of ${SKIER_FACINGS.join(', ')}`);
+  let pick: Options['pick'] = null;
+  if (values.pick !== undefined) {
+    const m = /^(\d+(?:\.\d+)?),(\d+(?:\.\d+)?)(?:@(\d+))?$/.exec(values.pick);
+    if (!m) throw new UsageError('--pick must be X,Y or X,Y@FRAME in pixels of the frame, e.g. 412,230@15');
+    pick = { x: Number(m[1]), y: Number(m[2]), frame: m[3] === undefined ? 0 : Number(m[3]) };
+  }
   const every = values.every === undefined ? 1 : Number(values.every);
   if (!Number.isInteger(every) || every < 1)
     throw new UsageError('--every must be a whole number of at least 1');
   if (positionals.length === 0) throw new UsageError('no input files');
-  return { model, view, facing, every, json: values.json ?? false, files: positionals };
+  return { model, view, facing, pick, every, json: values.json ?? false, files: positionals };
 }
 
 async function* framesOf(file: string, options: Options): AsyncGenerator<FrameReport> {
   if (extname(file).toLowerCase() === '.json') {
+    if (options.pick)
+      throw new KeypointFileError('--pick reads images and videos; a keypoint file holds its points already');
     let text: string;
     try {
       text = await readFile(file, 'utf8');
@@ -98,6 +110,7 @@ async function* framesOf(file: string, options: Options): AsyncGenerator<FrameRe
     for await (const f of media.analyzeMediaFile(file, {
       model: options.model,
       every: options.every,
+      pick: options.pick,
       onProgress: progress,
     })) {
       yield reportFrame({
@@ -106,6 +119,7 @@ async function* framesOf(file: string, options: Options): AsyncGenerator<FrameRe
         keypoints: orientKeypoints(f.keypoints, options.facing),
         view: options.view,
         referenceLine: null,
+        lostReason: f.lostReason ?? null,
       });
     }
   } catch (error) {

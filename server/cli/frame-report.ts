@@ -33,13 +33,15 @@ export interface FrameSource {
   /** View in force: from --view, else the file, else suggested from the points. */
   view: View | null;
   referenceLine: ReferenceLine | null;
+  /** Following a picked athlete: why this frame has no points (lost, or swapped for someone else). */
+  lostReason?: string | null;
 }
 
 export function reportFrame(source: FrameSource): FrameReport {
   const view = source.view ?? suggestView(source.keypoints).view;
   const m =
     source.keypoints.length === 0
-      ? emptyFrameMetrics('no skier found')
+      ? emptyFrameMetrics(source.lostReason ?? 'no skier found')
       : computeFrameMetrics({ keypoints: source.keypoints, view, referenceLine: source.referenceLine });
   return {
     file: source.file,
@@ -59,7 +61,7 @@ export function toJsonLine(report: FrameReport): string {
   return JSON.stringify(report);
 }
 
-const UNIT_SHORT: Record<string, string> = { deg: '°', ratio: '', 'shin lengths': ' shin' };
+const UNIT_SHORT: Record<string, string> = { deg: '°', ratio: '', 'shin lengths': ' shin', 'hip widths': ' hip w' };
 
 /** A readable block for one frame. */
 export function toTable(report: FrameReport): string {

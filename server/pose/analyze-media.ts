@@ -1,12 +1,14 @@
 // Images and videos -> keypoints, frame by frame, for the analyze CLI and tests.
 // Contract (server/cli/analyze.ts imports this lazily):
-//   analyzeMediaFile(path, { model, every, onProgress }) yields one MediaFrame per image, or one per
-//   kept video frame with its index and time; MediaInputError says what is wrong and what to do.
+//   analyzeMediaFile(path, { model, every, onProgress, pick }) yields one MediaFrame per image, or one
+//   per kept video frame with its index and time; MediaInputError says what is wrong and what to do.
 
 import { access, open } from 'node:fs/promises';
 import { fileTypeFromFile } from 'file-type';
 import type { Keypoint, PoseModelName } from '@shared/keypoints';
 import { scaleKeypoints } from '@shared/pose/keypoint-mapping';
+import { AthleteFollower } from '@shared/pose/follow';
+import type { PixelBox } from '@shared/pose/pose-detector';
 import { decodeImageFile } from './image-decode';
 import { getNodePoseDetector } from './node-detector';
 import { probeFailureText, probeVideo } from '../media/probe';
@@ -20,6 +22,8 @@ export interface MediaFrame {
   model: PoseModelName;
   /** Image pixels of the original frame; empty when no skier was found. */
   keypoints: Keypoint[];
+  /** Following a picked athlete: why this frame has no points. */
+  lostReason?: string | null;
 }
 
 /** The file cannot be analysed; the message says what is wrong and what to do. */
@@ -31,6 +35,11 @@ export interface AnalyzeMediaOptions {
   model: PoseModelName;
   every: number;
   onProgress?: (done: number, total: number | null) => void;
+  /**
+   * Follow the athlete at this point (pixels of the original frame) from this frame on: frames before
+   * it are skipped, and each later frame is read only around the athlete (shared/pose/follow.ts).
+   */
+  pick?: { x: number; y: number; frame: number } | null;
 }
 
 const IMAGE_TYPES = new Set(['image/png', 'image/jpeg', 'image/webp', 'image/gif', 'image/bmp']);
@@ -71,7 +80,16 @@ async function* analyzeImage(path: string, opts: AnalyzeMediaOptions): AsyncGene
   }
   const detector = await getNodePoseDetector(opts.model);
   detector.reset();
-  const result = await detector.detect(pixels);
+  let keypoints: Keypoint[];
+  let lostReason: string | null = null;
+  if (opts.pick) {
+    const picked = await new AthleteFollower(pixels).pick(
+      opts.pick,
+      async (region) => (await detector.detect(pixels, { region })).keypoints,
+    );
+    keypoints = picked.keypoints;
+    lostReason = picked.reason;
+  } else keypoints = (await detector.detect(pixels)).keypoints;
   opts.onProgress?.(1, 1);
   yield {
     frame: null,
@@ -79,7 +97,8 @@ async function* analyzeImage(path: string, opts: AnalyzeMediaOptions): AsyncGene
     width: pixels.width,
     height: pixels.height,
     model: opts.model,
-    keypoints: result.keypoints,
+    keypoints,
+    lostReason,
   };
 }
 
@@ -101,17 +120,35 @@ async function* analyzeVideo(path: string, opts: AnalyzeMediaOptions): AsyncGene
   detector.reset();
   const total = info.frameCount === null ? null : Math.ceil(info.frameCount / opts.every);
   let done = 0;
+  let follower: AthleteFollower | null = null;
   try {
     for await (const f of decodeVideoFrames(path, { every: opts.every })) {
+      if (opts.pick && f.index < opts.pick.frame) continue;
       const timeMs = Number.isFinite(f.timeMs) ? f.timeMs : info.fps ? (f.index / info.fps) * 1000 : null;
-      const result = await detector.detect(
-        { data: f.rgb, width: f.width, height: f.height, channels: 3 },
-        { timeMs: timeMs ?? f.index },
-      );
+      const image = { data: f.rgb, width: f.width, height: f.height, channels: 3 as const };
+      let found: Keypoint[];
+      let lostReason: string | null = null;
+      if (opts.pick) {
+        // Read only around the picked athlete, as the browser does (decoded frames may be downsized).
+        const read = async (region: PixelBox) => (await detector.detect(image, { region })).keypoints;
+        const sx = f.width / f.sourceWidth;
+        const sy = f.height / f.sourceHeight;
+        const result = follower
+          ? await follower.next(read)
+          : await (follower = new AthleteFollower({ width: f.width, height: f.height })).pick(
+              { x: opts.pick.x * sx, y: opts.pick.y * sy },
+              read,
+            );
+        found = result.keypoints;
+        lostReason = result.reason;
+        if (!follower.following) follower = null;
+      } else {
+        found = (await detector.detect(image, { timeMs: timeMs ?? f.index })).keypoints;
+      }
       const keypoints =
         f.width === f.sourceWidth && f.height === f.sourceHeight
-          ? result.keypoints
-          : scaleKeypoints(result.keypoints, f.sourceWidth / f.width, f.sourceHeight / f.height);
+          ? found
+          : scaleKeypoints(found, f.sourceWidth / f.width, f.sourceHeight / f.height);
       done++;
       opts.onProgress?.(done, total);
       yield {
@@ -121,6 +158,7 @@ async function* analyzeVideo(path: string, opts: AnalyzeMediaOptions): AsyncGene
         height: f.sourceHeight,
         model: opts.model,
         keypoints,
+        lostReason,
       };
     }
   } catch (error) {
