@@ -61,7 +61,12 @@ export function toJsonLine(report: FrameReport): string {
   return JSON.stringify(report);
 }
 
-const UNIT_SHORT: Record<string, string> = { deg: '°', ratio: '', 'shin lengths': ' shin', 'hip widths': ' hip w' };
+const UNIT_SHORT: Record<string, string> = {
+  deg: '°',
+  ratio: '',
+  'shin lengths': ' shin',
+  'hip widths': ' hip w',
+};
 
 /** A readable block for one frame. */
 export function toTable(report: FrameReport): string {
