@@ -83,6 +83,13 @@ export type View = 'front' | 'side';
  */
 export type SkierFacing = 'toward' | 'away';
 export const SKIER_FACINGS: readonly SkierFacing[] = ['toward', 'away'];
+
+/** Where the coach pointed at the athlete: a frame and a point in its pixels (y down). */
+export interface AthletePick {
+  frameIndex: number;
+  x: number;
+  y: number;
+}
 export const VIEWS: readonly View[] = ['front', 'side'];
 
 export type PoseModelName = 'lightning' | 'thunder' | 'blazepose';

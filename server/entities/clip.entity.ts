@@ -1,5 +1,5 @@
 import { EntitySchema } from 'typeorm';
-import type { PoseModelName, SkierFacing } from '@shared/keypoints';
+import type { AthletePick, PoseModelName, SkierFacing } from '@shared/keypoints';
 import type { ClipStatus, CLIP_VIEWS } from '@shared/schemas/clip.schema';
 import { foreignKey, idColumn, nullableUuidColumn, timestampColumn, uuidColumn } from './columns';
 
@@ -11,6 +11,8 @@ export interface Clip {
   view: (typeof CLIP_VIEWS)[number];
   /** Front view: the skier faces the camera ('toward') or was filmed from behind ('away'). */
   facing: SkierFacing;
+  /** The athlete the coach picked among several people, followed from that frame on; null: whoever the model finds. */
+  athletePick: AthletePick | null;
   status: ClipStatus;
   failureReason: string | null;
   originalName: string;
@@ -59,6 +61,7 @@ export const ClipEntity = new EntitySchema<Clip>({
     uploadedById: nullableUuidColumn,
     view: { type: 'varchar', length: 10 },
     facing: { type: 'varchar', length: 6, default: 'toward' },
+    athletePick: { type: 'simple-json', nullable: true },
     status: { type: 'varchar', length: 20 },
     failureReason: { type: 'text', nullable: true },
     originalName: { type: 'varchar', length: 255 },

@@ -33,6 +33,7 @@ export function toClipDto(clip: Clip, athletes: Athlete[], links: ClipLinks, ext
     athletes: athletes.map((a) => ({ id: a.id, name: `${a.firstName} ${a.lastName}` })),
     view: clip.view,
     facing: clip.facing,
+    athletePick: clip.athletePick ?? null,
     status: clip.status,
     failureReason: clip.failureReason,
     originalName: clip.originalName,

@@ -120,6 +120,7 @@ export async function seedDemoClips(deps: DemoClipDeps, clubId: string): Promise
       uploadedById: coach?.id ?? null,
       view: plan.view,
       facing: 'toward',
+      athletePick: null,
       status: 'uploaded',
       failureReason: null,
       originalName: `${plan.footage}.mp4`,

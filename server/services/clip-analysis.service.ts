@@ -9,7 +9,7 @@ import type {
   FrameResultResponse,
 } from '@shared/schemas/frames.schema';
 import type { Clip } from '../entities/clip.entity';
-import { forbidden } from '../errors';
+import { fieldError, forbidden } from '../errors';
 import type { AccessService } from './access.service';
 import type { AuditService } from './audit.service';
 import type { ClipService } from './clip.service';
@@ -95,6 +95,23 @@ export class ClipAnalysisService {
       const patch: Partial<Clip> = {};
       if (input.view !== undefined) patch.view = input.view;
       if (input.facing !== undefined && input.facing !== clip.facing) patch.facing = input.facing;
+      if (input.athletePick !== undefined) {
+        // The point must lie in the frame it names (the clip's own pixels and frames).
+        if (input.athletePick) {
+          this.frames.checkFrameRange(clip, [
+            { frameIndex: input.athletePick.frameIndex, path: ['athletePick', 'frameIndex'] },
+          ]);
+          if (
+            (clip.width !== null && input.athletePick.x > clip.width) ||
+            (clip.height !== null && input.athletePick.y > clip.height)
+          )
+            throw fieldError(
+              'athletePick',
+              `The point must be inside the ${clip.width}×${clip.height} frame`,
+            );
+        }
+        patch.athletePick = input.athletePick;
+      }
       if (input.defaultModel !== undefined) patch.defaultModel = input.defaultModel;
       if (Object.keys(patch).length > 0) await repos.clipMedia.update(clip.id, patch);
       if (input.referenceLine !== undefined) {

@@ -193,6 +193,7 @@ export class ClipService {
         uploadedById: principal.user.id,
         view: fields.view,
         facing: fields.facing ?? 'toward',
+        athletePick: null,
         // The header probe above answers at once; the media pipeline then makes the playable copy,
         // poster and thumbnails and moves the clip to ready (or failed, with the reason).
         status: 'uploaded',

@@ -1,5 +1,11 @@
 import { z } from 'zod';
-import { POSE_MODELS, type PoseModelName, type ReferenceLine, type SkierFacing } from '../keypoints';
+import {
+  POSE_MODELS,
+  type AthletePick,
+  type PoseModelName,
+  type ReferenceLine,
+  type SkierFacing,
+} from '../keypoints';
 
 export const CLIP_VIEWS = ['front', 'side'] as const;
 export const CLIP_STATUSES = ['uploaded', 'processing', 'ready', 'failed'] as const;
@@ -36,6 +42,8 @@ export interface ClipDto {
   view: (typeof CLIP_VIEWS)[number];
   /** Front view: toward the camera, or away from it (filmed from behind; left and right swapped back). */
   facing: SkierFacing;
+  /** The athlete picked among several people (followed from that frame on), or null. */
+  athletePick: AthletePick | null;
   status: ClipStatus;
   failureReason: string | null;
   originalName: string;
@@ -101,6 +109,16 @@ export const updateClipSchema = z
   .object({
     view: z.enum(CLIP_VIEWS, { message: 'Choose front or side view' }).optional(),
     facing: z.enum(['toward', 'away'], { message: 'Choose toward or away from the camera' }).optional(),
+    /** null forgets the pick: whoever the model finds is measured. */
+    athletePick: z
+      .object({
+        frameIndex: z.number().int('frameIndex is a whole number').min(0),
+        x: z.number().finite().min(0, 'The point must be inside the frame'),
+        y: z.number().finite().min(0, 'The point must be inside the frame'),
+      })
+      .strict()
+      .nullable()
+      .optional(),
     defaultModel: z
       .enum(POSE_MODELS as [PoseModelName, ...PoseModelName[]], {
         message: `Choose a model: ${POSE_MODELS.join(', ')}`,

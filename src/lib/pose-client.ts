@@ -12,6 +12,7 @@
 // the signal aborts (frames not yet sent are closed, the worker drops the ones still waiting).
 
 import type { Keypoint, PoseModelName, ReferenceLine, SkierFacing, View } from '@shared/keypoints';
+import type { FollowState, PickPoint } from '@shared/pose/follow';
 import type { MetricKey } from '@shared/metrics';
 
 export interface PoseFrameRequest {
@@ -23,6 +24,11 @@ export interface PoseFrameRequest {
   referenceLine?: ReferenceLine | null;
   /** Front view filmed from behind: the worker swaps left and right back to the skier's own. */
   facing?: SkierFacing;
+  /**
+   * Follow one athlete among several people: `pick` finds them at a point of this frame (source
+   * pixels) and starts following; `next` reads this frame around where they were in the last one.
+   */
+  follow?: { pick: PickPoint } | { next: true } | null;
   /** A still image rather than a clip frame: tracking reset before it, no temporal smoothing. */
   still?: boolean;
 }
@@ -40,6 +46,8 @@ export interface PoseFrameResult extends PoseFrameRequest {
   /** detectMs: the model passes; totalMs: the whole frame in the worker, pixels to metrics. */
   timings: { detectMs: number; totalMs: number; passes: number };
   backend: string;
+  /** With `follow`: whether the athlete was found in this frame, and why not. */
+  followed?: { state: FollowState; reason: string | null };
 }
 
 export interface WorkerConfig {

@@ -7,10 +7,11 @@ import * as tf from '@tensorflow/tfjs-core';
 import '@tensorflow/tfjs-backend-cpu';
 import '@tensorflow/tfjs-backend-webgl';
 import { setWasmPaths } from '@tensorflow/tfjs-backend-wasm';
-import type { PoseModelName } from '@shared/keypoints';
+import type { Keypoint, PoseModelName } from '@shared/keypoints';
 import { computeFrameMetrics, emptyFrameMetrics } from '@shared/metrics';
 import { orientKeypoints, scaleKeypoints } from '@shared/pose/keypoint-mapping';
-import { createPoseDetector, type PoseDetector } from '@shared/pose/pose-detector';
+import { AthleteFollower } from '@shared/pose/follow';
+import { createPoseDetector, type PixelBox, type PoseDetector } from '@shared/pose/pose-detector';
 import { modelUrl } from '@shared/pose/pose-models';
 import type { PoseFrameResult, WorkerConfig, WorkerRequest, WorkerResponse } from '@/lib/pose-client';
 
@@ -27,6 +28,8 @@ const detectors = new Map<PoseModelName, Promise<PoseDetector>>();
 const cancelledQueues = new Set<string>();
 let chain: Promise<void> = Promise.resolve();
 let canvas: OffscreenCanvas | null = null;
+/** The athlete being followed through a clip's frames (a pick starts it, `reset` ends it). */
+let follower: AthleteFollower | null = null;
 
 function post(message: WorkerResponse, transfer: Transferable[] = []): void {
   scope.postMessage(message, transfer);
@@ -106,10 +109,36 @@ async function handleDetect(message: Extract<WorkerRequest, { type: 'detect' }>)
     bitmap.close();
     // A still is unrelated to whatever came before: no tracking state carried into it.
     if (req.still) detector.reset();
-    const found = await detector.detect(
-      { ...pixels, channels: 4 },
-      { timeMs: req.still ? null : req.timeMs },
-    );
+    const image = { ...pixels, channels: 4 as const };
+    let found: { keypoints: Keypoint[]; score: number | null; timings: { detectMs: number; passes: number } };
+    let followed: PoseFrameResult['followed'];
+    if (req.follow) {
+      // Read only around the picked athlete (shared/pose/follow.ts), in the downscaled frame's pixels.
+      let detectMs = 0;
+      let passes = 0;
+      const read = async (region: PixelBox) => {
+        const r = await detector.detect(image, { region });
+        detectMs += r.timings.detectMs;
+        passes += 1;
+        return r.keypoints;
+      };
+      const size = { width: pixels.width, height: pixels.height };
+      let result;
+      if ('pick' in req.follow) {
+        follower = new AthleteFollower(size);
+        const s = pixels.width / sourceWidth;
+        result = await follower.pick({ x: req.follow.pick.x * s, y: req.follow.pick.y * s }, read);
+        if (!follower.following) follower = null;
+      } else if (follower) {
+        result = await follower.next(read);
+      } else {
+        result = { keypoints: [], state: 'lost' as const, reason: 'pick the athlete first' };
+      }
+      found = { keypoints: result.keypoints, score: null, timings: { detectMs, passes } };
+      followed = { state: result.state, reason: result.reason };
+    } else {
+      found = await detector.detect(image, { timeMs: req.still ? null : req.timeMs });
+    }
     // The skier's own left and right, whichever way they face the camera (filmed from behind: swapped).
     const keypoints = orientKeypoints(
       pixels.width === sourceWidth
@@ -126,7 +155,7 @@ async function handleDetect(message: Extract<WorkerRequest, { type: 'detect' }>)
             width: sourceWidth,
             height: sourceHeight,
           })
-        : emptyFrameMetrics('no skier found');
+        : emptyFrameMetrics(followed?.reason ?? 'no skier found');
     const result: PoseFrameResult = {
       ...req,
       keypoints,
@@ -142,6 +171,7 @@ async function handleDetect(message: Extract<WorkerRequest, { type: 'detect' }>)
         passes: found.timings.passes,
       },
       backend: detector.backend,
+      followed,
     };
     // Progress first: the client's queue promise may settle as soon as the last result arrives.
     if (queueId) post({ type: 'progress', queueId, id });
@@ -190,6 +220,7 @@ scope.onmessage = (event: MessageEvent<WorkerRequest>) => {
       break;
     case 'reset':
       chain = chain.then(async () => {
+        follower = null;
         for (const d of detectors.values()) (await d.catch(() => null))?.reset();
         post({ type: 'done', id: message.id });
       });

@@ -108,4 +108,32 @@ describe('a clip’s facing', () => {
       ).toBeGreaterThanOrEqual(403);
     expect((await server.http.get(`/api/clips/${clip.id}`).set(auth)).body.clip.facing).toBe('away');
   });
+
+  it('keeps the athlete the coach picked, checks the point is in the clip, and forgets it on request', async () => {
+    const clip = await settled(
+      server,
+      (await uploadClip(server, videoPath, { sessionId, athleteIds: elsie, view: 'front' })).id,
+    );
+    expect(clip.athletePick).toBeNull();
+    const auth = await server.bearer('coach');
+    const pick = { frameIndex: 3, x: 100, y: 80 };
+    const saved = await server.http.patch(`/api/clips/${clip.id}`).set(auth).send({ athletePick: pick });
+    expect(saved.status, JSON.stringify(saved.body)).toBe(200);
+    expect(saved.body.clip.athletePick).toEqual(pick);
+    for (const [bad, field] of [
+      [{ frameIndex: clip.frameCount! + 5, x: 10, y: 10 }, 'frameIndex'],
+      [{ frameIndex: 1, x: clip.width! + 50, y: 10 }, null],
+      [{ frameIndex: 1, x: -3, y: 10 }, 'x'],
+      [{ frameIndex: 1.5, x: 3, y: 10 }, 'frameIndex'],
+      [{ frameIndex: 1, x: 3 }, 'y'],
+      [{ frameIndex: 1, x: 3, y: 3, size: 2 }, null],
+    ] as const) {
+      const res = await server.http.patch(`/api/clips/${clip.id}`).set(auth).send({ athletePick: bad });
+      expect(res.status, JSON.stringify(bad)).toBe(400);
+      if (field) expect(JSON.stringify(res.body.error.details.issues[0].path)).toContain(field);
+    }
+    expect((await server.http.get(`/api/clips/${clip.id}`).set(auth)).body.clip.athletePick).toEqual(pick);
+    const forgotten = await server.http.patch(`/api/clips/${clip.id}`).set(auth).send({ athletePick: null });
+    expect(forgotten.body.clip.athletePick).toBeNull();
+  });
 });

@@ -76,6 +76,7 @@ const clip: Clip = {
   uploadedById: null,
   view: 'side',
   facing: 'toward',
+  athletePick: null,
   status: 'ready',
   failureReason: null,
   originalName: 'side.mp4',

@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { PoseModelName, ReferenceLine, SkierFacing, View } from '@shared/keypoints';
+import type { AthletePick, PoseModelName, ReferenceLine, SkierFacing, View } from '@shared/keypoints';
 import type { ClipResponse } from '@shared/schemas/clip.schema';
 import { api } from '@/lib/api-client';
 import { clipWorkspaceKeys } from './keys';
@@ -7,6 +7,7 @@ import { clipWorkspaceKeys } from './keys';
 export interface UpdateClipInput {
   view?: View;
   facing?: SkierFacing;
+  athletePick?: AthletePick | null;
   defaultModel?: PoseModelName;
   referenceLine?: ReferenceLine | null;
   frameReferenceLines?: { frameIndex: number; referenceLine: ReferenceLine | null }[];

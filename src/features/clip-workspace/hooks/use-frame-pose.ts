@@ -40,12 +40,14 @@ export function useFramePose() {
   }, [stored.data, model, videoSize.width, videoSize.height]);
 
   const liveCache = useRef(new Map<string, FrameKeypoints>());
-  // Live results carry the sides of the facing they were read with: a new facing reads frames afresh.
+  // Live results carry the facing and the pick they were read with: a new one reads frames afresh.
   const facing = clip.facing;
-  const [cachedFacing, setCachedFacing] = useState(facing);
-  if (cachedFacing !== facing) {
+  const pick = clip.athletePick ?? null;
+  const readWith = `${facing}|${pick ? `${pick.frameIndex}:${pick.x},${pick.y}` : ''}`;
+  const [cachedWith, setCachedWith] = useState(readWith);
+  if (cachedWith !== readWith) {
     liveCache.current.clear();
-    setCachedFacing(facing);
+    setCachedWith(readWith);
   }
   const request = useRef(0);
   const inFlight = useRef(false);
@@ -112,6 +114,8 @@ export function useFramePose() {
           model,
           view,
           facing,
+          // On the frame where the coach picked the athlete, read them there and not whoever else.
+          follow: pick && pick.frameIndex === frameIndex ? { pick: { x: pick.x, y: pick.y } } : null,
           // No temporal smoothing: it would blend in the frames stepped through before this one.
           still: true,
         });
@@ -152,6 +156,7 @@ export function useFramePose() {
     model,
     view,
     facing,
+    pick,
     fps,
     videoRef,
     corrections,

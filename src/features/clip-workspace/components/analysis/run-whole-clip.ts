@@ -1,4 +1,11 @@
-import type { Keypoint, PoseModelName, ReferenceLine, SkierFacing, View } from '@shared/keypoints';
+import type {
+  AthletePick,
+  Keypoint,
+  PoseModelName,
+  ReferenceLine,
+  SkierFacing,
+  View,
+} from '@shared/keypoints';
 import { MAX_FRAMES_PER_BATCH } from '@shared/schemas/frames.schema';
 import type { FrameUpload, PostClipFramesInput, PostClipFramesResponse } from '../../api/post-clip-frames';
 import { frameStartMs } from '../../lib/frame-time';
@@ -11,6 +18,7 @@ export interface DetectRequest {
   view: View;
   referenceLine?: ReferenceLine | null;
   facing?: SkierFacing;
+  follow?: { pick: { x: number; y: number } } | { next: true } | null;
 }
 
 export interface WholeClipDeps<F> {
@@ -32,6 +40,11 @@ export interface WholeClipPlan {
   referenceLine: ReferenceLine | null;
   /** Front view filmed from behind: left and right swapped back (absent: toward the camera). */
   facing?: SkierFacing;
+  /**
+   * The athlete picked among several people: the run starts at the pick's frame (the plan's first)
+   * and follows them from there; absent: whoever the model finds in each frame.
+   */
+  pick?: AthletePick | null;
 }
 
 export interface WholeClipProgress {
@@ -158,6 +171,7 @@ export async function runWholeClip<F>(
         view: plan.view,
         referenceLine: plan.referenceLine,
         facing: plan.facing,
+        follow: plan.pick ? (k === 0 ? { pick: { x: plan.pick.x, y: plan.pick.y } } : { next: true }) : null,
       });
       if (result.keypoints.length === 0) emptyFrames += 1;
       pending.push({ frameIndex, timeMs: round(timeMs, 3), keypoints: compactKeypoints(result.keypoints) });

@@ -66,8 +66,12 @@ export function useWholeClipAnalysis() {
       const abort = new AbortController();
       controller.current = abort;
       const model = chosenModel;
+      // With a picked athlete the run starts at the pick and follows them: earlier frames are left out.
+      const pick = clip.athletePick ?? null;
+      const every = framesToAnalyze(frameCount, everyNth);
       const plan = {
-        frames: framesToAnalyze(frameCount, everyNth),
+        frames: pick ? [pick.frameIndex, ...every.filter((f) => f > pick.frameIndex)] : every,
+        pick,
         fps: fps,
         model,
         view: clip.view,
@@ -120,7 +124,7 @@ export function useWholeClipAnalysis() {
         if (controller.current === abort) controller.current = null;
       }
     },
-    [upload, mediaSrc, fps, frameCount, chosenModel, referenceLine, clip.view, clip.facing],
+    [upload, mediaSrc, fps, frameCount, chosenModel, referenceLine, clip.view, clip.facing, clip.athletePick],
   );
 
   const cancel = useCallback(() => {

@@ -3,6 +3,7 @@ import { POSE_MODEL_INFO } from '@shared/pose/pose-models';
 import { POSE_MODELS, type PoseModelName } from '@shared/keypoints';
 import { useEffect, useRef } from 'react';
 import { useSearchParams } from 'react-router-dom';
+import { AthletePickControl } from './athlete-pick-control';
 import { FacingControl } from './facing-control';
 import { Spinner } from '@/components/ui/spinner';
 import { useUser } from '@/lib/auth';
@@ -189,6 +190,7 @@ export function ReadoutsPanel() {
         <StatusLine pose={currentPose} status={poseStatus} />
         <LineInForce />
         <FacingControl />
+        <AthletePickControl />
       </header>
       <ul>
         {definitions.map((definition) => (
