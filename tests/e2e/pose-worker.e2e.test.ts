@@ -13,7 +13,14 @@ import type { PoseModelName } from '@shared/keypoints';
 import { computeFrameMetrics } from '@shared/metrics';
 import { createNodePoseDetector } from '@server/pose/node-detector';
 import type { PoseFrameRequest, PoseFrameResult } from '@/lib/pose-client';
-import { renderPhantom } from '../../fixtures/phantom/render-phantom';
+import { AthleteFollower } from '@shared/pose/follow';
+import { orientKeypoints } from '@shared/pose/keypoint-mapping';
+import type { PixelBox } from '@shared/pose/pose-detector';
+import {
+  renderPhantom,
+  renderPhantomGroup,
+  type PhantomFrameSpec,
+} from '../../fixtures/phantom/render-phantom';
 import { PHANTOM_CASES } from '../pose/phantom-cases';
 import { BODY_JOINTS, evaluateFrame } from '../pose/phantom-eval';
 import { BROWSER_NODE_AGREEMENT, JOINT_TOLERANCE, METRIC_TOLERANCE } from '../pose/tolerances';
@@ -67,6 +74,9 @@ beforeAll(async () => {
   for (const [i, c] of PHANTOM_CASES.entries()) {
     writeFileSync(join(framesDir, `case-${i}.png`), await renderPhantom(c.spec).png());
   }
+  for (let i = 0; i < CROSSING_FRAMES; i++)
+    writeFileSync(join(framesDir, `crossing-${i}.png`), await crossingPng(i));
+  writeFileSync(join(framesDir, 'behind.png'), await renderPhantom(BEHIND).png());
   await build({
     configFile: false,
     logLevel: 'error',
@@ -115,6 +125,46 @@ function detectIn(page: Page, url: string, req: PoseFrameRequest): Promise<PoseF
     [url, req] as const,
   );
 }
+
+// Two skiers crossing (the picked one in front, the other further up the hill behind), as in
+// tests/pose/follow.test.ts, and one skier filmed from behind leaning to their left.
+const CROSSING_FRAMES = 8;
+function crossingSpecs(i: number): [PhantomFrameSpec, PhantomFrameSpec] {
+  const t = i / (CROSSING_FRAMES - 1);
+  const common = { width: 960, height: 540, roll: 0, seed: 3 } as const;
+  return [
+    {
+      ...common,
+      pose: { view: 'front', facing: 'toward', inclination: -12, kneeFlexion: 40 },
+      skierHeight: 540 * 0.34,
+      origin: [960 * (0.75 - 0.5 * t), 540 * 0.62],
+      outfit: 2,
+    },
+    {
+      ...common,
+      pose: { view: 'front', facing: 'toward', inclination: 15, kneeFlexion: 50 },
+      skierHeight: 540 * 0.45,
+      origin: [960 * (0.25 + 0.5 * t), 540 * 0.93],
+      outfit: 0,
+    },
+  ];
+}
+async function crossingPng(i: number): Promise<Buffer> {
+  const group = renderPhantomGroup(crossingSpecs(i));
+  const { createCanvas } = await import('@napi-rs/canvas');
+  const canvas = createCanvas(group.width, group.height);
+  const ctx = canvas.getContext('2d');
+  const image = ctx.createImageData(group.width, group.height);
+  image.data.set(group.rgba);
+  ctx.putImageData(image, 0, 0);
+  return canvas.encode('png');
+}
+const BEHIND: PhantomFrameSpec = {
+  pose: { view: 'front', facing: 'away', inclination: 18, angulation: 5 },
+  width: 640,
+  height: 480,
+  skierHeight: 320,
+};
 
 describe('pose worker in headless Chromium', () => {
   const models: PoseModelName[] = ['lightning', 'blazepose'];
@@ -194,6 +244,80 @@ describe('pose worker in headless Chromium', () => {
     },
     300_000,
   );
+
+  it('follows a picked athlete and swaps a skier filmed from behind as Node and the command line do', async () => {
+    const page = await openHarness();
+    const node = await createNodePoseDetector('lightning');
+    try {
+      await page.evaluate(() =>
+        (window as unknown as { poseHarness: { reset(): Promise<void> } }).poseHarness.reset(),
+      );
+      const follower = new AthleteFollower({ width: 960, height: 540 });
+      for (let i = 0; i < CROSSING_FRAMES; i++) {
+        const group = renderPhantomGroup(crossingSpecs(i));
+        const picked = group.truths[1];
+        const point = {
+          x: (picked.joints.left_hip[0] + picked.joints.right_hip[0]) / 2,
+          y: (picked.joints.left_hip[1] + picked.joints.right_hip[1]) / 2,
+        };
+        const follow = i === 0 ? { pick: point } : { next: true as const };
+        const inBrowser = await detectIn(page, `/frames/crossing-${i}.png`, {
+          frameIndex: i,
+          timeMs: i * 40,
+          model: 'lightning',
+          view: 'front',
+          follow,
+        });
+        expect(inBrowser.followed?.state, `frame ${i}: ${inBrowser.followed?.reason}`).toBe('following');
+        const image = { data: group.rgba, width: 960, height: 540, channels: 4 as const };
+        const read = async (region: PixelBox) => (await node.detect(image, { region })).keypoints;
+        const inNode = i === 0 ? await follower.pick(point, read) : await follower.next(read);
+        for (const joint of BODY_JOINTS) {
+          const a = inBrowser.keypoints.find((k) => k.name === joint)!;
+          const b = inNode.keypoints.find((k) => k.name === joint)!;
+          const apart = Math.hypot(a.x - b.x, a.y - b.y) / picked.torsoLength;
+          expect(apart, `frame ${i}: ${joint} browser vs Node`).toBeLessThan(BROWSER_NODE_AGREEMENT);
+        }
+        // The picked skier, not the other one.
+        expect(evaluateFrame(inBrowser.keypoints, picked).jointError.left_hip!, `frame ${i}`).toBeLessThan(
+          0.2,
+        );
+      }
+
+      // Filmed from behind: the worker swaps to the skier's own sides exactly as orientKeypoints does in Node.
+      const frame = renderPhantom(BEHIND);
+      await page.evaluate(() =>
+        (window as unknown as { poseHarness: { reset(): Promise<void> } }).poseHarness.reset(),
+      );
+      const away = await detectIn(page, '/frames/behind.png', {
+        frameIndex: 0,
+        timeMs: 0,
+        model: 'lightning',
+        view: 'front',
+        facing: 'away',
+        still: true,
+        referenceLine: frame.truth.referenceLine,
+      });
+      node.reset();
+      const nodeAway = orientKeypoints(
+        (await node.detect({ data: frame.rgba, width: frame.width, height: frame.height, channels: 4 }))
+          .keypoints,
+        'away',
+      );
+      for (const joint of BODY_JOINTS) {
+        const a = away.keypoints.find((k) => k.name === joint)!;
+        const b = nodeAway.find((k) => k.name === joint)!;
+        expect(
+          Math.hypot(a.x - b.x, a.y - b.y) / frame.truth.torsoLength,
+          `${joint} browser vs Node`,
+        ).toBeLessThan(BROWSER_NODE_AGREEMENT);
+      }
+      expect(Math.sign(away.metrics.inclination!)).toBe(Math.sign(frame.truth.metrics.inclination!));
+    } finally {
+      node.dispose();
+      await page.close();
+    }
+  }, 300_000);
 
   it.each([
     ['software WebGL when allowed', '?software-webgl', 'webgl'],
