@@ -423,12 +423,13 @@ describe('snow line and view', () => {
 
 describe('whole clip: series, turns and transition flags', () => {
   // The synthetic skier (tests/shared/series/synthetic-clip.ts) leans ±25° with a 1.6 s period, so
-  // it turns every 800 ms with transitions at 0, 800, 1600 ms…; legExtension = 0.85 + 0.08·cos(2πt/800)
-  // is 0.93 at each transition and 0.77 at each apex: a transition rise of 0.93 − 0.77 = 0.16 by
-  // construction, above the 0.05 band ("no standing tall in the transition", docs/metrics.md).
+  // it turns every 800 ms with transitions at 0, 800, 1600 ms…; standHeight = 4 + 0.3·cos(2πt/800)
+  // is 4.3 hip widths at each transition and 3.7 at each apex: a transition rise of 4.3 / 3.7 − 1 =
+  // 0.162 by construction, above the 0.05 band ("no standing tall in the transition", docs/metrics.md).
   const frames = syntheticClip(SECONDS * FPS, FPS, (t) => ({
     inclinationDeg: 25 * Math.sin((2 * Math.PI * t) / 1600),
-    legExtension: 0.85 + 0.08 * Math.cos((2 * Math.PI * t) / 800),
+    legExtension: 0.85,
+    standHeight: 4 + 0.3 * Math.cos((2 * Math.PI * t) / 800),
     shoulderTiltDeg: 0,
   }));
 
@@ -451,8 +452,8 @@ describe('whole clip: series, turns and transition flags', () => {
       expect(flag.frameIndex).toBe(turn.endFrame);
       expect(flag).toMatchObject({ max: 0.05, side: 'above' });
       // Smoothing at 6 Hz barely touches a 1.25 Hz swing: within 0.02 of the constructed 0.16.
-      expect(flag.value).toBeCloseTo(0.16, 1);
-      expect(Math.abs(flag.value - 0.16)).toBeLessThan(0.02);
+      expect(flag.value).toBeCloseTo(0.162, 1);
+      expect(Math.abs(flag.value - 0.162)).toBeLessThan(0.02);
     }
   });
 
