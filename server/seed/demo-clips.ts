@@ -5,7 +5,7 @@ import path from 'node:path';
 import type { Logger } from 'pino';
 import type { DataSource } from 'typeorm';
 import { z } from 'zod';
-import type { View } from '@shared/keypoints';
+import type { AthletePick, View } from '@shared/keypoints';
 import {
   frameBatchSchema,
   keypointSchema,
@@ -26,12 +26,27 @@ export const DEMO_FOOTAGE_DIR = path.join('fixtures', 'phantom', 'demo');
 export const DEMO_KEYPOINTS_DIR = path.join('fixtures', 'media', 'demo');
 
 /** Which demo athlete appears in which clip of which session (0 = the earlier, baseline session). */
-export const DEMO_CLIP_PLAN: { footage: string; view: View; athlete: string; session: 0 | 1 }[] = [
+export const DEMO_CLIP_PLAN: {
+  footage: string;
+  view: View;
+  athlete: string;
+  session: 0 | 1;
+  /** The athlete the coach picked among several people (frame 0: the athlete's hips in the truth file). */
+  pick?: AthletePick;
+}[] = [
   { footage: 'phantom-front-turns', view: 'front', athlete: 'elsie', session: 0 },
   { footage: 'phantom-side-run', view: 'side', athlete: 'elsie', session: 0 },
   { footage: 'phantom-front-turns', view: 'front', athlete: 'finn', session: 0 },
   { footage: 'phantom-spring-turns', view: 'front', athlete: 'elsie', session: 1 },
   { footage: 'phantom-side-run', view: 'side', athlete: 'arlo', session: 1 },
+  // Another skier crosses behind Kit: the coach picked Kit, and the stored frames follow Kit.
+  {
+    footage: 'phantom-crossing-turns',
+    view: 'front',
+    athlete: 'kit',
+    session: 1,
+    pick: { frameIndex: 0, x: 282, y: 251 },
+  },
 ];
 
 export const demoKeypointFileSchema = z.object({
@@ -120,7 +135,7 @@ export async function seedDemoClips(deps: DemoClipDeps, clubId: string): Promise
       uploadedById: coach?.id ?? null,
       view: plan.view,
       facing: 'toward',
-      athletePick: null,
+      athletePick: plan.pick ?? null,
       status: 'uploaded',
       failureReason: null,
       originalName: `${plan.footage}.mp4`,

@@ -20,13 +20,15 @@ const round = (value: number, digits: number) => Number(value.toFixed(digits));
 
 // Optional footage names limit the run to those clips (the others keep their committed keypoints).
 const only = process.argv.slice(2);
-const footage = [...new Map(DEMO_CLIP_PLAN.map((p) => [p.footage, p.view])).entries()].filter(
+const footage = [...new Map(DEMO_CLIP_PLAN.map((p) => [p.footage, p])).entries()].filter(
   ([name]) => only.length === 0 || only.includes(name),
 );
 await fs.mkdir(DEMO_KEYPOINTS_DIR, { recursive: true });
-for (const [name, view] of footage) {
+for (const [name, { view, pick }] of footage) {
   const clip = path.join(DEMO_FOOTAGE_DIR, `${name}.mp4`);
-  const args = ['tsx', 'server/cli/analyze.ts', '--model', MODEL, '--view', view, '--json', clip];
+  // A clip with other people in it follows the athlete the coach picked, as the app would.
+  const picked = pick ? ['--pick', `${pick.x},${pick.y}@${pick.frameIndex}`] : [];
+  const args = ['tsx', 'server/cli/analyze.ts', '--model', MODEL, '--view', view, ...picked, '--json', clip];
   const { stdout } = await run('npx', args, { maxBuffer: 256 * 1024 * 1024 });
   const frames = stdout
     .trim()

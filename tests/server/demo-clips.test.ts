@@ -86,3 +86,33 @@ describe('demo clips', () => {
     expect(sideRead.series!.turns).toEqual([]);
   });
 });
+
+describe('the demo clip with another skier crossing', () => {
+  it('keeps the coach’s pick and stores the picked athlete in every frame, not the other skier', async () => {
+    const { clips } = await get<{ clips: ClipDto[] }>('/api/clips');
+    const crossing = clips.find((c) => c.originalName === 'phantom-crossing-turns.mp4')!;
+    const plan = DEMO_CLIP_PLAN.find((p) => p.footage === 'phantom-crossing-turns')!;
+    expect(crossing.athletePick).toEqual(plan.pick);
+    const truth = JSON.parse(
+      await fs.readFile(path.join(DEMO_FOOTAGE_DIR, 'phantom-crossing-turns.truth.json'), 'utf8'),
+    ) as { frames: { frame: number; joints: Record<string, [number, number]>; torsoLength: number }[] };
+    const read = await get<ClipFramesResponse>(`/api/clips/${crossing.id}/frames?model=lightning`);
+    expect(read.frames).toHaveLength(truth.frames.length);
+    const hips = (points: Record<string, { x: number; y: number } | [number, number]>) => {
+      const xy = (p: { x: number; y: number } | [number, number]) => (Array.isArray(p) ? p : [p.x, p.y]);
+      const [lx, ly] = xy(points.left_hip);
+      const [rx, ry] = xy(points.right_hip);
+      return [(lx + rx) / 2, (ly + ry) / 2];
+    };
+    for (const frame of read.frames) {
+      const want = truth.frames[frame.frameIndex];
+      const got = hips(Object.fromEntries(frame.keypoints.map((k) => [k.name, k])));
+      const at = hips(want.joints);
+      // Within a quarter torso of the picked athlete's hips (0.16 at most, 0.043 median when made).
+      expect(
+        Math.hypot(got[0] - at[0], got[1] - at[1]) / want.torsoLength,
+        `frame ${frame.frameIndex}`,
+      ).toBeLessThan(0.25);
+    }
+  });
+});
