@@ -1,7 +1,7 @@
 import * as poseDetection from '@tensorflow-models/pose-detection';
 import type * as tfc from '@tensorflow/tfjs-core';
 import type { Keypoint, PoseModelName } from '../keypoints';
-import { mapKeypoints } from './keypoint-mapping';
+import { mapKeypoints, swapLeftRight } from './keypoint-mapping';
 import { POSE_MODEL_INFO, type ModelDir } from './pose-models';
 
 /** The tfjs-core namespace the caller has registered its backends on. */
@@ -47,6 +47,11 @@ export interface DetectOptions {
    * carried into or out of a region read (each crop is a fresh image to the model).
    */
   region?: PixelBox | null;
+  /**
+   * Stills only: read the frame and its mirror image, swap the mirror's left and right back, and
+   * average each point weighted by score (test-time flipping; docs/accuracy.md). Twice the passes.
+   */
+  flipAverage?: boolean;
 }
 
 /** A box in image pixels, y down. */
@@ -126,6 +131,23 @@ async function loadModel(
     enableSmoothing: true,
     minPoseScore,
     modelUrl: source(model === 'thunder' ? 'movenet-thunder' : 'movenet-lightning'),
+  });
+}
+
+/** Each point as the score-weighted mean of two reads of it; a point only one read has is kept as is. */
+export function averageKeypoints(a: readonly Keypoint[], b: readonly Keypoint[]): Keypoint[] {
+  const other = new Map(b.map((k) => [k.name, k]));
+  return a.map((k) => {
+    const o = other.get(k.name);
+    if (!o) return k;
+    const w = k.score + o.score;
+    if (w === 0) return k;
+    return {
+      name: k.name,
+      x: (k.x * k.score + o.x * o.score) / w,
+      y: (k.y * k.score + o.y * o.score) / w,
+      score: (k.score + o.score) / 2,
+    };
   });
 }
 
@@ -220,8 +242,27 @@ export async function createPoseDetector(options: PoseDetectorOptions): Promise<
         pose = await estimate(tensor, timeMs);
         passes += 1;
       }
-      const keypoints = pose ? mapKeypoints(pose.keypoints) : [];
-      cold = keypoints.length === 0;
+      let keypoints = pose ? mapKeypoints(pose.keypoints) : [];
+      if (opts.flipAverage && keypoints.length > 0) {
+        // The mirror image is a fresh still: no tracking state in or out.
+        const mirror = tf.reverse(tensor, 1) as tfc.Tensor3D;
+        try {
+          inner.reset();
+          let flipped = await estimate(mirror, null);
+          if (refine && flipped && flipped.keypoints.length > 0) flipped = await estimate(mirror, null);
+          passes += refine ? 2 : 1;
+          inner.reset();
+          if (flipped && flipped.keypoints.length > 0) {
+            const back = swapLeftRight(
+              mapKeypoints(flipped.keypoints).map((k) => ({ ...k, x: width - k.x })),
+            );
+            keypoints = averageKeypoints(keypoints, back);
+          }
+        } finally {
+          mirror.dispose();
+        }
+      }
+      cold = keypoints.length === 0 || opts.flipAverage === true;
       return {
         keypoints,
         score: keypoints.length > 0 ? (pose?.score ?? null) : null,
