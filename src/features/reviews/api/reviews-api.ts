@@ -1,3 +1,4 @@
+import { useRef } from 'react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { NoteListResponse } from '@shared/schemas/note.schema';
 import type { CompareStillDto, SeasonPlanResponse } from '@shared/schemas/plan.schema';
@@ -68,6 +69,9 @@ export function useReviewSources(review: ReviewDto | undefined) {
 
 export function useUpdateReview(id: string) {
   const queryClient = useQueryClient();
+  // Saves overlap when the coach ticks quickly: only the latest one's answer (or failure) settles the
+  // state, so an earlier answer arriving later cannot undo a tick made meanwhile.
+  const latest = useRef(0);
   return useMutation({
     mutationFn: (input: UpdateReviewInput) =>
       api.patch<{ review: ReviewDto }>(`/api/reviews/${encodeURIComponent(id)}`, input),
@@ -75,12 +79,17 @@ export function useUpdateReview(id: string) {
     onMutate: (input) => {
       const before = queryClient.getQueryData<ReviewDto>(reviewKeys.one(id));
       if (before) queryClient.setQueryData(reviewKeys.one(id), { ...before, ...input });
-      return { before };
+      return { before, seq: ++latest.current };
     },
-    onError: (_error, _input, context) => {
-      if (context?.before) queryClient.setQueryData(reviewKeys.one(id), context.before);
+    onError: async (_error, _input, context) => {
+      if (context?.seq === latest.current && context.before)
+        queryClient.setQueryData(reviewKeys.one(id), context.before);
+      // An earlier save failed under later ones: read what is stored.
+      else await queryClient.invalidateQueries({ queryKey: reviewKeys.one(id) });
     },
-    onSuccess: (data) => queryClient.setQueryData(reviewKeys.one(id), data.review),
+    onSuccess: (data, _input, context) => {
+      if (context?.seq === latest.current) queryClient.setQueryData(reviewKeys.one(id), data.review);
+    },
   });
 }
 
