@@ -5,8 +5,8 @@
 //
 //   npx tsx tests/pose/flip-eval.ts [--count 96] [--seed 2024] [--models lightning,thunder,blazepose] [--write docs/accuracy.md]
 
-import { readFileSync, writeFileSync } from 'node:fs';
 import { parseArgs } from 'node:util';
+import { writeDocSection } from './doc-section';
 import type { PoseModelName } from '@shared/keypoints';
 import { computeFrameMetrics } from '@shared/metrics';
 import { createNodePoseDetector } from '@server/pose/node-detector';
@@ -111,14 +111,6 @@ if (isMain) {
     ...rows,
     '<!-- flip-eval:end -->',
   ].join('\n');
-  if (values.write) {
-    const doc = readFileSync(values.write, 'utf8');
-    const start = doc.indexOf('<!-- flip-eval:start -->');
-    const end = doc.indexOf('<!-- flip-eval:end -->');
-    const next =
-      start >= 0 && end > start
-        ? `${doc.slice(0, start)}${section}${doc.slice(end + '<!-- flip-eval:end -->'.length)}`
-        : `${doc.trimEnd()}\n\n${section}\n`;
-    writeFileSync(values.write, next);
-  } else process.stdout.write(`${section}\n`);
+  if (values.write) writeDocSection(values.write, 'flip-eval', section);
+  else process.stdout.write(`${section}\n`);
 }

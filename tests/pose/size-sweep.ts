@@ -7,8 +7,8 @@
 //
 // With --write it replaces the section between the size-sweep markers of that file.
 
-import { readFileSync, writeFileSync } from 'node:fs';
 import { parseArgs } from 'node:util';
+import { writeDocSection } from './doc-section';
 import type { PoseModelName } from '@shared/keypoints';
 import { createNodePoseDetector } from '@server/pose/node-detector';
 import { phantomSet } from '../../fixtures/phantom/phantom-set';
@@ -110,14 +110,6 @@ if (isMain) {
     ...rows,
     '<!-- size-sweep:end -->',
   ].join('\n');
-  if (values.write) {
-    const doc = readFileSync(values.write, 'utf8');
-    const start = doc.indexOf('<!-- size-sweep:start -->');
-    const end = doc.indexOf('<!-- size-sweep:end -->');
-    const next =
-      start >= 0 && end > start
-        ? `${doc.slice(0, start)}${section}${doc.slice(end + '<!-- size-sweep:end -->'.length)}`
-        : `${doc.trimEnd()}\n\n${section}\n`;
-    writeFileSync(values.write, next);
-  } else process.stdout.write(`${section}\n`);
+  if (values.write) writeDocSection(values.write, 'size-sweep', section);
+  else process.stdout.write(`${section}\n`);
 }
