@@ -1,4 +1,5 @@
 import { randomUUID } from 'node:crypto';
+import type { EntityManager } from 'typeorm';
 import type { AthleteResponse, RecordConsentInput } from '@shared/schemas/athlete.schema';
 import type {
   ConsentDecisionInput,
@@ -61,19 +62,12 @@ export class ConsentService {
     await uow.transaction(async (manager) => {
       const repos = uow.of(manager);
       await repos.athletes.update(athlete.id, patch);
-      await repos.athletes.addConsentEvent(
-        this.event(principal, athlete.id, restoring ? 'restored' : 'given', now, {
-          purposes: input.shareByEmail ? ['store_clips', 'share_by_email'] : ['store_clips'],
-          decidedBy: input.guardianName,
-          method: input.method,
-        }),
-      );
-      await this.deps.audit.record(manager, {
-        clubId: principal.clubId,
-        actorUserId: principal.user.id,
-        action: restoring ? 'athlete.consent_restore' : 'athlete.consent',
-        targetType: 'athlete',
-        targetId: athlete.id,
+      await this.recordStep(manager, principal, athlete, now, {
+        action: restoring ? 'restored' : 'given',
+        purposes: input.shareByEmail ? ['store_clips', 'share_by_email'] : ['store_clips'],
+        decidedBy: input.guardianName,
+        method: input.method,
+        audit: restoring ? 'athlete.consent_restore' : 'athlete.consent',
         details: { method: input.method, shareByEmail: input.shareByEmail },
       });
     });
@@ -109,18 +103,11 @@ export class ConsentService {
     await uow.transaction(async (manager) => {
       const repos = uow.of(manager);
       await repos.athletes.update(athlete.id, patch);
-      await repos.athletes.addConsentEvent(
-        this.event(principal, athlete.id, 'withdrawn', now, {
-          purposes: ['store_clips', 'share_by_email'],
-          ...decision,
-        }),
-      );
-      await this.deps.audit.record(manager, {
-        clubId: athlete.clubId,
-        actorUserId: principal.user.id,
-        action: 'athlete.consent_withdraw',
-        targetType: 'athlete',
-        targetId: athlete.id,
+      await this.recordStep(manager, principal, athlete, now, {
+        action: 'withdrawn',
+        purposes: ['store_clips', 'share_by_email'],
+        ...decision,
+        audit: 'athlete.consent_withdraw',
         details: { graceDays },
       });
     });
@@ -163,18 +150,11 @@ export class ConsentService {
     await uow.transaction(async (manager) => {
       const repos = uow.of(manager);
       await repos.athletes.update(athlete.id, patch);
-      await repos.athletes.addConsentEvent(
-        this.event(principal, athlete.id, 'restored', now, {
-          purposes: athlete.consentShareByEmail ? ['store_clips', 'share_by_email'] : ['store_clips'],
-          ...decision,
-        }),
-      );
-      await this.deps.audit.record(manager, {
-        clubId: athlete.clubId,
-        actorUserId: principal.user.id,
-        action: 'athlete.consent_restore',
-        targetType: 'athlete',
-        targetId: athlete.id,
+      await this.recordStep(manager, principal, athlete, now, {
+        action: 'restored',
+        purposes: athlete.consentShareByEmail ? ['store_clips', 'share_by_email'] : ['store_clips'],
+        ...decision,
+        audit: 'athlete.consent_restore',
       });
     });
     return this.deps.athletes.get(principal, athlete.id);
@@ -221,19 +201,12 @@ export class ConsentService {
       const repos = uow.of(manager);
       const changed = await repos.athletes.setGuardianKept(athlete.id, guardianId, keep ? now : null);
       if (changed === 0) throw notFound('Guardian');
-      await repos.athletes.addConsentEvent(
-        this.event(principal, athlete.id, keep ? 'guardian_kept' : 'guardian_ended', now, {
-          purposes: [],
-          decidedBy: principal.user.name,
-          method: 'in_app',
-        }),
-      );
-      await this.deps.audit.record(manager, {
-        clubId: athlete.clubId,
-        actorUserId: principal.user.id,
-        action: keep ? 'athlete.guardian_keep' : 'athlete.guardian_end',
-        targetType: 'athlete',
-        targetId: athlete.id,
+      await this.recordStep(manager, principal, athlete, now, {
+        action: keep ? 'guardian_kept' : 'guardian_ended',
+        purposes: [],
+        decidedBy: principal.user.name,
+        method: 'in_app',
+        audit: keep ? 'athlete.guardian_keep' : 'athlete.guardian_end',
       });
     });
     return this.record(principal, athlete.id);
@@ -270,22 +243,41 @@ export class ConsentService {
     }
   }
 
-  private event(
+  /**
+   * One step of the consent life cycle in the caller's transaction: its entry in the athlete's
+   * consent record, and the audit entry of who acted (no names).
+   */
+  private async recordStep(
+    manager: EntityManager,
     principal: Principal,
-    athleteId: string,
-    action: ConsentEvent['action'],
+    athlete: Athlete,
     at: Date,
-    what: { purposes: ConsentPurpose[]; decidedBy: string; method: ConsentEvent['method'] },
-  ): ConsentEvent {
-    return {
+    step: {
+      action: ConsentEvent['action'];
+      purposes: ConsentPurpose[];
+      decidedBy: string;
+      method: ConsentEvent['method'];
+      audit: string;
+      details?: Record<string, unknown>;
+    },
+  ): Promise<void> {
+    const { audit, details, ...entry } = step;
+    await this.deps.uow.of(manager).athletes.addConsentEvent({
       id: randomUUID(),
-      athleteId,
-      action,
-      ...what,
+      athleteId: athlete.id,
+      ...entry,
       recordedById: principal.user.id,
       recordedByRole: principal.role,
       at,
-    };
+    });
+    await this.deps.audit.record(manager, {
+      clubId: athlete.clubId,
+      actorUserId: principal.user.id,
+      action: audit,
+      targetType: 'athlete',
+      targetId: athlete.id,
+      details,
+    });
   }
 }
 

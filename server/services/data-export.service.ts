@@ -5,6 +5,7 @@ import type { ExportKind } from '@shared/exports/codebook';
 import type { AthleteExportLinkResponse } from '@shared/schemas/consent.schema';
 import type { Athlete } from '../entities/athlete.entity';
 import type { Clip } from '../entities/clip.entity';
+import type { TrainingSession } from '../entities/training-session.entity';
 import { forbidden, notFound } from '../errors';
 import type { UnitOfWork } from '../repositories/unit-of-work';
 import type { ObjectStorage } from '../storage/object-storage';
@@ -114,7 +115,7 @@ export class DataExportService {
       sessions.get(clip.sessionId)?.date ?? clip.createdAt.toISOString().slice(0, 10);
     const folders = new Map(clips.map((c) => [c.id, clipFolder(c, dateOf(c))]));
 
-    await add(JSON.stringify(await this.records(plan, folders, dateOf), null, 2), 'athlete.json');
+    await add(JSON.stringify(await this.records(plan, folders, sessions, dateOf), null, 2), 'athlete.json');
     await add(readme(athlete), 'README.txt');
 
     // The same CSVs as the exports page, for this athlete's analysed clips.
@@ -174,6 +175,7 @@ export class DataExportService {
   private async records(
     { athlete, clips }: AthleteExportPlan,
     folders: Map<string, string>,
+    sessions: Map<string, TrainingSession>,
     dateOf: (clip: Clip) => string,
   ) {
     const repos = this.uow.repos;
@@ -187,9 +189,6 @@ export class DataExportService {
       (id): id is string => id !== null,
     );
     const names = await repos.users.namesByIds(userIds);
-    const sessions = new Map(
-      (await repos.sessions.findByIds(clips.map((c) => c.sessionId))).map((s) => [s.id, s]),
-    );
     const clipRecords = [];
     for (const clip of clips) {
       const notes = await repos.notes.listByClip(clip.id);
