@@ -47,6 +47,7 @@ import { FlagService } from './services/flag.service';
 import { ExportService } from './services/export.service';
 import { exportRoutes } from './routes/exports.routes';
 import type { JobRunner } from './services/job-runner';
+import type { ServerAnalysisQueue } from './services/server-analysis-queue';
 import { flagRoutes } from './routes/flags.routes';
 import { planRoutes } from './routes/plan.routes';
 import { reviewRoutes } from './routes/reviews.routes';
@@ -70,6 +71,8 @@ export interface AppDeps {
   mediaQueue: MediaPipeline;
   /** Durable background jobs (Runtime.jobs): a band change queues one and wakes it. */
   jobs: Pick<JobRunner, 'resume'>;
+  /** Pose analysis on the server (Runtime.analyses): a queued clip wakes it. */
+  analyses: Pick<ServerAnalysisQueue, 'resume'>;
   /** Set when the embedded SMTP fake is in use: mounts the /dev/mailbox inbox page. */
   mailbox?: Mailbox;
   jwtSecret: string;
@@ -99,7 +102,9 @@ export function createApp(deps: AppDeps): Express {
   const clips = new ClipService(uow, access, sessions, deps.storage, tokens, audit, clock, deps.mediaQueue);
   const toleranceBands = new ToleranceBandService(uow, clock, access, () => deps.jobs.resume());
   const frameStore = new FrameStore(uow, toleranceBands, clock);
-  const analysis = new ClipAnalysisService(uow, access, clips, frameStore, audit, clock);
+  const analysis = new ClipAnalysisService(uow, access, clips, frameStore, audit, clock, () =>
+    deps.analyses.resume(),
+  );
   const passwords = new PasswordService(uow, auth, audit, deps.mailer, clock, publicUrlNow);
   const compareStills = new CompareStillService(uow, clips, deps.storage, clock);
   const athletes = new AthleteService(uow, access, audit, clock);

@@ -92,6 +92,13 @@ const envSchema = z.object({
    * changed: 0 runs them back to back, each step already yields to waiting requests.
    */
   JOB_STEP_PAUSE: duration.default(0),
+  /**
+   * Clips analysed on the server at the same time (pose detection in worker threads, WASM); 0 turns
+   * server-side analysis off (queued clips wait). Each takes about one core while it runs.
+   */
+  ANALYSIS_WORKERS: z.coerce.number().int().min(0).max(16).default(1),
+  /** 'on': every uploaded clip is queued for analysis on the server as soon as it is ready. */
+  AUTO_ANALYSIS: z.enum(['on', 'off']).default('on'),
 });
 
 export interface Config {
@@ -128,6 +135,8 @@ export interface Config {
   startupCleanupGraceMs: number;
   privacySweepIntervalMs: number;
   jobStepPauseMs: number;
+  analysisWorkers: number;
+  autoAnalysis: boolean;
 }
 
 export class ConfigError extends Error {
@@ -176,5 +185,7 @@ export function loadConfig(env: Record<string, string | undefined>): Config {
     startupCleanupGraceMs: e.STARTUP_CLEANUP_GRACE,
     privacySweepIntervalMs: e.PRIVACY_SWEEP_INTERVAL,
     jobStepPauseMs: e.JOB_STEP_PAUSE,
+    analysisWorkers: e.ANALYSIS_WORKERS,
+    autoAnalysis: e.AUTO_ANALYSIS === 'on',
   };
 }

@@ -11,6 +11,8 @@ import { createMailer, type Mailer } from './mail/mailer';
 import { startEmbeddedS3, type EmbeddedS3 } from './storage/embedded-s3';
 import { ObjectStorage } from './storage/object-storage';
 import { JobRunner } from './services/job-runner';
+import { queueAnalysisOfReadyClip } from './services/job-queue';
+import { ServerAnalysisQueue } from './services/server-analysis-queue';
 
 /** Everything the app talks to, started from one Config; `close()` stops what it started. */
 export interface Runtime {
@@ -24,6 +26,8 @@ export interface Runtime {
   mediaQueue: ClipProcessingQueue;
   /** Durable background jobs (flags judged again after a band changed); `resume()` at start. */
   jobs: JobRunner;
+  /** Pose analysis of clips on the server, durable, `ANALYSIS_WORKERS` at a time; `resume()` at start. */
+  analyses: ServerAnalysisQueue;
   /** Set with the local S3 stand-in: sweeps its multipart folders (it has no API for them). */
   sweepStandInUploads?: (before: Date) => Promise<number>;
   close(): Promise<void>;
@@ -73,11 +77,22 @@ export async function startRuntime(config: Config): Promise<Runtime> {
     closers.push(() => dataSource.destroy());
 
     // Closed before the database and the store (closers run in reverse): a running job winds down first.
+    const analyses = new ServerAnalysisQueue(dataSource, storage, createLogger(config.logLevel), {
+      workers: config.analysisWorkers,
+      workDir: path.join(config.dataDir, 'analysis-work'),
+      pauseMs: config.jobStepPauseMs,
+    });
+    closers.push(() => analyses.close());
     const mediaQueue = new ClipProcessingQueue({
       dataSource,
       storage,
       logger: createLogger(config.logLevel),
       workDir: path.join(config.dataDir, 'media-work'),
+      onReady: config.autoAnalysis
+        ? async (clipId) => {
+            if (await queueAnalysisOfReadyClip(dataSource, clipId)) analyses.resume();
+          }
+        : undefined,
     });
     closers.push(() => mediaQueue.close());
     const jobs = new JobRunner(dataSource, createLogger(config.logLevel), { pauseMs: config.jobStepPauseMs });
@@ -93,6 +108,7 @@ export async function startRuntime(config: Config): Promise<Runtime> {
       s3Endpoint,
       mediaQueue,
       jobs,
+      analyses,
       sweepStandInUploads: embeddedS3 ? (before) => embeddedS3!.sweepIncompleteUploads(before) : undefined,
       close: closeAll,
     };

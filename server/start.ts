@@ -100,6 +100,8 @@ export async function startStanceline(opts: StartOptions = {}): Promise<StartedS
     sweeper.unref();
     // Background jobs a previous run left unfinished (flags judged again after a band change).
     runtime.jobs.resume();
+    // Clips queued for analysis on the server, and analyses a stopped process left half done.
+    runtime.analyses.resume();
     // Clips a previous run left uploaded or half processed.
     const resumed = await runtime.mediaQueue.resume();
     if (resumed > 0) logger.info({ clips: resumed }, 'resumed clip processing');
@@ -111,6 +113,7 @@ export async function startStanceline(opts: StartOptions = {}): Promise<StartedS
       storage: runtime.storage,
       mediaQueue: runtime.mediaQueue,
       jobs: runtime.jobs,
+      analyses: runtime.analyses,
       mailer: runtime.mailer,
       mailbox: runtime.mailbox,
       jwtSecret: runtime.jwtSecret,

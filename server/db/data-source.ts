@@ -41,6 +41,7 @@ import { SeasonPlan1796280000000 } from '../migrations/1796280000000-season-plan
 import { Reviews1796290000000 } from '../migrations/1796290000000-reviews';
 import { ConsentLifecycle1796300000000 } from '../migrations/1796300000000-consent-lifecycle';
 import { ClipFacing1796300000001 } from '../migrations/1796300000001-clip-facing';
+import { ClipAnalysisJobs1796310000000 } from '../migrations/1796310000000-clip-analysis-jobs';
 import { ConsentEventEntity } from '../entities/consent-event.entity';
 
 export const ALL_ENTITIES = [
@@ -90,6 +91,7 @@ export const ALL_MIGRATIONS = [
   Reviews1796290000000,
   ConsentLifecycle1796300000000,
   ClipFacing1796300000001,
+  ClipAnalysisJobs1796310000000,
 ];
 
 /** SQLite through better-sqlite3: WAL journal, foreign keys on (the driver always enables them), no synchronize. */

@@ -1,4 +1,5 @@
 import { EntitySchema } from 'typeorm';
+import type { PoseModelName } from '@shared/keypoints';
 import {
   foreignKey,
   idColumn,
@@ -11,17 +12,31 @@ import {
  * Background work that must finish even across a restart. The cursor and the counts are written in
  * the same transaction as each step's results, so a step is done once or not at all.
  */
+export type JobKind = 'flag-reevaluation' | 'clip-analysis';
+
+/**
+ * flag-reevaluation: { ageGroupIds } (null: every age group). clip-analysis: { model }, the clip in
+ * `clipId`.
+ */
+export interface JobPayload {
+  ageGroupIds?: string[] | null;
+  model?: PoseModelName;
+  /** clip-analysis: read every frame again, not only those after the stored ones. */
+  fromStart?: boolean;
+}
+
 export interface Job {
   id: string;
-  kind: 'flag-reevaluation';
+  kind: JobKind;
   clubId: string | null;
-  /** What the job covers, e.g. { ageGroupIds } (null: every age group). */
-  payload: { ageGroupIds: string[] | null };
+  /** The clip a clip-analysis job reads (erasing the clip removes the job). */
+  clipId: string | null;
+  payload: JobPayload;
   label: string;
   status: 'queued' | 'running' | 'done' | 'failed';
   total: number;
   done: number;
-  /** The last step finished ("clipId:model"); steps run in that order. */
+  /** The last step finished ("clipId:model", or a clip-analysis job's last stored frame); steps run in that order. */
   cursor: string | null;
   error: string | null;
   createdById: string | null;
@@ -38,6 +53,7 @@ export const JobEntity = new EntitySchema<Job>({
     id: idColumn,
     kind: { type: 'varchar', length: 30 },
     clubId: nullableUuidColumn,
+    clipId: nullableUuidColumn,
     payload: { type: 'simple-json' },
     label: { type: 'varchar', length: 200 },
     status: { type: 'varchar', length: 10 },
@@ -51,6 +67,13 @@ export const JobEntity = new EntitySchema<Job>({
     finishedAt: nullableTimestampColumn,
     updatedAt: timestampColumn,
   },
-  foreignKeys: [foreignKey('Club', 'clubId', 'CASCADE'), foreignKey('User', 'createdById', 'SET NULL')],
-  indices: [{ name: 'IDX_job_status', columns: ['status', 'createdAt'] }],
+  foreignKeys: [
+    foreignKey('Club', 'clubId', 'CASCADE'),
+    foreignKey('Clip', 'clipId', 'CASCADE'),
+    foreignKey('User', 'createdById', 'SET NULL'),
+  ],
+  indices: [
+    { name: 'IDX_job_status', columns: ['status', 'createdAt'] },
+    { name: 'IDX_job_clip', columns: ['clipId', 'createdAt'] },
+  ],
 });

@@ -1,7 +1,13 @@
 import type { PoseModelName, ReferenceLine } from '@shared/keypoints';
-import type { ClipAnalysisDto, ClipDto, FrameReferenceLineDto } from '@shared/schemas/clip.schema';
+import type {
+  ClipAnalysisDto,
+  ClipDto,
+  FrameReferenceLineDto,
+  ServerAnalysisDto,
+} from '@shared/schemas/clip.schema';
 import type { Athlete } from '../entities/athlete.entity';
 import type { Clip } from '../entities/clip.entity';
+import type { Job } from '../entities/job.entity';
 import type { AnalysisInfo } from '../repositories/frame-result.repository';
 
 export interface ClipLinks {
@@ -15,6 +21,21 @@ export interface ClipExtras {
   frameReferenceLines: FrameReferenceLineDto[];
   ageGroup: { id: string; name: string } | null;
   analyses: AnalysisInfo[];
+  /** The clip's newest server-side analysis job, if any. */
+  serverJob: Job | null;
+}
+
+export function toServerAnalysisDto(job: Job | null): ServerAnalysisDto | null {
+  if (!job || !job.payload.model) return null;
+  return {
+    jobId: job.id,
+    model: job.payload.model,
+    status: job.status,
+    done: Math.min(job.done, job.total),
+    total: job.total,
+    error: job.error,
+    updatedAt: job.updatedAt.toISOString(),
+  };
 }
 
 /** The default model's stored results, else the most recently written model's. */
@@ -54,5 +75,6 @@ export function toClipDto(clip: Clip, athletes: Athlete[], links: ClipLinks, ext
     defaultModel: clip.defaultModel,
     ageGroup: extras.ageGroup,
     analysis: pickAnalysis(clip.defaultModel, extras.analyses),
+    serverAnalysis: toServerAnalysisDto(extras.serverJob),
   };
 }

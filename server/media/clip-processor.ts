@@ -24,6 +24,8 @@ export interface ClipProcessorDeps {
   logger: Logger;
   /** Scratch folder for downloads and ffmpeg output; each job uses and removes its own subfolder. */
   workDir: string;
+  /** Told once a clip is ready (the server then queues its pose analysis). */
+  onReady?: (clipId: string) => Promise<void>;
 }
 
 export const derivativeKeys = (clip: Pick<Clip, 'clubId' | 'id'>) => {
@@ -181,6 +183,11 @@ export async function processClip(
       { clipId: clip.id, proxy: needsProxy, frames: probe.frameCount, codec: probe.codec },
       'clip processed',
     );
+    await deps
+      .onReady?.(clip.id)
+      .catch((error: unknown) =>
+        deps.logger.error({ err: error, clipId: clip.id }, 'could not queue the analysis of a ready clip'),
+      );
   } catch (error) {
     await Promise.all(stored.map((key) => deps.storage.delete(key).catch(() => undefined)));
     if (error instanceof MediaJobAborted || signal.aborted) {

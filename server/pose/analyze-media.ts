@@ -40,6 +40,8 @@ export interface AnalyzeMediaOptions {
    * it are skipped, and each later frame is read only around the athlete (shared/pose/follow.ts).
    */
   pick?: { x: number; y: number; frame: number } | null;
+  /** Videos: start at this frame (a resumed analysis); the frames before it are not read. */
+  fromFrame?: number;
 }
 
 const IMAGE_TYPES = new Set(['image/png', 'image/jpeg', 'image/webp', 'image/gif', 'image/bmp']);
@@ -122,7 +124,8 @@ async function* analyzeVideo(path: string, opts: AnalyzeMediaOptions): AsyncGene
   let done = 0;
   let follower: AthleteFollower | null = null;
   try {
-    for await (const f of decodeVideoFrames(path, { every: opts.every })) {
+    const from = Math.max(opts.fromFrame ?? 0, opts.pick?.frame ?? 0);
+    for await (const f of decodeVideoFrames(path, { every: opts.every, from })) {
       if (opts.pick && f.index < opts.pick.frame) continue;
       const timeMs = Number.isFinite(f.timeMs) ? f.timeMs : info.fps ? (f.index / info.fps) * 1000 : null;
       const image = { data: f.rgb, width: f.width, height: f.height, channels: 3 as const };

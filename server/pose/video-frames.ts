@@ -18,6 +18,8 @@ export interface DecodedFrame {
 export interface DecodeOptions {
   /** Keep frames 0, N, 2N, ... */
   every: number;
+  /** Skip the frames before this one (not scaled or piped; a resumed analysis starts here). */
+  from?: number;
   /** Downscale so the long side is at most this many pixels (the detector crops to 192–256 anyway). */
   maxSide?: number;
 }
@@ -36,9 +38,11 @@ const SHOWINFO =
 export async function* decodeVideoFrames(path: string, options: DecodeOptions): AsyncGenerator<DecodedFrame> {
   const every = Math.max(1, Math.floor(options.every));
   const maxSide = options.maxSide ?? 1280;
+  // The first kept frame at or after `from`; frame k out of the decoder is then start + k * every.
+  const start = Math.ceil(Math.max(0, options.from ?? 0) / every) * every;
   // showinfo before and after the scaler: source size and timing, then the size of the piped bytes.
   const filter = [
-    `select='not(mod(n\\,${every}))'`,
+    start > 0 ? `select='gte(n\\,${start})*not(mod(n\\,${every}))'` : `select='not(mod(n\\,${every}))'`,
     'showinfo',
     `scale='if(gt(iw,ih),min(${maxSide},iw),-2)':'if(gt(iw,ih),-2,min(${maxSide},ih))'`,
     'showinfo',
@@ -128,7 +132,7 @@ export async function* decodeVideoFrames(path: string, options: DecodeOptions): 
         buffered = remaining.length > 0 ? [remaining] : [];
         bufferedBytes = remaining.length;
         yield {
-          index: k * every,
+          index: start + k * every,
           timeMs: Number.isFinite(info.src.ptsTime) ? info.src.ptsTime * 1000 : NaN,
           rgb,
           width: info.out.width,

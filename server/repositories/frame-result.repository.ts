@@ -63,6 +63,14 @@ export class FrameResultRepository {
     return out.sort((a, b) => a.clipId.localeCompare(b.clipId) || a.model.localeCompare(b.model));
   }
 
+  /** The stored frame of this model with the highest index (where a resumed analysis goes on). */
+  last(clipId: string, model: PoseModelName): Promise<FrameResult | null> {
+    return this.manager.findOne(FrameResultEntity, {
+      where: { clipId, model },
+      order: { frameIndex: 'DESC' },
+    });
+  }
+
   findOne(clipId: string, model: PoseModelName, frameIndex: number): Promise<FrameResult | null> {
     return this.manager.findOneBy(FrameResultEntity, { clipId, model, frameIndex });
   }

@@ -1,5 +1,5 @@
 import { In, type EntityManager } from 'typeorm';
-import { JobEntity, type Job } from '../entities/job.entity';
+import { JobEntity, type Job, type JobKind } from '../entities/job.entity';
 
 export class JobRepository {
   constructor(private readonly manager: EntityManager) {}
@@ -16,24 +16,39 @@ export class JobRepository {
     await this.manager.update(JobEntity, { id }, patch);
   }
 
-  /** Jobs not finished, oldest first: the order they run in. */
-  unfinished(): Promise<Job[]> {
+  /** Jobs of a kind not finished, oldest first: the order they run in. */
+  unfinished(kind: JobKind): Promise<Job[]> {
     return this.manager.find(JobEntity, {
-      where: { status: In(['queued', 'running']) },
+      where: { kind, status: In(['queued', 'running']) },
       order: { createdAt: 'ASC', id: 'ASC' },
     });
   }
 
-  /** The club's newest job (running or not). */
+  /** The club's newest flag re-check (running or not). */
   latestForClub(clubId: string): Promise<Job | null> {
-    return this.manager.findOne(JobEntity, { where: { clubId }, order: { createdAt: 'DESC', id: 'DESC' } });
+    return this.manager.findOne(JobEntity, {
+      where: { clubId, kind: 'flag-reevaluation' },
+      order: { createdAt: 'DESC', id: 'DESC' },
+    });
   }
 
-  /** A queued job of the club not started yet, which a new change can join. */
+  /** A queued flag re-check of the club not started yet, which a new change can join. */
   queuedForClub(clubId: string): Promise<Job | null> {
     return this.manager.findOne(JobEntity, {
-      where: { clubId, status: 'queued' },
+      where: { clubId, kind: 'flag-reevaluation', status: 'queued' },
       order: { createdAt: 'DESC' },
     });
+  }
+
+  /** The newest analysis job of each of these clips. */
+  async latestAnalyses(clipIds: readonly string[]): Promise<Map<string, Job>> {
+    const out = new Map<string, Job>();
+    if (clipIds.length === 0) return out;
+    const rows = await this.manager.find(JobEntity, {
+      where: { kind: 'clip-analysis', clipId: In([...clipIds]) },
+      order: { createdAt: 'ASC', id: 'ASC' },
+    });
+    for (const job of rows) out.set(job.clipId!, job);
+    return out;
   }
 }

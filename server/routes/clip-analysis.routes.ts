@@ -1,12 +1,13 @@
 import { Router } from 'express';
 import { z } from 'zod';
 import type { PoseModelName } from '@shared/keypoints';
-import { updateClipSchema } from '@shared/schemas/clip.schema';
+import { serverAnalysisRequestSchema, updateClipSchema } from '@shared/schemas/clip.schema';
 import { frameBatchSchema, frameCorrectionSchema, frameListQuerySchema } from '@shared/schemas/frames.schema';
 import { principalOf } from '../middleware/auth.middleware';
 import { validate } from '../middleware/validate.middleware';
 import type { RouteContext } from './context';
 
+const clipParams = z.object({ id: z.string().uuid('Not a clip id') });
 const frameIndexSchema = z.coerce.number().int('frameIndex is a whole number').min(0);
 
 /** Clip settings (view, model, snow line) and the stored per-frame results with their flags. */
@@ -21,6 +22,18 @@ export function clipAnalysisRoutes(ctx: RouteContext): Router {
     validate({ body: updateClipSchema }),
     async (req, res) => {
       res.json(await ctx.analysis.updateSettings(principalOf(req), req.params.id as string, req.body));
+    },
+  );
+
+  router.post(
+    '/api/clips/:id/server-analysis',
+    guard.authenticate,
+    guard.authorize('clip:analyse'),
+    validate({ params: clipParams, body: serverAnalysisRequestSchema }),
+    async (req, res) => {
+      res
+        .status(202)
+        .json(await ctx.analysis.queueServerAnalysis(principalOf(req), req.params.id as string, req.body));
     },
   );
 

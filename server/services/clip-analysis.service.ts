@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import type { PoseModelName } from '@shared/keypoints';
-import type { ClipResponse, UpdateClipInput } from '@shared/schemas/clip.schema';
+import type { ClipResponse, ServerAnalysisRequest, UpdateClipInput } from '@shared/schemas/clip.schema';
 import type {
   ClipFramesResponse,
   FrameBatchInput,
@@ -9,7 +9,8 @@ import type {
   FrameResultResponse,
 } from '@shared/schemas/frames.schema';
 import type { Clip } from '../entities/clip.entity';
-import { fieldError, forbidden } from '../errors';
+import { conflict, fieldError, forbidden } from '../errors';
+import { queueClipAnalysis } from './job-queue';
 import type { AccessService } from './access.service';
 import type { AuditService } from './audit.service';
 import type { ClipService } from './clip.service';
@@ -26,7 +27,47 @@ export class ClipAnalysisService {
     readonly frames: FrameStore,
     private readonly audit: AuditService,
     private readonly clock: Clock,
+    /** Wakes the server's analysis queue after a clip was queued. */
+    private readonly wakeAnalyses: () => void = () => undefined,
   ) {}
+
+  /**
+   * Queues the clip for pose analysis on the server (in the background, the same detector code as the
+   * browser), unless it is queued or running already; the clip's `serverAnalysis` reports progress.
+   */
+  async queueServerAnalysis(
+    principal: Principal,
+    clipId: string,
+    input: ServerAnalysisRequest,
+  ): Promise<ClipResponse> {
+    const clip = await this.findManageable(principal, clipId);
+    if (clip.status !== 'ready')
+      throw conflict(
+        'CLIP_NOT_READY',
+        clip.status === 'failed'
+          ? 'This clip could not be processed, so it cannot be analysed; upload it again'
+          : 'This clip is still being prepared; it can be analysed once it is ready',
+      );
+    await this.uow.transaction(async (manager) => {
+      const job = await queueClipAnalysis(this.uow, manager, {
+        clip,
+        model: input.model ?? clip.defaultModel,
+        createdById: principal.user.id,
+        now: this.clock.now(),
+        fromStart: input.fromStart,
+      });
+      await this.audit.record(manager, {
+        clubId: clip.clubId,
+        actorUserId: principal.user.id,
+        action: 'clip.server_analysis',
+        targetType: 'clip',
+        targetId: clip.id,
+        details: { model: job.payload.model, job: job.id },
+      });
+    });
+    this.wakeAnalyses();
+    return this.clips.get(principal, clip.id);
+  }
 
   /** The clip, if the caller may change its analysis: head coach, or a coach of a tagged athlete's group. */
   async findManageable(principal: Principal, clipId: string): Promise<Clip> {

@@ -120,6 +120,7 @@ export class ClipService {
     const lines = await this.uow.of(manager).referenceLines.forClips(ids);
     const frameLines = await this.uow.of(manager).referenceLines.framesForClips(ids);
     const analyses = await this.uow.of(manager).frames.analysisByClip(ids);
+    const serverJobs = await this.uow.of(manager).jobs.latestAnalyses(ids);
     return clips.map((clip) => {
       const tagged = shown(tags.get(clip.id) ?? [])
         .map((id) => athletes.get(id))
@@ -131,6 +132,7 @@ export class ClipService {
         frameReferenceLines: frameLines.get(clip.id) ?? [],
         ageGroup: group ? { id: group.id, name: group.name } : null,
         analyses: analyses.get(clip.id) ?? [],
+        serverJob: serverJobs.get(clip.id) ?? null,
       });
     });
   }

@@ -48,7 +48,15 @@ export class FrameStore {
     private readonly series: SeriesAnalyzer = sharedSeriesWorker(),
   ) {}
 
-  async storeBatch(clip: Clip, batch: FrameBatchInput): Promise<FrameBatchResponse> {
+  /**
+   * Stores a batch of detected frames; `within` runs in the same transaction (a server analysis job
+   * records its progress there, so a batch and its cursor are written together or not at all).
+   */
+  async storeBatch(
+    clip: Clip,
+    batch: FrameBatchInput,
+    within?: (manager: EntityManager) => Promise<void>,
+  ): Promise<FrameBatchResponse> {
     this.requireReady(clip);
     this.checkFrameRange(
       clip,
@@ -98,6 +106,7 @@ export class FrameStore {
       }
       // New frames and frames posted again in one statement per chunk (the transaction stays short).
       await repo.upsertMany(written);
+      await within?.(manager);
       this.forget(clip.id, batch.model);
       return { stored: written.length };
     });

@@ -1,8 +1,10 @@
 import { randomUUID } from 'node:crypto';
-import type { EntityManager } from 'typeorm';
+import type { DataSource, EntityManager } from 'typeorm';
 import type { JobDto } from '@shared/schemas/tolerance.schema';
+import type { PoseModelName } from '@shared/keypoints';
+import type { Clip } from '../entities/clip.entity';
 import type { Job } from '../entities/job.entity';
-import type { UnitOfWork } from '../repositories/unit-of-work';
+import { UnitOfWork } from '../repositories/unit-of-work';
 
 export function toJobDto(job: Job): JobDto {
   return {
@@ -38,7 +40,7 @@ export async function queueFlagReevaluation(
   const waiting = await jobs.queuedForClub(request.clubId);
   if (waiting) {
     const groups =
-      waiting.payload.ageGroupIds === null || request.ageGroupIds === null
+      !waiting.payload.ageGroupIds || request.ageGroupIds === null
         ? null
         : [...new Set([...waiting.payload.ageGroupIds, ...request.ageGroupIds])];
     const label = waiting.label.includes(request.label)
@@ -52,6 +54,7 @@ export async function queueFlagReevaluation(
     id: randomUUID(),
     kind: 'flag-reevaluation',
     clubId: request.clubId,
+    clipId: null,
     payload: { ageGroupIds: request.ageGroupIds },
     label: request.label.slice(0, 200),
     status: 'queued',
@@ -67,4 +70,59 @@ export async function queueFlagReevaluation(
   };
   await jobs.insert(job);
   return job;
+}
+
+/**
+ * Queues a server-side analysis of a clip with a model, unless one is queued or running already (that
+ * one is returned). Frames stored before (by the browser or an earlier run) are not read again.
+ */
+export async function queueClipAnalysis(
+  uow: UnitOfWork,
+  manager: EntityManager,
+  request: { clip: Clip; model: PoseModelName; createdById: string | null; now: Date; fromStart?: boolean },
+): Promise<Job> {
+  const jobs = uow.of(manager).jobs;
+  const current = (await jobs.latestAnalyses([request.clip.id])).get(request.clip.id);
+  if (
+    current &&
+    current.payload.model === request.model &&
+    (current.status === 'queued' || current.status === 'running')
+  )
+    return current;
+  const job: Job = {
+    id: randomUUID(),
+    kind: 'clip-analysis',
+    clubId: request.clip.clubId,
+    clipId: request.clip.id,
+    payload: request.fromStart ? { model: request.model, fromStart: true } : { model: request.model },
+    label: `Pose analysis of ${request.clip.originalName}`.slice(0, 200),
+    status: 'queued',
+    total: request.clip.frameCount ?? 0,
+    done: 0,
+    cursor: null,
+    error: null,
+    createdById: request.createdById,
+    createdAt: request.now,
+    startedAt: null,
+    finishedAt: null,
+    updatedAt: request.now,
+  };
+  await jobs.insert(job);
+  return job;
+}
+
+/** Queues the server analysis of a clip that just became ready, with its default model. */
+export async function queueAnalysisOfReadyClip(dataSource: DataSource, clipId: string): Promise<boolean> {
+  const uow = new UnitOfWork(dataSource);
+  return uow.transaction(async (manager) => {
+    const clip = await uow.of(manager).clips.findById(clipId);
+    if (!clip || clip.status !== 'ready') return false;
+    await queueClipAnalysis(uow, manager, {
+      clip,
+      model: clip.defaultModel,
+      createdById: clip.uploadedById ?? null,
+      now: new Date(),
+    });
+    return true;
+  });
 }

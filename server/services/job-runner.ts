@@ -71,7 +71,7 @@ export class JobRunner {
   private async drain(): Promise<void> {
     for (;;) {
       this.again = false;
-      const [next] = await this.uow.repos.jobs.unfinished();
+      const [next] = await this.uow.repos.jobs.unfinished('flag-reevaluation');
       if (!next || this.closing) return;
       await this.run(next);
       if (this.closing) return;
@@ -135,7 +135,7 @@ export class JobRunner {
   /** Every clip and model with stored frames that the job covers, in a fixed order. */
   private async steps(job: Job): Promise<Step[]> {
     if (!job.clubId) return [];
-    const clipIds = await this.uow.repos.clips.idsInAgeGroups(job.clubId, job.payload.ageGroupIds);
+    const clipIds = await this.uow.repos.clips.idsInAgeGroups(job.clubId, job.payload.ageGroupIds ?? null);
     const counts = await this.uow.repos.frames.framesPerClipModel(clipIds);
     return counts.map((c) => ({
       key: `${c.clipId}:${c.model}`,

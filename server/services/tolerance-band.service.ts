@@ -226,7 +226,8 @@ export class ToleranceBandService {
 
   async job(principal: Principal, jobId: string): Promise<JobDto> {
     const job = await this.uow.repos.jobs.findById(jobId);
-    if (!job || job.clubId !== principal.clubId) throw notFound('Job');
+    // Clip analyses are reported on their clip, where the clip's access rules apply.
+    if (!job || job.kind !== 'flag-reevaluation' || job.clubId !== principal.clubId) throw notFound('Job');
     return toJobDto(job);
   }
 

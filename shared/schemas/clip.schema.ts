@@ -71,6 +71,20 @@ export interface ClipDto {
   ageGroup: { id: string; name: string } | null;
   /** Stored pose results of the clip's default model (or the latest model when it has none). */
   analysis: ClipAnalysisDto | null;
+  /** The newest analysis of the clip on the server (queued, running, done or failed), or null. */
+  serverAnalysis: ServerAnalysisDto | null;
+}
+
+/** A clip analysed on the server in the background: frames done of total, stored as they come. */
+export interface ServerAnalysisDto {
+  jobId: string;
+  model: PoseModelName;
+  status: 'queued' | 'running' | 'done' | 'failed';
+  done: number;
+  total: number;
+  /** Why it failed, in words for the coach. */
+  error: string | null;
+  updatedAt: string;
 }
 
 /** One JPEG sprite: tile i shows the frame at i * intervalMs, row-major, `columns` tiles a row. */
@@ -147,3 +161,18 @@ export interface ClipListResponse {
 export interface ClipResponse {
   clip: ClipDto;
 }
+
+/** Ask the server to analyse a clip in the background. */
+export const serverAnalysisRequestSchema = z
+  .object({
+    /** Default: the clip's default model. */
+    model: z
+      .enum(POSE_MODELS as [PoseModelName, ...PoseModelName[]], {
+        message: `Choose a model: ${POSE_MODELS.join(', ')}`,
+      })
+      .optional(),
+    /** Read every frame again (after a new pick, say); otherwise only frames not stored yet. */
+    fromStart: z.boolean().optional(),
+  })
+  .strict();
+export type ServerAnalysisRequest = z.infer<typeof serverAnalysisRequestSchema>;

@@ -114,7 +114,7 @@ export interface ToleranceBandChangeResponse {
 
 export interface JobDto {
   id: string;
-  kind: 'flag-reevaluation';
+  kind: 'flag-reevaluation' | 'clip-analysis';
   status: 'queued' | 'running' | 'done' | 'failed';
   /** Stored frames to evaluate, and how many are done. */
   total: number;

@@ -64,6 +64,9 @@ export async function createTestServer(env: Record<string, string> = {}): Promis
     PUBLIC_URL: 'http://stanceline.test',
     // As npm start runs it: the embedded SMTP fake's inbox on.
     DEV_MAILBOX: 'on',
+    // No pose analysis on the server unless a test asks for it: it would load a core in every suite.
+    ANALYSIS_WORKERS: '0',
+    AUTO_ANALYSIS: 'off',
     ...env,
   });
   const runtime = await startRuntime(config);
@@ -75,6 +78,7 @@ export async function createTestServer(env: Record<string, string> = {}): Promis
     storage: runtime.storage,
     mediaQueue: runtime.mediaQueue,
     jobs: runtime.jobs,
+    analyses: runtime.analyses,
     mailer: runtime.mailer,
     mailbox: runtime.mailbox,
     jwtSecret: runtime.jwtSecret,

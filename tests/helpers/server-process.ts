@@ -30,6 +30,9 @@ export async function startServerProcess(
       HOST: '127.0.0.1',
       BCRYPT_ROUNDS: '4',
       LOG_LEVEL: 'warn',
+      // No pose analysis on the server unless a test asks for it.
+      ANALYSIS_WORKERS: '0',
+      AUTO_ANALYSIS: 'off',
       ...env,
     },
     // Unread pipes would fill up and stall a chatty child.

@@ -1,0 +1,205 @@
+// Pose analysis on the server: a clip queued after upload (or by a coach) is read in a worker thread
+// with the same detector code the browser and the CLI use, and its frames are stored like the
+// browser's batches. The stored points are checked against the committed keypoints the analyze CLI
+// made of the same footage (fixtures/media/demo, server/seed/make-demo-keypoints.ts).
+import fs from 'node:fs/promises';
+import path from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Keypoint } from '@shared/keypoints';
+import type { ClipDto } from '@shared/schemas/clip.schema';
+import type { ClipFramesResponse } from '@shared/schemas/frames.schema';
+import { DEMO_CLIP_PLAN, DEMO_FOOTAGE_DIR, DEMO_KEYPOINTS_DIR } from '@server/seed/demo-clips';
+import { createTestServer, type TestServer } from '../helpers/server-harness';
+import { settled, uploadClip } from './clip-fixtures';
+
+let server: TestServer;
+/** The clip the first test uploads and the server analyses (later tests ask about it again). */
+let frontClip: ClipDto;
+
+beforeAll(async () => {
+  server = await createTestServer({ ANALYSIS_WORKERS: '1', AUTO_ANALYSIS: 'on' });
+}, 120_000);
+afterAll(async () => {
+  await server?.close();
+});
+
+interface Committed {
+  frames: { frameIndex: number; keypoints: Keypoint[] }[];
+}
+interface Truth {
+  frames: { frame: number; torsoLength: number }[];
+}
+
+async function committed(
+  footage: string,
+): Promise<{ frames: Committed['frames']; torso: Map<number, number> }> {
+  const stored = JSON.parse(
+    await fs.readFile(path.join(DEMO_KEYPOINTS_DIR, `${footage}.lightning.json`), 'utf8'),
+  ) as Committed;
+  const truth = JSON.parse(
+    await fs.readFile(path.join(DEMO_FOOTAGE_DIR, `${footage}.truth.json`), 'utf8'),
+  ) as Truth;
+  return { frames: stored.frames, torso: new Map(truth.frames.map((f) => [f.frame, f.torsoLength])) };
+}
+
+/** Largest distance of a joint between the server's frames and the CLI's, in torso lengths. */
+async function worstJointGap(clipId: string, footage: string): Promise<{ worst: number; compared: number }> {
+  const res = await server.http
+    .get(`/api/clips/${clipId}/frames?model=lightning`)
+    .set(await server.bearer('head'));
+  expect(res.status).toBe(200);
+  const read = res.body as ClipFramesResponse;
+  const cli = await committed(footage);
+  const byIndex = new Map(read.frames.map((f) => [f.frameIndex, f.keypoints]));
+  let worst = 0;
+  let compared = 0;
+  for (const want of cli.frames) {
+    const got = byIndex.get(want.frameIndex);
+    expect(got, `frame ${want.frameIndex} stored`).toBeDefined();
+    const torso = cli.torso.get(want.frameIndex)!;
+    for (const k of want.keypoints) {
+      const g = got!.find((p) => p.name === k.name);
+      expect(g, `${k.name} in frame ${want.frameIndex}`).toBeDefined();
+      worst = Math.max(worst, Math.hypot(g!.x - k.x, g!.y - k.y) / torso);
+      compared += 1;
+    }
+  }
+  return { worst, compared };
+}
+
+describe('analysis on the server', () => {
+  it(
+    'analyses an uploaded clip in the background, every frame, with the same points as the CLI (within 0.05 torso lengths)',
+    { timeout: 180_000 },
+    async () => {
+      const elsie = await server.athleteId('Elsie');
+      const [sessionId] = await server.sessionIds();
+      const uploaded = await uploadClip(server, path.join(DEMO_FOOTAGE_DIR, 'phantom-front-turns.mp4'), {
+        sessionId,
+        athleteIds: elsie,
+        view: 'front',
+      });
+      const ready = await settled(server, uploaded.id);
+      expect(ready.status).toBe('ready');
+      // Queued as soon as it was ready.
+      expect(ready.serverAnalysis).toMatchObject({ model: 'lightning' });
+      expect(['queued', 'running', 'done']).toContain(ready.serverAnalysis!.status);
+      await server.runtime.analyses.idle();
+      const done = (await server.http.get(`/api/clips/${uploaded.id}`).set(await server.bearer('coach'))).body
+        .clip as ClipDto;
+      expect(done.serverAnalysis).toMatchObject({
+        status: 'done',
+        done: done.frameCount,
+        total: done.frameCount,
+      });
+      expect(done.analysis).toMatchObject({ model: 'lightning', frameCount: done.frameCount });
+      frontClip = done;
+      const { worst, compared } = await worstJointGap(uploaded.id, 'phantom-front-turns');
+      expect(compared).toBeGreaterThan(1000);
+      expect(worst).toBeLessThan(0.05);
+    },
+  );
+
+  it(
+    'follows the coach’s pick on a clip with another skier crossing, as the CLI did (within 0.05 torso lengths)',
+    { timeout: 180_000 },
+    async () => {
+      const kit = await server.athleteId('Kit');
+      const [sessionId] = await server.sessionIds();
+      const uploaded = await uploadClip(server, path.join(DEMO_FOOTAGE_DIR, 'phantom-crossing-turns.mp4'), {
+        sessionId,
+        athleteIds: kit,
+        view: 'front',
+      });
+      await settled(server, uploaded.id);
+      // Read once on upload, before anyone picked: whoever the model saw first.
+      await server.runtime.analyses.idle();
+      // The coach picks Kit (frame 0, her hips), as in the demo club; then asks for a fresh read.
+      const pick = DEMO_CLIP_PLAN.find((p) => p.footage === 'phantom-crossing-turns')!.pick!;
+      const patched = await server.http
+        .patch(`/api/clips/${uploaded.id}`)
+        .set(await server.bearer('coach'))
+        .send({ athletePick: pick });
+      expect(patched.status).toBe(200);
+      const crossing = patched.body.clip as ClipDto;
+      const res = await server.http
+        .post(`/api/clips/${crossing.id}/server-analysis`)
+        .set(await server.bearer('head'))
+        .send({ fromStart: true });
+      expect(res.status).toBe(202);
+      expect((res.body.clip as ClipDto).serverAnalysis).toMatchObject({ model: 'lightning' });
+      // Asked again while it is queued or running: the same job, not a second one.
+      const again = await server.http
+        .post(`/api/clips/${crossing.id}/server-analysis`)
+        .set(await server.bearer('head'))
+        .send({ fromStart: true });
+      expect((again.body.clip as ClipDto).serverAnalysis!.jobId).toBe(
+        (res.body.clip as ClipDto).serverAnalysis!.jobId,
+      );
+      await server.runtime.analyses.idle();
+      const after = (await server.http.get(`/api/clips/${crossing.id}`).set(await server.bearer('coach')))
+        .body.clip as ClipDto;
+      expect(after.serverAnalysis).toMatchObject({ status: 'done', done: after.frameCount });
+      const { worst } = await worstJointGap(crossing.id, 'phantom-crossing-turns');
+      expect(worst).toBeLessThan(0.05);
+    },
+  );
+
+  it('a clip already analysed is not read again unless asked to start over', async () => {
+    const side = frontClip;
+    const before = await server.count('frame_result');
+    const res = await server.http
+      .post(`/api/clips/${side.id}/server-analysis`)
+      .set(await server.bearer('head'))
+      .send({});
+    expect(res.status).toBe(202);
+    await server.runtime.analyses.idle();
+    const after = (await server.http.get(`/api/clips/${side.id}`).set(await server.bearer('coach'))).body
+      .clip as ClipDto;
+    expect(after.serverAnalysis).toMatchObject({
+      status: 'done',
+      done: side.frameCount,
+      total: side.frameCount,
+    });
+    expect(await server.count('frame_result')).toBe(before);
+  });
+});
+
+describe('asking for a server analysis: bad input and roles', () => {
+  const post = async (clipId: string, role: 'head' | 'coach' | 'analyst' | 'athlete', body: unknown) =>
+    server.http
+      .post(`/api/clips/${clipId}/server-analysis`)
+      .set(await server.bearer(role))
+      .send(body as object);
+
+  it('refuses an unknown model, an unknown field and a malformed id with 400, naming the field', async () => {
+    const clip = frontClip;
+    const model = await post(clip.id, 'head', { model: 'heavy' });
+    expect(model.status).toBe(400);
+    expect(JSON.stringify(model.body)).toContain('model');
+    expect((await post(clip.id, 'head', { priority: 1 })).status).toBe(400);
+    expect((await post(clip.id, 'head', { fromStart: 'yes' })).status).toBe(400);
+    expect((await post('not-a-uuid', 'head', {})).status).toBe(400);
+  });
+
+  it('analysts and athletes may not queue (403); an unknown clip is 404', async () => {
+    const clip = frontClip;
+    expect((await post(clip.id, 'analyst', {})).status).toBe(403);
+    expect((await post(clip.id, 'athlete', {})).status).toBe(403);
+    expect((await post('00000000-0000-4000-8000-000000000000', 'head', {})).status).toBe(404);
+  });
+
+  it('a clip not ready is 409 with what to do, and nothing is queued', async () => {
+    const clip = frontClip;
+    await server.runtime.dataSource.query(`UPDATE clip SET status = 'processing' WHERE id = ?`, [clip.id]);
+    const jobs = await server.count('job');
+    try {
+      const res = await post(clip.id, 'head', {});
+      expect(res.status).toBe(409);
+      expect(JSON.stringify(res.body)).toContain('still being prepared');
+      expect(await server.count('job')).toBe(jobs);
+    } finally {
+      await server.runtime.dataSource.query(`UPDATE clip SET status = 'ready' WHERE id = ?`, [clip.id]);
+    }
+  });
+});
