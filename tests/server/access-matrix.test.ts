@@ -385,6 +385,20 @@ const ROWS: Row[] = [
     expect: { ...staffOnly(200), coach: 404 },
   },
   {
+    route: 'POST /api/clips/:id/server-analysis',
+    target: 'own clip',
+    path: (i) => `/api/clips/${i.clipElsie}/server-analysis`,
+    body: () => ({}),
+    expect: staffOnly(202),
+  },
+  {
+    route: 'POST /api/clips/:id/server-analysis',
+    target: 'other group clip',
+    path: (i) => `/api/clips/${i.clipSigne}/server-analysis`,
+    body: () => ({ model: 'thunder' }),
+    expect: { ...staffOnly(202), coach: 404 },
+  },
+  {
     route: 'GET /api/clips/:id/frames',
     target: 'own clip',
     path: (i) => `/api/clips/${i.clipElsie}/frames?model=lightning`,
