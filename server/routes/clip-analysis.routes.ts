@@ -25,6 +25,16 @@ export function clipAnalysisRoutes(ctx: RouteContext): Router {
     },
   );
 
+  router.get(
+    '/api/clips/:id/server-analysis',
+    guard.authenticate,
+    guard.authorize('clip:read'),
+    validate({ params: clipParams }),
+    async (req, res) => {
+      res.json(await ctx.analysis.serverAnalysis(principalOf(req), req.params.id as string));
+    },
+  );
+
   router.post(
     '/api/clips/:id/server-analysis',
     guard.authenticate,

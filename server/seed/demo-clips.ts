@@ -18,7 +18,8 @@ import type { FrameStore } from '../services/frame-store';
 import { systemClock, type Clock } from '../services/principal';
 import type { ObjectStorage } from '../storage/object-storage';
 import { DEMO_ATHLETES } from './demo-club';
-import { repositoriesFor } from '../repositories/unit-of-work';
+import { repositoriesFor, UnitOfWork } from '../repositories/unit-of-work';
+import { queueClipAnalysis } from '../services/job-queue';
 
 /** The phantom skier's clips (rendered by fixtures/phantom, so the true angles are known). */
 export const DEMO_FOOTAGE_DIR = path.join('fixtures', 'phantom', 'demo');
@@ -33,6 +34,8 @@ export const DEMO_CLIP_PLAN: {
   session: 0 | 1;
   /** The athlete the coach picked among several people (frame 0: the athlete's hips in the truth file). */
   pick?: AthletePick;
+  /** Seeded without stored results and queued for analysis on the server: it is read after first start. */
+  analyseOnServer?: boolean;
 }[] = [
   { footage: 'phantom-front-turns', view: 'front', athlete: 'elsie', session: 0 },
   { footage: 'phantom-side-run', view: 'side', athlete: 'elsie', session: 0 },
@@ -47,6 +50,9 @@ export const DEMO_CLIP_PLAN: {
     session: 1,
     pick: { frameIndex: 0, x: 282, y: 251 },
   },
+  // Uploaded at the end of the training day and left for the server, which analyses it in the
+  // background after the first start (the clip page shows its progress).
+  { footage: 'phantom-spring-turns', view: 'front', athlete: 'finn', session: 1, analyseOnServer: true },
 ];
 
 export const demoKeypointFileSchema = z.object({
@@ -168,6 +174,18 @@ export async function seedDemoClips(deps: DemoClipDeps, clubId: string): Promise
       continue;
     }
     ids.push(id);
+    if (plan.analyseOnServer) {
+      const uow = new UnitOfWork(deps.dataSource);
+      await uow.transaction((m) =>
+        queueClipAnalysis(uow, m, {
+          clip: ready,
+          model: ready.defaultModel,
+          createdById: coach?.id ?? null,
+          now: clock.now(),
+        }),
+      );
+      continue;
+    }
 
     const keypoints = await readKeypoints(
       path.join(root, DEMO_KEYPOINTS_DIR, `${plan.footage}.${'lightning'}.json`),

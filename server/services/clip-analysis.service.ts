@@ -1,6 +1,12 @@
 import { randomUUID } from 'node:crypto';
 import type { PoseModelName } from '@shared/keypoints';
-import type { ClipResponse, ServerAnalysisRequest, UpdateClipInput } from '@shared/schemas/clip.schema';
+import type {
+  ClipResponse,
+  ServerAnalysisRequest,
+  ServerAnalysisResponse,
+  UpdateClipInput,
+} from '@shared/schemas/clip.schema';
+import { toServerAnalysisDto } from '../mappers/clip.mapper';
 import type {
   ClipFramesResponse,
   FrameBatchInput,
@@ -30,6 +36,19 @@ export class ClipAnalysisService {
     /** Wakes the server's analysis queue after a clip was queued. */
     private readonly wakeAnalyses: () => void = () => undefined,
   ) {}
+
+  /** The clip's newest server analysis (polled by the clip page while one is queued or running). */
+  async serverAnalysis(principal: Principal, clipId: string): Promise<ServerAnalysisResponse> {
+    const clip = await this.clips.findVisible(principal, clipId);
+    const job = (await this.uow.repos.jobs.latestAnalyses([clip.id])).get(clip.id) ?? null;
+    const stored = (await this.uow.repos.frames.analysisByClip([clip.id])).get(clip.id) ?? [];
+    return {
+      serverAnalysis: toServerAnalysisDto(job),
+      clipStatus: clip.status,
+      storedFrames: stored.find((a) => a.model === clip.defaultModel)?.frameCount ?? 0,
+      frameCount: clip.frameCount,
+    };
+  }
 
   /**
    * Queues the clip for pose analysis on the server (in the background, the same detector code as the

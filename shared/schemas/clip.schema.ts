@@ -162,6 +162,15 @@ export interface ClipResponse {
   clip: ClipDto;
 }
 
+export interface ServerAnalysisResponse {
+  serverAnalysis: ServerAnalysisDto | null;
+  /** While the clip is still being prepared its analysis cannot start yet. */
+  clipStatus: ClipStatus;
+  /** Frames stored with the clip's default model (by the browser or the server). */
+  storedFrames: number;
+  frameCount: number | null;
+}
+
 /** Ask the server to analyse a clip in the background. */
 export const serverAnalysisRequestSchema = z
   .object({

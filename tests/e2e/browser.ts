@@ -43,14 +43,23 @@ export interface DemoApp {
   close(): Promise<void>;
 }
 
-export async function startDemoApp(name: string): Promise<DemoApp> {
+/**
+ * The demo app on a fresh data folder. Server-side analysis is off unless `env` turns it on: it would
+ * take a core from the browser under test (the demo's queued clip then stays queued).
+ */
+export async function startDemoApp(name: string, env: Record<string, string> = {}): Promise<DemoApp> {
   // A build from an earlier run is reused; a clean clone builds once here.
   if (!existsSync(join(process.cwd(), 'dist', 'index.html'))) {
     const { build } = await import('vite');
     await build({ root: process.cwd(), logLevel: 'warn' });
   }
   const workDir = mkdtempSync(join(tmpdir(), `stanceline-${name}-e2e-`));
-  const app = await startStanceline({ port: 0, dataDir: join(workDir, 'data'), logLevel: 'warn' });
+  const app = await startStanceline({
+    port: 0,
+    dataDir: join(workDir, 'data'),
+    logLevel: 'warn',
+    env: { ANALYSIS_WORKERS: '0', ...env },
+  });
   const browser = await launchBrowser();
   return {
     app,

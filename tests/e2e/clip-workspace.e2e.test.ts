@@ -165,7 +165,13 @@ beforeAll(async () => {
     await build({ root: process.cwd(), logLevel: 'warn' });
   }
   workDir = mkdtempSync(join(tmpdir(), 'stanceline-workspace-e2e-'));
-  app = await startStanceline({ port: 0, dataDir: join(workDir, 'data'), logLevel: 'warn' });
+  app = await startStanceline({
+    port: 0,
+    dataDir: join(workDir, 'data'),
+    logLevel: 'warn',
+    // No analysis on the server: it would take a core from the browser under test.
+    env: { ANALYSIS_WORKERS: '0' },
+  });
   const login = await fetch(`${app.url}/api/auth/login`, {
     method: 'POST',
     headers: { 'Content-Type': 'application/json' },

@@ -72,7 +72,13 @@ beforeAll(async () => {
   textPath = join(workDir, 'lap-times.txt');
   writeFileSync(textPath, 'run 1 41.2\nrun 2 40.8\n');
   await makeClip(clipPath);
-  app = await startStanceline({ port: 0, dataDir: join(workDir, 'data'), logLevel: 'warn' });
+  app = await startStanceline({
+    port: 0,
+    dataDir: join(workDir, 'data'),
+    logLevel: 'warn',
+    // No analysis on the server: it would take a core from the browser under test.
+    env: { ANALYSIS_WORKERS: '0' },
+  });
   browser = await launchBrowser();
 });
 

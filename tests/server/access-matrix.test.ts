@@ -385,6 +385,18 @@ const ROWS: Row[] = [
     expect: { ...staffOnly(200), coach: 404 },
   },
   {
+    route: 'GET /api/clips/:id/server-analysis',
+    target: 'own clip',
+    path: (i) => `/api/clips/${i.clipElsie}/server-analysis`,
+    expect: all(200),
+  },
+  {
+    route: 'GET /api/clips/:id/server-analysis',
+    target: 'teammate clip',
+    path: (i) => `/api/clips/${i.clipKit}/server-analysis`,
+    expect: { head: 200, coach: 200, analyst: 200, athlete: 404, guardian: 404 },
+  },
+  {
     route: 'POST /api/clips/:id/server-analysis',
     target: 'own clip',
     path: (i) => `/api/clips/${i.clipElsie}/server-analysis`,

@@ -2,7 +2,7 @@ import fs from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { ClipDto } from '@shared/schemas/clip.schema';
+import type { ClipDto, ServerAnalysisResponse } from '@shared/schemas/clip.schema';
 import type { ClipFramesResponse } from '@shared/schemas/frames.schema';
 import {
   DEMO_CLIP_PLAN,
@@ -115,4 +115,31 @@ describe('the demo clip with another skier crossing', () => {
       ).toBeLessThan(0.25);
     }
   });
+});
+
+describe('the demo clip left for the server', () => {
+  it(
+    'is analysed in the background after the first start: queued, then every frame stored',
+    { timeout: 180_000 },
+    async () => {
+      const { clips } = await get<{ clips: ClipDto[] }>('/api/clips');
+      const plan = DEMO_CLIP_PLAN.find((p) => p.analyseOnServer)!;
+      const clip = clips.find(
+        (c) => c.originalName === `${plan.footage}.mp4` && c.athletes.some((a) => a.name.startsWith('Finn')),
+      )!;
+      expect(clip.serverAnalysis).toMatchObject({ model: 'lightning' });
+      const deadline = Date.now() + 150_000;
+      let status = await get<ServerAnalysisResponse>(`/api/clips/${clip.id}/server-analysis`);
+      while (status.serverAnalysis?.status !== 'done' && Date.now() < deadline) {
+        expect(['queued', 'running']).toContain(status.serverAnalysis?.status);
+        await new Promise((r) => setTimeout(r, 500));
+        status = await get<ServerAnalysisResponse>(`/api/clips/${clip.id}/server-analysis`);
+      }
+      expect(status).toMatchObject({ clipStatus: 'ready', storedFrames: clip.frameCount });
+      const read = await get<ClipFramesResponse>(`/api/clips/${clip.id}/frames?model=lightning`);
+      expect(read.frames).toHaveLength(clip.frameCount!);
+      // Found in every frame: the phantom skier is alone and large.
+      expect(read.frames.filter((f) => f.keypoints.length === 0)).toEqual([]);
+    },
+  );
 });

@@ -93,6 +93,17 @@ describe('analysis on the server', () => {
         total: done.frameCount,
       });
       expect(done.analysis).toMatchObject({ model: 'lightning', frameCount: done.frameCount });
+      // The status alone, for the clip page to poll without a new media address each time.
+      const status = await server.http
+        .get(`/api/clips/${uploaded.id}/server-analysis`)
+        .set(await server.bearer('analyst'));
+      expect(status.status).toBe(200);
+      expect(status.body).toEqual({
+        serverAnalysis: done.serverAnalysis,
+        clipStatus: 'ready',
+        storedFrames: done.frameCount,
+        frameCount: done.frameCount,
+      });
       frontClip = done;
       const { worst, compared } = await worstJointGap(uploaded.id, 'phantom-front-turns');
       expect(compared).toBeGreaterThan(1000);
@@ -180,6 +191,10 @@ describe('asking for a server analysis: bad input and roles', () => {
     expect((await post(clip.id, 'head', { priority: 1 })).status).toBe(400);
     expect((await post(clip.id, 'head', { fromStart: 'yes' })).status).toBe(400);
     expect((await post('not-a-uuid', 'head', {})).status).toBe(400);
+    const malformed = await server.http
+      .get('/api/clips/not-a-uuid/server-analysis')
+      .set(await server.bearer('head'));
+    expect(malformed.status).toBe(400);
   });
 
   it('analysts and athletes may not queue (403); an unknown clip is 404', async () => {

@@ -1,6 +1,7 @@
 import { Link } from 'react-router-dom';
 import { Film } from 'lucide-react';
 import type { ClipDto } from '@shared/schemas/clip.schema';
+import { AnalysisBadge } from '@/components/analysis-badge';
 import { Badge } from '@/components/ui/badge';
 import { EmptyState } from '@/components/ui/empty-state';
 import { paths } from '@/config/paths';
@@ -40,7 +41,15 @@ export function ClipList({ clips, emptyTitle = 'No clips yet', emptyText }: Clip
               </span>
             </span>
             <span className="flex shrink-0 items-center gap-2">
-              {clip.status === 'ready' ? null : <ClipStatusBadge status={clip.status} />}
+              {clip.status === 'ready' ? (
+                <AnalysisBadge
+                  storedFrames={clip.analysis?.frameCount ?? 0}
+                  frameCount={clip.frameCount}
+                  serverAnalysis={clip.serverAnalysis}
+                />
+              ) : (
+                <ClipStatusBadge status={clip.status} />
+              )}
               <Badge>{clip.view === 'front' ? 'Front' : 'Side'}</Badge>
             </span>
           </Link>

@@ -5,6 +5,7 @@ import { Button } from '@/components/ui/button';
 import { ProgressBar } from '@/components/ui/progress-bar';
 import { paths } from '@/config/paths';
 import { formatBytes } from '@/lib/format';
+import { useUploadedClipProgress } from '../api/clip-progress';
 import type { UploadItem } from '../hooks/use-upload-queue';
 import { AthletePicker, type AthleteOption } from './athlete-picker';
 
@@ -79,6 +80,7 @@ export function UploadRow({ item, athletes, onChange, onRetry, onRemove }: Uploa
         >
           {item.error ?? statusText(item)}
         </p>
+        {item.status === 'done' && item.clipId ? <UploadedClipProgress clipId={item.clipId} /> : null}
       </div>
       <div className="flex items-center justify-end gap-1">
         {item.status === 'done' && item.clipId ? (
@@ -107,5 +109,29 @@ export function UploadRow({ item, athletes, onChange, onRetry, onRemove }: Uploa
         ) : null}
       </div>
     </li>
+  );
+}
+
+/** After the upload: the clip being prepared, then analysed on the server in the background. */
+function UploadedClipProgress({ clipId }: { clipId: string }) {
+  const progress = useUploadedClipProgress(clipId);
+  const data = progress.data;
+  let text: string;
+  if (!data) text = progress.isError ? 'Could not check the clip; open it to see where it stands' : '';
+  else if (data.clipStatus === 'uploaded' || data.clipStatus === 'processing')
+    text = 'Preparing the clip for playback…';
+  else if (data.clipStatus === 'failed') text = 'The clip could not be prepared; open it to see why';
+  else if (data.serverAnalysis?.status === 'running') {
+    const { done, total } = data.serverAnalysis;
+    text = `Analysing on the server ${total > 0 ? Math.round((done / total) * 100) : 0} %`;
+  } else if (data.serverAnalysis?.status === 'queued') text = 'Queued for analysis on the server';
+  else if (data.serverAnalysis?.status === 'failed')
+    text = `Analysis failed: ${data.serverAnalysis.error ?? 'open the clip to try again'}`;
+  else if (data.frameCount !== null && data.storedFrames >= data.frameCount) text = 'Analysed';
+  else text = 'Ready; open it to analyse';
+  return (
+    <p className="mt-0.5 text-xs text-granite-600" aria-live="polite" data-testid="clip-progress">
+      {text}
+    </p>
   );
 }

@@ -1,11 +1,12 @@
 import { useId, useState } from 'react';
-import { Activity, X } from 'lucide-react';
+import { Activity, Server, X } from 'lucide-react';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
 import { ProgressBar } from '@/components/ui/progress-bar';
 import { formatDateTime } from '@/lib/format';
 import { clipExtras } from '../../api/clip-contract';
 import { useClipFrames } from '../../api/get-clip-frames';
+import { isServerAnalysisActive, useQueueServerAnalysis, useServerAnalysis } from '../../api/server-analysis';
 import { useAnalysis } from '../stage/analysis-context';
 import { useStage } from '../stage/stage-context';
 import {
@@ -124,7 +125,78 @@ export function AnalysisPanel() {
       ) : null}
 
       <RunStatus run={run} />
+      <ServerAnalysisStatus
+        canEdit={canEdit}
+        complete={frameCount > 0 && storedFrames >= frameCount}
+        localBusy={busy}
+      />
     </section>
+  );
+}
+
+/**
+ * The clip's analysis on the server: queued, running with its progress, done, or failed with why; and
+ * for the coach, the button that hands the whole clip to the server instead of this computer.
+ */
+function ServerAnalysisStatus(props: { canEdit: boolean; complete: boolean; localBusy: boolean }) {
+  const { clip } = useStage();
+  const { model } = useAnalysis();
+  const status = useServerAnalysis(clip.id, clip.serverAnalysis);
+  const queue = useQueueServerAnalysis(clip.id);
+  const current = status.data.serverAnalysis;
+  const active = isServerAnalysisActive(current);
+  const name = current ? MODEL_NAMES[current.model] : MODEL_NAMES[model];
+  const percent = current && current.total > 0 ? Math.round((current.done / current.total) * 100) : 0;
+  return (
+    <div className="mt-3 space-y-2" data-testid="server-analysis">
+      {current?.status === 'queued' ? (
+        <p role="status" className="text-sm text-granite-700">
+          Queued for analysis on the server with {name}. It runs in the background: you can leave this page,
+          the curves appear here when it is done.
+        </p>
+      ) : null}
+      {current?.status === 'running' ? (
+        <div className="space-y-1.5">
+          <ProgressBar value={percent / 100} label="Analysis on the server" />
+          <p role="status" className="text-sm text-granite-700">
+            Analysing on the server with {name}: <span className="font-mono tabular-nums">{percent} %</span> (
+            <span className="font-mono tabular-nums">
+              {current.done} of {current.total}
+            </span>{' '}
+            frames). The curves fill in as frames are stored.
+          </p>
+        </div>
+      ) : null}
+      {current?.status === 'done' ? (
+        <p className="text-sm text-granite-600" data-testid="server-analysis-done">
+          Analysed on the server with {name} · {formatDateTime(current.updatedAt)}
+        </p>
+      ) : null}
+      {current?.status === 'failed' ? (
+        <Notice tone="error" title="The server could not analyse this clip">
+          <p>{current.error ?? 'The analysis stopped.'}</p>
+          <p className="mt-1">
+            Try again below; if it fails again, export the clip from the phone again and upload the new file.
+          </p>
+        </Notice>
+      ) : null}
+      {queue.isError ? (
+        <Notice tone="error" title="The clip could not be queued">
+          <p>{queue.error.message}</p>
+        </Notice>
+      ) : null}
+      {props.canEdit && !active ? (
+        <Button
+          variant="secondary"
+          size="sm"
+          icon={<Server aria-hidden="true" className="h-4 w-4" />}
+          disabled={queue.isPending || props.localBusy}
+          onClick={() => queue.mutate({ model, fromStart: props.complete })}
+        >
+          {props.complete ? 'Analyse again on the server' : 'Analyse on the server'}
+        </Button>
+      ) : null}
+    </div>
   );
 }
 
@@ -213,6 +285,20 @@ function RunStatus({ run }: { run: AnalysisRun }) {
       return (
         <Notice tone="error" title="The analysis stopped" className="mt-3">
           <p>{run.message}</p>
+        </Notice>
+      );
+    case 'handed-over':
+      return (
+        <Notice tone="info" title="Analysed on the server instead" className="mt-3">
+          <p data-testid="handed-over">
+            This browser cannot decode this clip&rsquo;s video, so the whole clip{' '}
+            {run.queued
+              ? 'was handed to the server, which reads it with its own decoder. Its progress shows below and the curves appear here when it is done; you can leave this page meanwhile.'
+              : run.message
+                ? `could not be handed to the server: ${run.message}`
+                : 'is being handed to the server…'}
+          </p>
+          <p className="mt-1 text-xs text-granite-600">The browser said: {run.reason}</p>
         </Notice>
       );
   }

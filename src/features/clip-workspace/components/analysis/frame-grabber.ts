@@ -8,6 +8,11 @@ function abortError(): DOMException {
   return new DOMException('Analysis cancelled', 'AbortError');
 }
 
+/** This browser cannot decode the clip's video at all (its codec or container is not supported here). */
+export class VideoUndecodableError extends Error {
+  override name = 'VideoUndecodableError';
+}
+
 function once(
   target: HTMLVideoElement,
   event: string,
@@ -24,7 +29,16 @@ function once(
     };
     const onEvent = () => done(resolve);
     const onError = () =>
-      done(() => reject(new Error(target.error?.message || 'the video could not be decoded for analysis')));
+      done(() => {
+        const code = target.error?.code;
+        const text = target.error?.message || 'the video could not be decoded for analysis';
+        // Not a passing hiccup: the browser has no decoder for this file.
+        reject(
+          code === MediaError.MEDIA_ERR_SRC_NOT_SUPPORTED || code === MediaError.MEDIA_ERR_DECODE
+            ? new VideoUndecodableError(text)
+            : new Error(text),
+        );
+      });
     const onAbort = () => done(() => reject(abortError()));
     const timer = setTimeout(
       () => done(() => reject(new Error(`the video did not answer within ${timeoutMs / 1000} s (${event})`))),

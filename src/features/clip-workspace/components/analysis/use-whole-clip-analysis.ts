@@ -2,11 +2,12 @@ import { useCallback, useEffect, useRef, useState } from 'react';
 import type { PoseModelName } from '@shared/keypoints';
 import { getPoseClient } from '@/lib/pose-client';
 import { useAnalysisUpload } from '../../api/post-clip-frames';
+import { useQueueServerAnalysis } from '../../api/server-analysis';
 import { useAnalysis } from '../stage/analysis-context';
 import { useAnnotations } from '../stage/annotations-context';
 import { useStage } from '../stage/stage-context';
 import { framesToAnalyze } from './analysis-plan';
-import { FrameGrabber } from './frame-grabber';
+import { FrameGrabber, VideoUndecodableError } from './frame-grabber';
 import {
   runWholeClip,
   WholeClipError,
@@ -20,7 +21,9 @@ export type AnalysisRun =
   | { state: 'running'; model: PoseModelName; progress: WholeClipProgress }
   | { state: 'cancelling'; model: PoseModelName; progress: WholeClipProgress }
   | { state: 'done'; model: PoseModelName; outcome: WholeClipOutcome; mismatches: number }
-  | { state: 'failed'; model: PoseModelName; message: string; stored: number };
+  | { state: 'failed'; model: PoseModelName; message: string; stored: number }
+  /** This browser cannot decode the clip: the whole clip went to the server instead. */
+  | { state: 'handed-over'; model: PoseModelName; reason: string; queued: boolean; message?: string };
 
 const RATE_KEY = (model: PoseModelName) => `stanceline.analysis.ms-per-frame.${model}`;
 
@@ -54,6 +57,7 @@ export function useWholeClipAnalysis() {
   const { model: chosenModel } = useAnalysis();
   const { referenceLine } = useAnnotations();
   const upload = useAnalysisUpload(clip.id);
+  const queueServer = useQueueServerAnalysis(clip.id);
   const [run, setRun] = useState<AnalysisRun>({ state: 'idle' });
   const controller = useRef<AbortController | null>(null);
 
@@ -108,6 +112,21 @@ export function useWholeClipAnalysis() {
       } catch (error) {
         if (error instanceof DOMException && error.name === 'AbortError') {
           setRun({ state: 'idle' });
+        } else if (error instanceof VideoUndecodableError) {
+          // Not an error for the coach: the server reads the same file with its own decoder.
+          setRun({ state: 'handed-over', model, reason: error.message, queued: false });
+          try {
+            await queueServer.mutateAsync({ model });
+            setRun({ state: 'handed-over', model, reason: error.message, queued: true });
+          } catch (queueError) {
+            setRun({
+              state: 'handed-over',
+              model,
+              reason: error.message,
+              queued: false,
+              message: queueError instanceof Error ? queueError.message : String(queueError),
+            });
+          }
         } else {
           setRun({
             state: 'failed',
@@ -124,7 +143,18 @@ export function useWholeClipAnalysis() {
         if (controller.current === abort) controller.current = null;
       }
     },
-    [upload, mediaSrc, fps, frameCount, chosenModel, referenceLine, clip.view, clip.facing, clip.athletePick],
+    [
+      upload,
+      queueServer,
+      mediaSrc,
+      fps,
+      frameCount,
+      chosenModel,
+      referenceLine,
+      clip.view,
+      clip.facing,
+      clip.athletePick,
+    ],
   );
 
   const cancel = useCallback(() => {
