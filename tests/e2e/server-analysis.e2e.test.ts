@@ -48,7 +48,9 @@ describe('analysis on the server', () => {
       await page.getByRole('link', { name: 'Athletes' }).click();
       await page.getByRole('link', { name: 'Finn Marrow', exact: true }).click();
       const clipId = await clipLeftForServer();
-      const row = page.getByRole('region', { name: 'Clips', exact: true }).locator(`a[href$="/clips/${clipId}"]`);
+      const row = page
+        .getByRole('region', { name: 'Clips', exact: true })
+        .locator(`a[href$="/clips/${clipId}"]`);
       // Queued, analysing or already analysed, depending on how far the server got.
       await expect
         .poll(async () => (await row.textContent()) ?? '', { timeout: 30_000 })
