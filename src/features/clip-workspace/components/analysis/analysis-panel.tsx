@@ -258,12 +258,18 @@ function RunStatus({ run }: { run: AnalysisRun }) {
       return (
         <div className="mt-3 space-y-1.5">
           {outcome.status === 'finished' ? (
-            <p role="status" className="text-sm text-spruce-700" data-testid="analysis-finished">
+            <p
+              role="status"
+              className="text-sm text-spruce-700"
+              data-testid="analysis-finished"
+              data-decoder={run.decoder}
+            >
               Analysed <span className="font-mono tabular-nums">{outcome.done}</span> frames in{' '}
               <span className="font-mono tabular-nums" data-elapsed-ms={Math.round(outcome.elapsedMs)}>
                 {(outcome.elapsedMs / 1000).toFixed(1)}
               </span>{' '}
-              s (<span className="font-mono tabular-nums">{Math.round(perFrame)}</span> ms a frame).
+              s (<span className="font-mono tabular-nums">{Math.round(perFrame)}</span> ms a frame
+              {run.decoder === 'webcodecs' ? ', decoded in order' : ', by seeking the video'}).
             </p>
           ) : (
             <p role="status" className="text-sm text-granite-700">

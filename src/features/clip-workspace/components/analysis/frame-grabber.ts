@@ -8,6 +8,19 @@ function abortError(): DOMException {
   return new DOMException('Analysis cancelled', 'AbortError');
 }
 
+/**
+ * Frames of a clip, asked for by index in rising order (a jump back starts over): decoded in order
+ * with WebCodecs, or grabbed by seeking a hidden video where WebCodecs cannot read the file.
+ */
+export interface FrameSource {
+  readonly kind: 'webcodecs' | 'seek';
+  /** Frames whose presented time pointed at a different frame than asked for (seeking only). */
+  mismatches: number;
+  open(signal: AbortSignal): Promise<void>;
+  grab(frameIndex: number, signal: AbortSignal): Promise<ImageBitmap>;
+  close(): void;
+}
+
 /** This browser cannot decode the clip's video at all (its codec or container is not supported here). */
 export class VideoUndecodableError extends Error {
   override name = 'VideoUndecodableError';
@@ -55,7 +68,8 @@ function once(
  * the visible player is never disturbed. Each grab seeks to the middle of the frame's presentation
  * span, waits for 'seeked' and for the frame to be presented, and copies it into an ImageBitmap.
  */
-export class FrameGrabber {
+export class FrameGrabber implements FrameSource {
+  readonly kind = 'seek' as const;
   private video: HTMLVideoElement | null = null;
   /** Frames whose presented media time pointed at a different frame than asked for. */
   mismatches = 0;

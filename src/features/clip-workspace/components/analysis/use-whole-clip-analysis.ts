@@ -7,7 +7,8 @@ import { useAnalysis } from '../stage/analysis-context';
 import { useAnnotations } from '../stage/annotations-context';
 import { useStage } from '../stage/stage-context';
 import { framesToAnalyze } from './analysis-plan';
-import { FrameGrabber, VideoUndecodableError } from './frame-grabber';
+import { DecodedFrameSource, WebCodecsUnavailableError } from './decoded-frames';
+import { FrameGrabber, VideoUndecodableError, type FrameSource } from './frame-grabber';
 import {
   runWholeClip,
   WholeClipError,
@@ -20,12 +21,29 @@ export type AnalysisRun =
   | { state: 'loading'; model: PoseModelName }
   | { state: 'running'; model: PoseModelName; progress: WholeClipProgress }
   | { state: 'cancelling'; model: PoseModelName; progress: WholeClipProgress }
-  | { state: 'done'; model: PoseModelName; outcome: WholeClipOutcome; mismatches: number }
+  | {
+      state: 'done';
+      model: PoseModelName;
+      outcome: WholeClipOutcome;
+      mismatches: number;
+      /** How the frames were decoded: WebCodecs in order, or seeking a hidden video. */
+      decoder: FrameSource['kind'];
+    }
   | { state: 'failed'; model: PoseModelName; message: string; stored: number }
   /** This browser cannot decode the clip: the whole clip went to the server instead. */
   | { state: 'handed-over'; model: PoseModelName; reason: string; queued: boolean; message?: string };
 
 const RATE_KEY = (model: PoseModelName) => `stanceline.analysis.ms-per-frame.${model}`;
+/** 'seek' forces the seek-based grabbing (for comparing the two decoders); anything else: WebCodecs first. */
+const DECODER_KEY = 'stanceline.analysis.decoder';
+
+function preferredDecoder(): FrameSource['kind'] {
+  try {
+    return window.localStorage.getItem(DECODER_KEY) === 'seek' ? 'seek' : 'webcodecs';
+  } catch {
+    return 'webcodecs';
+  }
+}
 
 /** The last measured whole-clip pace on this computer, for the estimate before a run. */
 export function rememberedMsPerFrame(model: PoseModelName): number | null {
@@ -82,11 +100,19 @@ export function useWholeClipAnalysis() {
         facing: clip.facing,
         referenceLine: referenceLine,
       };
-      const grabber = new FrameGrabber(mediaSrc, fps);
+      let grabber: FrameSource =
+        preferredDecoder() === 'seek' ? new FrameGrabber(mediaSrc, fps) : new DecodedFrameSource(mediaSrc);
       const pose = getPoseClient();
       setRun({ state: 'loading', model });
       try {
-        await Promise.all([grabber.open(abort.signal), pose.load(model)]);
+        const opened = grabber.open(abort.signal).catch(async (error: unknown) => {
+          // WebCodecs cannot read this file here: grab the frames by seeking a hidden video instead.
+          if (!(error instanceof WebCodecsUnavailableError)) throw error;
+          grabber.close();
+          grabber = new FrameGrabber(mediaSrc, fps);
+          await grabber.open(abort.signal);
+        });
+        await Promise.all([opened, pose.load(model)]);
         // A whole clip is one sequence: start tracking afresh, then keep it frame to frame.
         await pose.reset();
         const outcome = await runWholeClip(
@@ -108,7 +134,7 @@ export function useWholeClipAnalysis() {
         );
         if (outcome.done > 0 && outcome.status === 'finished')
           remember(model, outcome.elapsedMs / outcome.done);
-        setRun({ state: 'done', model, outcome, mismatches: grabber.mismatches });
+        setRun({ state: 'done', model, outcome, mismatches: grabber.mismatches, decoder: grabber.kind });
       } catch (error) {
         if (error instanceof DOMException && error.name === 'AbortError') {
           setRun({ state: 'idle' });
