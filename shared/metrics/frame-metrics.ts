@@ -284,6 +284,18 @@ export function computeFrameMetrics(input: FrameInput, options: FrameMetricOptio
   // A camera far from the view the clip says (a front clip seen from the side, a side clip seen
   // three-quarters on) makes that view's numbers wrong by an unknown amount: no number, the reason.
   const distrust = viewDistrust(points, input.view);
+  // One context per frame, its reader and notes renewed per metric (closures made once, not twenty times).
+  let notes = new Set<string>();
+  const context: Context = {
+    r: new PointReader(points),
+    frame,
+    facingSign: () => {
+      if (!facing) throw new MetricUnavailable('facing unknown');
+      return facing === 'right' ? 1 : -1;
+    },
+    note: (text) => notes.add(text),
+    options,
+  };
   for (const key of METRIC_KEYS) {
     result.metrics[key] = null;
     const views = METRIC_DEFINITIONS[key].views;
@@ -296,17 +308,8 @@ export function computeFrameMetrics(input: FrameInput, options: FrameMetricOptio
       continue;
     }
     const reader = new PointReader(points);
-    const notes = new Set<string>();
-    const context: Context = {
-      r: reader,
-      frame,
-      facingSign: () => {
-        if (!facing) throw new MetricUnavailable('facing unknown');
-        return facing === 'right' ? 1 : -1;
-      },
-      note: (text) => notes.add(text),
-      options,
-    };
+    context.r = reader;
+    notes = new Set<string>();
     try {
       const value = COMPUTE[key](context);
       if (!Number.isFinite(value)) throw new MetricUnavailable('not computable');

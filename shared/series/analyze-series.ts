@@ -1,4 +1,3 @@
-import { median } from 'mathjs/number';
 import type { Keypoint, KeypointName, ReferenceLine, View } from '../keypoints';
 import { DEFAULT_CONFIDENCE_FLOOR } from '../keypoints';
 import {
@@ -97,13 +96,16 @@ export const DEFAULT_MAX_GAP_FRAMES = 3;
 export const DEFAULT_MIN_TURN_PEAK_DEG = 3;
 
 function summarize(values: readonly (number | null)[]): MetricSummary {
-  const present = values.filter((v): v is number => v !== null);
-  if (present.length === 0) return { median: null, min: null, max: null, count: 0 };
+  // A typed array sorts numbers natively: a 10,000-frame clip's twenty summaries take a few
+  // milliseconds (a general-purpose median with tolerant comparisons took over a second).
+  const present = Float64Array.from(values.filter((v): v is number => v !== null)).sort();
+  const n = present.length;
+  if (n === 0) return { median: null, min: null, max: null, count: 0 };
   return {
-    median: median(present) as number,
-    min: Math.min(...present),
-    max: Math.max(...present),
-    count: present.length,
+    median: n % 2 === 1 ? present[(n - 1) / 2] : (present[n / 2 - 1] + present[n / 2]) / 2,
+    min: present[0],
+    max: present[n - 1],
+    count: n,
   };
 }
 
@@ -258,13 +260,9 @@ export function analyzeSeries(input: SeriesFrameInput[], options: SeriesOptions)
 
   const summary: SeriesSummary = summarizeFrames(out);
   if (turns.length > 0) {
-    const inTurns = (direction: 'left' | 'right') =>
-      out.filter((f, i) =>
-        frameInTurn(turns, direction, f.frameIndex, i === out.length - 1 ? Infinity : out[i + 1].frameIndex),
-      );
     summary.byDirection = {
-      left: summarizeFrames(inTurns('left')),
-      right: summarizeFrames(inTurns('right')),
+      left: summarizeFrames(framesInTurns(out, turns, 'left')),
+      right: summarizeFrames(framesInTurns(out, turns, 'right')),
     };
   }
 
@@ -279,17 +277,24 @@ export function analyzeSeries(input: SeriesFrameInput[], options: SeriesOptions)
   };
 }
 
-/** A frame belongs to a turn from its start up to (not including) its end, except at the clip's end. */
-function frameInTurn(
+/**
+ * The frames inside turns of one direction: a frame belongs to a turn from its start up to (not
+ * including) its end, except the clip's last frame, which belongs to a turn ending on it. Frames and
+ * turns are both in time order, so one walk through each does it.
+ */
+function framesInTurns(
+  frames: readonly SeriesFrame[],
   turns: readonly Turn[],
   direction: 'left' | 'right',
-  frame: number,
-  next: number,
-): boolean {
-  return turns.some(
-    (t) =>
-      t.direction === direction &&
-      frame >= t.startFrame &&
-      (frame < t.endFrame || (next === Infinity && frame === t.endFrame)),
-  );
+): SeriesFrame[] {
+  const mine = turns.filter((t) => t.direction === direction);
+  const inside: SeriesFrame[] = [];
+  let j = 0;
+  for (let i = 0; i < frames.length; i++) {
+    const frame = frames[i].frameIndex;
+    const last = i === frames.length - 1;
+    while (j < mine.length && frame >= mine[j].endFrame && !(last && frame === mine[j].endFrame)) j++;
+    if (j < mine.length && frame >= mine[j].startFrame) inside.push(frames[i]);
+  }
+  return inside;
 }
