@@ -108,7 +108,8 @@ export async function selectBackend(tf: TfCore, backends: readonly string[]): Pr
   throw new Error(`no TensorFlow.js backend could start (${failures.join('; ')})`);
 }
 
-async function loadModel(
+/** The pose-detection library's own detector for a model, configured as the product uses it (benchmarks compare with it). */
+export async function loadModel(
   model: PoseModelName,
   source: ModelSource,
   minPoseScore: number | undefined,

@@ -263,6 +263,7 @@ function RunStatus({ run }: { run: AnalysisRun }) {
               className="text-sm text-spruce-700"
               data-testid="analysis-finished"
               data-decoder={run.decoder}
+              data-backend={run.backend}
             >
               Analysed <span className="font-mono tabular-nums">{outcome.done}</span> frames in{' '}
               <span className="font-mono tabular-nums" data-elapsed-ms={Math.round(outcome.elapsedMs)}>

@@ -28,6 +28,8 @@ export type AnalysisRun =
       mismatches: number;
       /** How the frames were decoded: WebCodecs in order, or seeking a hidden video. */
       decoder: FrameSource['kind'];
+      /** The pose worker's TensorFlow.js backend (webgl, wasm or cpu). */
+      backend: string;
     }
   | { state: 'failed'; model: PoseModelName; message: string; stored: number }
   /** This browser cannot decode the clip: the whole clip went to the server instead. */
@@ -112,7 +114,7 @@ export function useWholeClipAnalysis() {
           grabber = new FrameGrabber(mediaSrc, fps);
           await grabber.open(abort.signal);
         });
-        await Promise.all([opened, pose.load(model)]);
+        const [, loaded] = await Promise.all([opened, pose.load(model)]);
         // A whole clip is one sequence: start tracking afresh, then keep it frame to frame.
         await pose.reset();
         const outcome = await runWholeClip(
@@ -134,7 +136,14 @@ export function useWholeClipAnalysis() {
         );
         if (outcome.done > 0 && outcome.status === 'finished')
           remember(model, outcome.elapsedMs / outcome.done);
-        setRun({ state: 'done', model, outcome, mismatches: grabber.mismatches, decoder: grabber.kind });
+        setRun({
+          state: 'done',
+          model,
+          outcome,
+          mismatches: grabber.mismatches,
+          decoder: grabber.kind,
+          backend: loaded.backend,
+        });
       } catch (error) {
         if (error instanceof DOMException && error.name === 'AbortError') {
           setRun({ state: 'idle' });
