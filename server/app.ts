@@ -102,8 +102,15 @@ export function createApp(deps: AppDeps): Express {
   const clips = new ClipService(uow, access, sessions, deps.storage, tokens, audit, clock, deps.mediaQueue);
   const toleranceBands = new ToleranceBandService(uow, clock, access, () => deps.jobs.resume());
   const frameStore = new FrameStore(uow, toleranceBands, clock);
-  const analysis = new ClipAnalysisService(uow, access, clips, frameStore, audit, clock, () =>
-    deps.analyses.resume(),
+  const analysis = new ClipAnalysisService(
+    uow,
+    access,
+    clips,
+    frameStore,
+    audit,
+    clock,
+    () => deps.analyses.resume(),
+    deps.config.analysisBrowserHoldMs,
   );
   const passwords = new PasswordService(uow, auth, audit, deps.mailer, clock, publicUrlNow);
   const compareStills = new CompareStillService(uow, clips, deps.storage, clock);

@@ -99,6 +99,11 @@ const envSchema = z.object({
   ANALYSIS_WORKERS: z.coerce.number().int().min(0).max(16).default(1),
   /** 'on': every uploaded clip is queued for analysis on the server as soon as it is ready. */
   AUTO_ANALYSIS: z.enum(['on', 'off']).default('on'),
+  /**
+   * A clip the coach's browser is analysing (it posts frames) keeps its server analysis waiting this
+   * long after each batch; if the browser stops, the server reads what is left.
+   */
+  ANALYSIS_BROWSER_HOLD: duration.default(60_000),
 });
 
 export interface Config {
@@ -137,6 +142,7 @@ export interface Config {
   jobStepPauseMs: number;
   analysisWorkers: number;
   autoAnalysis: boolean;
+  analysisBrowserHoldMs: number;
 }
 
 export class ConfigError extends Error {
@@ -187,5 +193,6 @@ export function loadConfig(env: Record<string, string | undefined>): Config {
     jobStepPauseMs: e.JOB_STEP_PAUSE,
     analysisWorkers: e.ANALYSIS_WORKERS,
     autoAnalysis: e.AUTO_ANALYSIS === 'on',
+    analysisBrowserHoldMs: e.ANALYSIS_BROWSER_HOLD,
   };
 }

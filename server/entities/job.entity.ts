@@ -23,6 +23,8 @@ export interface JobPayload {
   model?: PoseModelName;
   /** clip-analysis: read every frame again, not only those after the stored ones. */
   fromStart?: boolean;
+  /** clip-analysis: not before this time (ISO); a browser analysing the clip keeps pushing it on. */
+  notBefore?: string;
 }
 
 export interface Job {

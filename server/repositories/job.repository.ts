@@ -40,6 +40,24 @@ export class JobRepository {
     });
   }
 
+  /**
+   * Holds a clip's queued analysis until `until` (a browser is analysing the clip and posting its
+   * frames). A job already running is left as it is. Returns whether a queued job was held.
+   */
+  async holdQueuedAnalysis(clipId: string, until: Date): Promise<boolean> {
+    const queued = await this.manager.find(JobEntity, {
+      where: { kind: 'clip-analysis', clipId, status: 'queued' },
+    });
+    for (const job of queued) {
+      await this.manager.update(
+        JobEntity,
+        { id: job.id },
+        { payload: { ...job.payload, notBefore: until.toISOString() }, updatedAt: new Date() },
+      );
+    }
+    return queued.length > 0;
+  }
+
   /** The newest analysis job of each of these clips. */
   async latestAnalyses(clipIds: readonly string[]): Promise<Map<string, Job>> {
     const out = new Map<string, Job>();

@@ -35,6 +35,8 @@ export class ClipAnalysisService {
     private readonly clock: Clock,
     /** Wakes the server's analysis queue after a clip was queued. */
     private readonly wakeAnalyses: () => void = () => undefined,
+    /** How long a browser's frames hold the clip's queued server analysis (ANALYSIS_BROWSER_HOLD). */
+    private readonly browserHoldMs = 60_000,
   ) {}
 
   /** The clip's newest server analysis (polled by the clip page while one is queued or running). */
@@ -60,6 +62,24 @@ export class ClipAnalysisService {
     input: ServerAnalysisRequest,
   ): Promise<ClipResponse> {
     const clip = await this.findManageable(principal, clipId);
+    if (input.holdForBrowser && clip.status !== 'failed') {
+      // The browser analyses the clip from the uploaded file; the server waits while frames arrive.
+      const until = new Date(this.clock.now().getTime() + this.browserHoldMs);
+      await this.uow.transaction(async (manager) => {
+        const held = await this.uow.of(manager).jobs.holdQueuedAnalysis(clip.id, until);
+        const running = (await this.uow.of(manager).jobs.latestAnalyses([clip.id])).get(clip.id);
+        if (!held && running?.status !== 'running')
+          await queueClipAnalysis(this.uow, manager, {
+            clip,
+            model: input.model ?? clip.defaultModel,
+            createdById: principal.user.id,
+            now: this.clock.now(),
+            notBefore: until,
+          });
+      });
+      this.wakeAnalyses();
+      return this.clips.get(principal, clip.id);
+    }
     if (clip.status !== 'ready')
       throw conflict(
         'CLIP_NOT_READY',
@@ -102,7 +122,14 @@ export class ClipAnalysisService {
   }
 
   async ingest(principal: Principal, clipId: string, batch: FrameBatchInput): Promise<FrameBatchResponse> {
-    return this.frames.storeBatch(await this.findManageable(principal, clipId), batch);
+    const clip = await this.findManageable(principal, clipId);
+    const stored = await this.frames.storeBatch(clip, batch);
+    // A browser is analysing this clip: a queued server analysis waits until it stops posting.
+    await this.uow.repos.jobs.holdQueuedAnalysis(
+      clip.id,
+      new Date(this.clock.now().getTime() + this.browserHoldMs),
+    );
+    return stored;
   }
 
   async correct(

@@ -79,7 +79,15 @@ export async function queueFlagReevaluation(
 export async function queueClipAnalysis(
   uow: UnitOfWork,
   manager: EntityManager,
-  request: { clip: Clip; model: PoseModelName; createdById: string | null; now: Date; fromStart?: boolean },
+  request: {
+    clip: Clip;
+    model: PoseModelName;
+    createdById: string | null;
+    now: Date;
+    fromStart?: boolean;
+    /** Wait until then before starting (a browser analysing the clip holds it). */
+    notBefore?: Date;
+  },
 ): Promise<Job> {
   const jobs = uow.of(manager).jobs;
   const current = (await jobs.latestAnalyses([request.clip.id])).get(request.clip.id);
@@ -94,7 +102,11 @@ export async function queueClipAnalysis(
     kind: 'clip-analysis',
     clubId: request.clip.clubId,
     clipId: request.clip.id,
-    payload: request.fromStart ? { model: request.model, fromStart: true } : { model: request.model },
+    payload: {
+      model: request.model,
+      ...(request.fromStart ? { fromStart: true } : {}),
+      ...(request.notBefore ? { notBefore: request.notBefore.toISOString() } : {}),
+    },
     label: `Pose analysis of ${request.clip.originalName}`.slice(0, 200),
     status: 'queued',
     total: request.clip.frameCount ?? 0,

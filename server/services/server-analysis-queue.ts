@@ -42,6 +42,7 @@ export class ServerAnalysisQueue {
   private filling: Promise<void> | null = null;
   private again = false;
   private closing = false;
+  private wakeTimer: NodeJS.Timeout | null = null;
 
   constructor(
     dataSource: DataSource,
@@ -88,6 +89,7 @@ export class ServerAnalysisQueue {
   /** Stops the running analyses at once; their jobs stay unfinished and resume at the next start. */
   async close(): Promise<void> {
     this.closing = true;
+    if (this.wakeTimer) clearTimeout(this.wakeTimer);
     await this.filling;
     for (const r of this.running.values()) r.stop.abort();
     await Promise.all([...this.running.values()].map((r) => r.done));
@@ -96,15 +98,28 @@ export class ServerAnalysisQueue {
   private async fill(): Promise<void> {
     this.again = false;
     const waiting = await this.uow.repos.jobs.unfinished('clip-analysis');
+    const now = this.clock.now().getTime();
+    let nextHeld = Infinity;
     for (const job of waiting) {
-      if (this.closing || this.running.size >= this.options.workers) return;
+      if (this.closing || this.running.size >= this.options.workers) break;
       if (this.running.has(job.id)) continue;
+      // Held while a browser analyses the clip: look again when the hold ends.
+      const heldUntil = job.status === 'queued' && job.payload.notBefore ? Date.parse(job.payload.notBefore) : 0;
+      if (heldUntil > now) {
+        nextHeld = Math.min(nextHeld, heldUntil);
+        continue;
+      }
       const stop = new AbortController();
       const done = this.run(job, stop.signal).finally(() => {
         this.running.delete(job.id);
         this.resume();
       });
       this.running.set(job.id, { stop, done });
+    }
+    if (Number.isFinite(nextHeld) && !this.closing) {
+      if (this.wakeTimer) clearTimeout(this.wakeTimer);
+      this.wakeTimer = setTimeout(() => this.resume(), Math.max(50, nextHeld - now + 50));
+      this.wakeTimer.unref();
     }
   }
 

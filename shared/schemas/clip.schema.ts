@@ -182,6 +182,11 @@ export const serverAnalysisRequestSchema = z
       .optional(),
     /** Read every frame again (after a new pick, say); otherwise only frames not stored yet. */
     fromStart: z.boolean().optional(),
+    /**
+     * The coach's browser is analysing this clip from the uploaded file: the server waits while it
+     * posts frames and reads only what the browser leaves (allowed while the clip is still prepared).
+     */
+    holdForBrowser: z.boolean().optional(),
   })
   .strict();
 export type ServerAnalysisRequest = z.infer<typeof serverAnalysisRequestSchema>;

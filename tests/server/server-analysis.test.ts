@@ -6,7 +6,7 @@ import fs from 'node:fs/promises';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Keypoint } from '@shared/keypoints';
-import type { ClipDto } from '@shared/schemas/clip.schema';
+import type { ClipDto, ServerAnalysisResponse } from '@shared/schemas/clip.schema';
 import type { ClipFramesResponse } from '@shared/schemas/frames.schema';
 import { DEMO_CLIP_PLAN, DEMO_FOOTAGE_DIR, DEMO_KEYPOINTS_DIR } from '@server/seed/demo-clips';
 import { createTestServer, type TestServer } from '../helpers/server-harness';
@@ -17,7 +17,11 @@ let server: TestServer;
 let frontClip: ClipDto;
 
 beforeAll(async () => {
-  server = await createTestServer({ ANALYSIS_WORKERS: '1', AUTO_ANALYSIS: 'on' });
+  server = await createTestServer({
+    ANALYSIS_WORKERS: '1',
+    AUTO_ANALYSIS: 'on',
+    ANALYSIS_BROWSER_HOLD: '3s',
+  });
 }, 120_000);
 afterAll(async () => {
   await server?.close();
@@ -173,6 +177,90 @@ describe('analysis on the server', () => {
       total: side.frameCount,
     });
     expect(await server.count('frame_result')).toBe(before);
+  });
+});
+
+describe('a clip the coach’s browser is analysing', () => {
+  it(
+    'waits while the browser posts frames, then the server reads only the frames the browser left',
+    { timeout: 180_000 },
+    async () => {
+      const elsie = await server.athleteId('Elsie');
+      const [sessionId] = await server.sessionIds();
+      const uploaded = await uploadClip(server, path.join(DEMO_FOOTAGE_DIR, 'phantom-side-run.mp4'), {
+        sessionId,
+        athleteIds: elsie,
+        view: 'side',
+      });
+      // Right after the upload, while the clip is still prepared: the browser says it analyses it.
+      const hold = await server.http
+        .post(`/api/clips/${uploaded.id}/server-analysis`)
+        .set(await server.bearer('coach'))
+        .send({ holdForBrowser: true });
+      expect(hold.status).toBe(202);
+      expect((hold.body.clip as ClipDto).serverAnalysis).toMatchObject({ status: 'queued' });
+      const ready = await settled(server, uploaded.id);
+      await server.runtime.analyses.idle();
+      // Held: still queued, nothing read by the server.
+      expect(ready.serverAnalysis).toMatchObject({ status: 'queued' });
+
+      // The browser posts its first frames (the CLI's keypoints of the same file stand in for them).
+      const cli = await committed('phantom-side-run');
+      const posted = await server.http
+        .post(`/api/clips/${uploaded.id}/frames`)
+        .set(await server.bearer('coach'))
+        .send({
+          model: 'lightning',
+          frames: cli.frames
+            .slice(0, 20)
+            .map((f) => ({ frameIndex: f.frameIndex, timeMs: f.frameIndex * 40, keypoints: f.keypoints })),
+        });
+      expect(posted.status).toBe(200);
+      const [browserRow] = (await server.runtime.dataSource.query(
+        `SELECT updatedAt FROM frame_result WHERE clipId = ? AND model = 'lightning' AND frameIndex = 19`,
+        [uploaded.id],
+      )) as { updatedAt: string }[];
+      const [job] = (await server.runtime.dataSource.query(
+        `SELECT status, payload FROM job WHERE clipId = ? AND kind = 'clip-analysis'`,
+        [uploaded.id],
+      )) as { status: string; payload: string }[];
+      expect(job.status).toBe('queued');
+      expect(Date.parse((JSON.parse(job.payload) as { notBefore: string }).notBefore)).toBeGreaterThan(
+        Date.now() + 1500,
+      );
+
+      // The browser stops (tab closed); once the hold ends the server reads the rest.
+      const deadline = Date.now() + 60_000;
+      let status: ServerAnalysisResponse;
+      do {
+        await new Promise((r) => setTimeout(r, 250));
+        await server.runtime.analyses.idle();
+        status = (
+          await server.http.get(`/api/clips/${uploaded.id}/server-analysis`).set(await server.bearer('coach'))
+        ).body as ServerAnalysisResponse;
+      } while (status.serverAnalysis?.status !== 'done' && Date.now() < deadline);
+      expect(status).toMatchObject({ storedFrames: ready.frameCount, serverAnalysis: { status: 'done' } });
+      const [after] = (await server.runtime.dataSource.query(
+        `SELECT updatedAt FROM frame_result WHERE clipId = ? AND model = 'lightning' AND frameIndex = 19`,
+        [uploaded.id],
+      )) as { updatedAt: string }[];
+      // The browser's frames were kept as they were: the server started after them.
+      expect(after.updatedAt).toBe(browserRow.updatedAt);
+    },
+  );
+
+  it('a hold on a clip that could not be processed is refused (409)', async () => {
+    const clip = frontClip;
+    await server.runtime.dataSource.query(`UPDATE clip SET status = 'failed' WHERE id = ?`, [clip.id]);
+    try {
+      const res = await server.http
+        .post(`/api/clips/${clip.id}/server-analysis`)
+        .set(await server.bearer('coach'))
+        .send({ holdForBrowser: true });
+      expect(res.status).toBe(409);
+    } finally {
+      await server.runtime.dataSource.query(`UPDATE clip SET status = 'ready' WHERE id = ?`, [clip.id]);
+    }
   });
 });
 
