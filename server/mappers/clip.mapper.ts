@@ -35,6 +35,7 @@ export function toServerAnalysisDto(job: Job | null): ServerAnalysisDto | null {
     total: job.total,
     error: job.error,
     updatedAt: job.updatedAt.toISOString(),
+    heldUntil: job.status === 'queued' && job.payload.notBefore ? job.payload.notBefore : null,
   };
 }
 

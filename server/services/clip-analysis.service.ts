@@ -88,6 +88,8 @@ export class ClipAnalysisService {
           : 'This clip is still being prepared; it can be analysed once it is ready',
       );
     await this.uow.transaction(async (manager) => {
+      // Asked for now: a hold a browser put on the queued job ends.
+      await this.uow.of(manager).jobs.holdQueuedAnalysis(clip.id, this.clock.now());
       const job = await queueClipAnalysis(this.uow, manager, {
         clip,
         model: input.model ?? clip.defaultModel,

@@ -104,7 +104,8 @@ export class ServerAnalysisQueue {
       if (this.closing || this.running.size >= this.options.workers) break;
       if (this.running.has(job.id)) continue;
       // Held while a browser analyses the clip: look again when the hold ends.
-      const heldUntil = job.status === 'queued' && job.payload.notBefore ? Date.parse(job.payload.notBefore) : 0;
+      const heldUntil =
+        job.status === 'queued' && job.payload.notBefore ? Date.parse(job.payload.notBefore) : 0;
       if (heldUntil > now) {
         nextHeld = Math.min(nextHeld, heldUntil);
         continue;

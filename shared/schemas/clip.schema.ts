@@ -85,6 +85,8 @@ export interface ServerAnalysisDto {
   /** Why it failed, in words for the coach. */
   error: string | null;
   updatedAt: string;
+  /** Queued but held until then: a coach's browser is analysing the clip and posting its frames. */
+  heldUntil: string | null;
 }
 
 /** One JPEG sprite: tile i shows the frame at i * intervalMs, row-major, `columns` tiles a row. */

@@ -4,6 +4,7 @@ import { Wordmark } from '@/components/ui/logo';
 import { paths } from '@/config/paths';
 import { useMe } from '@/features/auth/api/get-me';
 import { useLogout } from '@/features/auth/api/logout';
+import { BackgroundIndicator } from '@/features/clip-workspace/background/background-status';
 import { useUser } from '@/lib/auth';
 import { cn } from '@/lib/format';
 import { landingPathFor, navFor, ROLE_LABELS } from '@/lib/permissions';
@@ -44,6 +45,7 @@ export function AppShell() {
             </ul>
           </nav>
           <div className="ml-auto flex items-center gap-4">
+            <BackgroundIndicator uploadHref={paths.upload.href()} />
             <div className="text-right leading-tight">
               <Link
                 to={paths.account.href()}

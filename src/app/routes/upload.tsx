@@ -1,4 +1,4 @@
-import { useMemo } from 'react';
+import { useMemo, useState } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
 import { useQueryClient } from '@tanstack/react-query';
 import { EmptyState } from '@/components/ui/empty-state';
@@ -15,6 +15,11 @@ import { FilmingCaution } from '@/features/sessions/components/filming-caution';
 import { disciplineLabel } from '@/features/sessions/components/session-labels';
 import type { AthleteOption } from '@/features/upload/components/athlete-picker';
 import { UploadWorkspace } from '@/features/upload/components/upload-workspace';
+import {
+  BackgroundClipStatus,
+  BackgroundQueueControls,
+} from '@/features/clip-workspace/background/background-status';
+import { backgroundAnalysis } from '@/features/clip-workspace/background/background-analysis';
 import { formatDay } from '@/lib/format';
 
 export function UploadPage() {
@@ -43,6 +48,7 @@ export function UploadPage() {
     [athletes.data],
   );
 
+  const [analyseHere, setAnalyseHere] = useAnalyseHere();
   const requested = params.get('session');
   const sessionId = requested ?? sessions.data?.[0]?.id ?? '';
 
@@ -87,10 +93,55 @@ export function UploadPage() {
               onSessionChange={(id) => setParams(id ? { session: id } : {}, { replace: true })}
               athletes={athleteOptions}
               onUploaded={onUploaded}
+              onClipUploaded={
+                analyseHere ? (clipId, file) => backgroundAnalysis.add(clipId, file) : undefined
+              }
+              renderClipStatus={(clipId) => <BackgroundClipStatus clipId={clipId} />}
+              analysisControls={
+                <div className="space-y-3">
+                  <label className="flex items-start gap-2 text-sm text-granite-800">
+                    <input
+                      type="checkbox"
+                      className="mt-0.5"
+                      checked={analyseHere}
+                      onChange={(event) => setAnalyseHere(event.target.checked)}
+                    />
+                    <span>
+                      Analyse the clips on this computer as they upload, from the files here (quicker; the
+                      server analyses whatever this computer leaves, also when the tab is closed).
+                    </span>
+                  </label>
+                  <BackgroundQueueControls />
+                </div>
+              }
             />
           )
         ) : null}
       </div>
     </>
   );
+}
+
+const ANALYSE_HERE_KEY = 'stanceline.upload.analyse-here';
+
+/** Whether uploads are analysed on this computer too; remembered per browser, on unless turned off. */
+function useAnalyseHere(): [boolean, (value: boolean) => void] {
+  const [value, setValue] = useState(() => {
+    try {
+      return window.localStorage.getItem(ANALYSE_HERE_KEY) !== 'off';
+    } catch {
+      return true;
+    }
+  });
+  return [
+    value,
+    (next) => {
+      setValue(next);
+      try {
+        window.localStorage.setItem(ANALYSE_HERE_KEY, next ? 'on' : 'off');
+      } catch {
+        // Private windows may refuse storage; the choice then lasts for this page.
+      }
+    },
+  ];
 }

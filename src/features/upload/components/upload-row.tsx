@@ -1,3 +1,4 @@
+import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import { FileVideo, RotateCcw, Trash2 } from 'lucide-react';
 import type { View } from '@shared/keypoints';
@@ -15,6 +16,8 @@ interface UploadRowProps {
   onChange: (patch: Partial<UploadItem>) => void;
   onRetry: () => void;
   onRemove: () => void;
+  /** The uploaded clip's analysis on this computer (from the app). */
+  clipStatus?: ReactNode;
 }
 
 function statusText(item: UploadItem): string {
@@ -32,7 +35,7 @@ function statusText(item: UploadItem): string {
   }
 }
 
-export function UploadRow({ item, athletes, onChange, onRetry, onRemove }: UploadRowProps) {
+export function UploadRow({ item, athletes, onChange, onRetry, onRemove, clipStatus }: UploadRowProps) {
   const name = item.file.name;
   const locked = item.status === 'uploading' || item.status === 'queued' || item.status === 'done';
   const progress = item.status === 'done' ? 1 : item.loaded / Math.max(1, item.total);
@@ -81,6 +84,7 @@ export function UploadRow({ item, athletes, onChange, onRetry, onRemove }: Uploa
           {item.error ?? statusText(item)}
         </p>
         {item.status === 'done' && item.clipId ? <UploadedClipProgress clipId={item.clipId} /> : null}
+        {clipStatus}
       </div>
       <div className="flex items-center justify-end gap-1">
         {item.status === 'done' && item.clipId ? (
@@ -124,7 +128,11 @@ function UploadedClipProgress({ clipId }: { clipId: string }) {
   else if (data.serverAnalysis?.status === 'running') {
     const { done, total } = data.serverAnalysis;
     text = `Analysing on the server ${total > 0 ? Math.round((done / total) * 100) : 0} %`;
-  } else if (data.serverAnalysis?.status === 'queued') text = 'Queued for analysis on the server';
+  } else if (data.serverAnalysis?.status === 'queued')
+    text =
+      data.serverAnalysis.heldUntil && Date.parse(data.serverAnalysis.heldUntil) > Date.now()
+        ? 'The server waits while this computer analyses it'
+        : 'Queued for analysis on the server';
   else if (data.serverAnalysis?.status === 'failed')
     text = `Analysis failed: ${data.serverAnalysis.error ?? 'open the clip to try again'}`;
   else if (data.frameCount !== null && data.storedFrames >= data.frameCount) text = 'Analysed';

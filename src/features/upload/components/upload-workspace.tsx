@@ -1,3 +1,4 @@
+import type { ReactNode } from 'react';
 import { X } from 'lucide-react';
 import { Button } from '@/components/ui/button';
 import { SelectField } from '@/components/ui/field';
@@ -18,6 +19,12 @@ interface UploadWorkspaceProps {
   onSessionChange: (id: string) => void;
   athletes: AthleteOption[];
   onUploaded: () => Promise<unknown>;
+  /** Each uploaded clip with its file (the app analyses it on this computer). */
+  onClipUploaded?: (clipId: string, file: File) => void;
+  /** Where an uploaded clip's analysis on this computer stands, shown in its row. */
+  renderClipStatus?: (clipId: string) => ReactNode;
+  /** Shown above the list: the analysis on this computer, its pause and resume. */
+  analysisControls?: ReactNode;
 }
 
 export function UploadWorkspace({
@@ -26,8 +33,11 @@ export function UploadWorkspace({
   onSessionChange,
   athletes,
   onUploaded,
+  onClipUploaded,
+  renderClipStatus,
+  analysisControls,
 }: UploadWorkspaceProps) {
-  const queue = useUploadQueue({ sessionId, onUploaded });
+  const queue = useUploadQueue({ sessionId, onUploaded, onClipUploaded });
   const pending = queue.items.filter((item) => item.status === 'waiting');
   const done = queue.items.filter((item) => item.status === 'done').length;
 
@@ -67,6 +77,8 @@ export function UploadWorkspace({
         </Notice>
       ))}
 
+      {analysisControls}
+
       {queue.items.length > 0 ? (
         <section aria-label="Clips to upload">
           <ul className="divide-y divide-granite-100 rounded-lg border border-granite-200 bg-white shadow-sm">
@@ -78,6 +90,7 @@ export function UploadWorkspace({
                 onChange={(patch) => queue.update(item.id, patch)}
                 onRetry={() => queue.enqueue([item.id])}
                 onRemove={() => queue.remove(item.id)}
+                clipStatus={item.clipId && renderClipStatus ? renderClipStatus(item.clipId) : null}
               />
             ))}
           </ul>

@@ -67,6 +67,8 @@ interface UseUploadQueueOptions {
   sessionId: string;
   defaultAthleteIds?: string[];
   onUploaded?: () => Promise<unknown> | void;
+  /** Told of each clip uploaded, with its file (to analyse it on this computer). */
+  onClipUploaded?: (clipId: string, file: File) => void;
 }
 
 const NO_ATHLETES: string[] = [];
@@ -75,13 +77,16 @@ export function useUploadQueue({
   sessionId,
   defaultAthleteIds = NO_ATHLETES,
   onUploaded,
+  onClipUploaded,
 }: UseUploadQueueOptions) {
   const [state, dispatch] = useReducer(uploadQueueReducer, { items: [], rejected: [] });
   const controllers = useRef(new Map<string, AbortController>());
   const onUploadedRef = useRef(onUploaded);
+  const onClipUploadedRef = useRef(onClipUploaded);
   useEffect(() => {
     onUploadedRef.current = onUploaded;
-  }, [onUploaded]);
+    onClipUploadedRef.current = onClipUploaded;
+  }, [onUploaded, onClipUploaded]);
 
   const addFiles = useCallback(
     (files: Iterable<File>) => {
@@ -151,6 +156,7 @@ export function useUploadQueue({
       )
         .then(async (response) => {
           update(item.id, { status: 'done', loaded: item.file.size, clipId: response.clip.id });
+          onClipUploadedRef.current?.(response.clip.id, item.file);
           await onUploadedRef.current?.();
         })
         .catch((error: unknown) => {

@@ -151,8 +151,9 @@ function ServerAnalysisStatus(props: { canEdit: boolean; complete: boolean; loca
     <div className="mt-3 space-y-2" data-testid="server-analysis">
       {current?.status === 'queued' ? (
         <p role="status" className="text-sm text-granite-700">
-          Queued for analysis on the server with {name}. It runs in the background: you can leave this page,
-          the curves appear here when it is done.
+          {current.heldUntil && Date.parse(current.heldUntil) > Date.now()
+            ? `A coach's computer is analysing this clip from the uploaded file; the server waits and reads whatever is left.`
+            : `Queued for analysis on the server with ${name}. It runs in the background: you can leave this page, the curves appear here when it is done.`}
         </p>
       ) : null}
       {current?.status === 'running' ? (

@@ -1,4 +1,4 @@
-import { ALL_FORMATS, Input, UrlSource, VideoSampleSink, type VideoSample } from 'mediabunny';
+import { ALL_FORMATS, BlobSource, Input, UrlSource, VideoSampleSink, type VideoSample } from 'mediabunny';
 import type { FrameSource } from './frame-grabber';
 
 /** WebCodecs cannot read this file here (no VideoDecoder, no decoder for its codec, or a rotated track). */
@@ -24,14 +24,18 @@ export class DecodedFrameSource implements FrameSource {
   /** Index of the frame the sample iterator yields next. */
   private nextIndex = 0;
 
-  constructor(private readonly src: string) {}
+  /** The clip's media address, or the file itself (a clip just uploaded from this computer). */
+  constructor(private readonly src: string | Blob) {}
 
   async open(signal: AbortSignal): Promise<void> {
     if (typeof VideoDecoder === 'undefined')
       throw new WebCodecsUnavailableError('this browser has no WebCodecs');
     const input = new Input({
       // A file that cannot be read fails at once instead of being retried.
-      source: new UrlSource(new URL(this.src, window.location.href), { getRetryDelay: () => null }),
+      source:
+        typeof this.src === 'string'
+          ? new UrlSource(new URL(this.src, window.location.href), { getRetryDelay: () => null })
+          : new BlobSource(this.src),
       formats: ALL_FORMATS,
     });
     this.input = input;
