@@ -15,7 +15,7 @@ import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { parseArgs } from 'node:util';
 import * as tf from '@tensorflow/tfjs-core';
-import { POSE_MODELS, type PoseModelName } from '@shared/keypoints';
+import { POSE_MODELS } from '@shared/keypoints';
 import { loadModel } from '@shared/pose/pose-detector';
 import { analyzeSeries, type SeriesFrameInput } from '@shared/series';
 import { analyzeMediaFile } from '@server/pose/analyze-media';
