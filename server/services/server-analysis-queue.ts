@@ -43,6 +43,7 @@ export class ServerAnalysisQueue {
   private again = false;
   private closing = false;
   private wakeTimer: NodeJS.Timeout | null = null;
+  private swept = false;
 
   constructor(
     dataSource: DataSource,
@@ -97,6 +98,11 @@ export class ServerAnalysisQueue {
 
   private async fill(): Promise<void> {
     this.again = false;
+    if (!this.swept) {
+      // Scratch copies a stopped process left: nothing of this queue runs yet.
+      this.swept = true;
+      if (this.running.size === 0) await fs.rm(this.options.workDir, { recursive: true, force: true });
+    }
     const waiting = await this.uow.repos.jobs.unfinished('clip-analysis');
     const now = this.clock.now().getTime();
     let nextHeld = Infinity;
