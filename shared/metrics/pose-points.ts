@@ -36,7 +36,15 @@ export class PosePoints {
   }
 
   has(name: KeypointName): boolean {
-    return this.problem(name) === null;
+    // The same test as problem(), without building its message (asked for every point of every frame).
+    const k = this.byName.get(name);
+    return (
+      k !== undefined &&
+      Number.isFinite(k.x) &&
+      Number.isFinite(k.y) &&
+      Number.isFinite(k.score) &&
+      k.score >= this.floor
+    );
   }
 
   record(name: KeypointName): PointRecord {
