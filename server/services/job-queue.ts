@@ -4,6 +4,7 @@ import type { JobDto } from '@shared/schemas/tolerance.schema';
 import type { PoseModelName } from '@shared/keypoints';
 import type { Clip } from '../entities/clip.entity';
 import type { Job } from '../entities/job.entity';
+import type { JobRepository } from '../repositories/job.repository';
 import { UnitOfWork } from '../repositories/unit-of-work';
 
 export function toJobDto(job: Job): JobDto {
@@ -50,23 +51,38 @@ export async function queueFlagReevaluation(
     await jobs.update(waiting.id, patch);
     return { ...waiting, ...patch };
   }
-  const job: Job = {
-    id: randomUUID(),
+  return insertQueuedJob(jobs, {
     kind: 'flag-reevaluation',
     clubId: request.clubId,
     clipId: null,
     payload: { ageGroupIds: request.ageGroupIds },
-    label: request.label.slice(0, 200),
-    status: 'queued',
+    label: request.label,
     total: 0,
+    createdById: request.createdById,
+    now: request.now,
+  });
+}
+
+/** Stores a new job waiting to start (nothing done, no cursor); the label is cut to its column. */
+async function insertQueuedJob(
+  jobs: JobRepository,
+  fields: Pick<Job, 'kind' | 'clubId' | 'clipId' | 'payload' | 'label' | 'total' | 'createdById'> & {
+    now: Date;
+  },
+): Promise<Job> {
+  const { now, ...rest } = fields;
+  const job: Job = {
+    ...rest,
+    id: randomUUID(),
+    label: fields.label.slice(0, 200),
+    status: 'queued',
     done: 0,
     cursor: null,
     error: null,
-    createdById: request.createdById,
-    createdAt: request.now,
+    createdAt: now,
     startedAt: null,
     finishedAt: null,
-    updatedAt: request.now,
+    updatedAt: now,
   };
   await jobs.insert(job);
   return job;
@@ -97,8 +113,7 @@ export async function queueClipAnalysis(
     (current.status === 'queued' || current.status === 'running')
   )
     return current;
-  const job: Job = {
-    id: randomUUID(),
+  return insertQueuedJob(jobs, {
     kind: 'clip-analysis',
     clubId: request.clip.clubId,
     clipId: request.clip.id,
@@ -107,20 +122,11 @@ export async function queueClipAnalysis(
       ...(request.fromStart ? { fromStart: true } : {}),
       ...(request.notBefore ? { notBefore: request.notBefore.toISOString() } : {}),
     },
-    label: `Pose analysis of ${request.clip.originalName}`.slice(0, 200),
-    status: 'queued',
+    label: `Pose analysis of ${request.clip.originalName}`,
     total: request.clip.frameCount ?? 0,
-    done: 0,
-    cursor: null,
-    error: null,
     createdById: request.createdById,
-    createdAt: request.now,
-    startedAt: null,
-    finishedAt: null,
-    updatedAt: request.now,
-  };
-  await jobs.insert(job);
-  return job;
+    now: request.now,
+  });
 }
 
 /** Queues the server analysis of a clip that just became ready, with its default model. */

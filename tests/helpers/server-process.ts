@@ -62,3 +62,14 @@ export async function signInOver(base: string, email: string): Promise<Record<st
   const { accessToken } = (await login.json()) as { accessToken: string };
   return { Authorization: `Bearer ${accessToken}`, 'Content-Type': 'application/json' };
 }
+
+/** Polls `probe` every 100 ms until it gives a value (not null, not a throw); fails after `seconds`. */
+export async function waitFor<T>(what: string, probe: () => Promise<T | null>, seconds = 90): Promise<T> {
+  const deadline = Date.now() + seconds * 1000;
+  for (;;) {
+    const value = await probe().catch(() => null);
+    if (value !== null) return value;
+    if (Date.now() > deadline) throw new Error(`gave up waiting for ${what}`);
+    await new Promise((r) => setTimeout(r, 100));
+  }
+}

@@ -6,7 +6,7 @@ import Database from 'better-sqlite3';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { ClipDto, ServerAnalysisDto } from '@shared/schemas/clip.schema';
 import { startStanceline } from '@server/start';
-import { signInOver, startServerProcess } from '../helpers/server-process';
+import { signInOver, startServerProcess, waitFor } from '../helpers/server-process';
 
 // A clip analysed on the server is a durable job: a server killed in the middle of it goes on after
 // the last stored batch at its next start; each frame is read and stored once.
@@ -21,16 +21,6 @@ afterAll(async () => {
   child?.kill('SIGKILL');
   await fs.rm(dataDir, { recursive: true, force: true });
 });
-
-async function waitFor<T>(what: string, probe: () => Promise<T | null>, seconds = 120): Promise<T> {
-  const deadline = Date.now() + seconds * 1000;
-  for (;;) {
-    const value = await probe().catch(() => null);
-    if (value !== null) return value;
-    if (Date.now() > deadline) throw new Error(`gave up waiting for ${what}`);
-    await new Promise((r) => setTimeout(r, 100));
-  }
-}
 
 interface FrameRow {
   frameIndex: number;

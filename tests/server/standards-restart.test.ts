@@ -5,7 +5,7 @@ import path from 'node:path';
 import Database from 'better-sqlite3';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startStanceline } from '@server/start';
-import { signInOver, startServerProcess } from '../helpers/server-process';
+import { signInOver, startServerProcess, waitFor } from '../helpers/server-process';
 
 // A band change's re-check is a durable job: a server killed in the middle of it goes on after the
 // last finished step at its next start, and no flag is stored twice.
@@ -20,16 +20,6 @@ afterAll(async () => {
   child?.kill('SIGKILL');
   await fs.rm(dataDir, { recursive: true, force: true });
 });
-
-async function waitFor<T>(what: string, probe: () => Promise<T | null>, seconds = 90): Promise<T> {
-  const deadline = Date.now() + seconds * 1000;
-  for (;;) {
-    const value = await probe().catch(() => null);
-    if (value !== null) return value;
-    if (Date.now() > deadline) throw new Error(`gave up waiting for ${what}`);
-    await new Promise((r) => setTimeout(r, 100));
-  }
-}
 
 interface JobView {
   status: string;
