@@ -12,7 +12,7 @@ import { join } from 'node:path';
 import { parseArgs } from 'node:util';
 import type { Page } from 'playwright-core';
 import { encodeClip, frontTurnsClip } from '../../fixtures/phantom/phantom-clip';
-import { DEMO_PASSWORD, signIn, startDemoApp } from '../e2e/browser';
+import { bearerFor, signIn, startDemoApp } from '../e2e/browser';
 import { writeDocSection } from '../pose/doc-section';
 
 const { values } = parseArgs({
@@ -40,12 +40,7 @@ const COACH = 'coach@larchwood.example';
 const rows: string[] = [];
 try {
   // Upload the clip as the coach, through the API, and wait until it is ready.
-  const login = await fetch(`${demo.app.url}/api/auth/login`, {
-    method: 'POST',
-    headers: { 'content-type': 'application/json' },
-    body: JSON.stringify({ email: COACH, password: DEMO_PASSWORD }),
-  });
-  const auth = { authorization: `Bearer ${((await login.json()) as { accessToken: string }).accessToken}` };
+  const auth = await bearerFor(demo.app.url, COACH);
   const sessions = (await (await fetch(`${demo.app.url}/api/sessions`, { headers: auth })).json()) as {
     sessions: { id: string }[];
   };

@@ -11,7 +11,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { ClipResponse, ServerAnalysisResponse } from '@shared/schemas/clip.schema';
 import type { ClipFramesResponse } from '@shared/schemas/frames.schema';
 import type { StartedStanceline } from '@server/start';
-import { DEMO_PASSWORD, screenshotPath, signIn, startDemoApp, type DemoApp } from './browser';
+import { getAs, screenshotPath, signIn, startDemoApp, type DemoApp } from './browser';
 
 const COACH = 'coach@larchwood.example';
 const SIDE = 'phantom-side-run';
@@ -36,17 +36,7 @@ afterAll(async () => {
   await demo?.close();
 });
 
-async function api<T>(path: string): Promise<T> {
-  const login = await fetch(`${app.url}/api/auth/login`, {
-    method: 'POST',
-    headers: { 'content-type': 'application/json' },
-    body: JSON.stringify({ email: COACH, password: DEMO_PASSWORD }),
-  });
-  const { accessToken } = (await login.json()) as { accessToken: string };
-  return (await (
-    await fetch(`${app.url}${path}`, { headers: { authorization: `Bearer ${accessToken}` } })
-  ).json()) as T;
-}
+const api = <T>(path: string) => getAs<T>(app.url, COACH, path);
 
 describe('analysis on this computer after an upload', () => {
   it(

@@ -76,6 +76,24 @@ export async function startDemoApp(name: string, env: Record<string, string> = {
 export const DEMO_PASSWORD = 'stanceline-demo';
 
 /** Fills and sends the sign-in form already on the page (after a redirect to it, say). */
+/** An Authorization header for a demo user, signed in over the API. */
+export async function bearerFor(baseUrl: string, email: string): Promise<{ authorization: string }> {
+  const login = await fetch(`${baseUrl}/api/auth/login`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify({ email, password: DEMO_PASSWORD }),
+  });
+  const { accessToken } = (await login.json()) as { accessToken: string };
+  return { authorization: `Bearer ${accessToken}` };
+}
+
+/** GET a JSON API path as a demo user. */
+export async function getAs<T>(baseUrl: string, email: string, path: string): Promise<T> {
+  const res = await fetch(`${baseUrl}${path}`, { headers: await bearerFor(baseUrl, email) });
+  if (!res.ok) throw new Error(`GET ${path}: ${res.status}`);
+  return (await res.json()) as T;
+}
+
 export async function fillSignIn(page: Page, email: string, password = DEMO_PASSWORD): Promise<void> {
   await page.getByLabel('Email').fill(email);
   await page.getByLabel('Password').fill(password);

@@ -9,7 +9,7 @@ import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { ClipFramesResponse } from '@shared/schemas/frames.schema';
 import type { StartedStanceline } from '@server/start';
-import { DEMO_PASSWORD, signIn, startDemoApp, type DemoApp } from './browser';
+import { getAs, signIn, startDemoApp, type DemoApp } from './browser';
 
 const COACH = 'coach@larchwood.example';
 const SIDE = 'phantom-side-run';
@@ -30,16 +30,8 @@ afterAll(async () => {
 });
 
 async function storedFrames(clipId: string): Promise<ClipFramesResponse['frames']> {
-  const login = await fetch(`${app.url}/api/auth/login`, {
-    method: 'POST',
-    headers: { 'content-type': 'application/json' },
-    body: JSON.stringify({ email: COACH, password: DEMO_PASSWORD }),
-  });
-  const { accessToken } = (await login.json()) as { accessToken: string };
-  const res = await fetch(`${app.url}/api/clips/${clipId}/frames?model=lightning`, {
-    headers: { authorization: `Bearer ${accessToken}` },
-  });
-  return ((await res.json()) as ClipFramesResponse).frames;
+  return (await getAs<ClipFramesResponse>(app.url, COACH, `/api/clips/${clipId}/frames?model=lightning`))
+    .frames;
 }
 
 /** Runs "Analyze whole clip" on the open clip; returns the decoder it reported and the seconds taken. */

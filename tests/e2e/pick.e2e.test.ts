@@ -9,7 +9,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { ClipResponse } from '@shared/schemas/clip.schema';
 import type { ClipFramesResponse } from '@shared/schemas/frames.schema';
 import type { StartedStanceline } from '@server/start';
-import { DEMO_PASSWORD, screenshotPath, signIn, startDemoApp, type DemoApp } from './browser';
+import { getAs, screenshotPath, signIn, startDemoApp, type DemoApp } from './browser';
 
 const COACH = 'coach@larchwood.example';
 const FRONT = 'phantom-front-turns';
@@ -76,15 +76,7 @@ describe('picking the athlete', () => {
 
       // Stored with the clip, in the clip's own pixels, where the coach clicked.
       const clipId = /\/clips\/([0-9a-f-]+)/.exec(page.url())![1];
-      const login = await fetch(`${app.url}/api/auth/login`, {
-        method: 'POST',
-        headers: { 'content-type': 'application/json' },
-        body: JSON.stringify({ email: COACH, password: DEMO_PASSWORD }),
-      });
-      const { accessToken } = (await login.json()) as { accessToken: string };
-      const stored = (await (
-        await fetch(`${app.url}/api/clips/${clipId}`, { headers: { authorization: `Bearer ${accessToken}` } })
-      ).json()) as ClipResponse;
+      const stored = await getAs<ClipResponse>(app.url, COACH, `/api/clips/${clipId}`);
       expect(stored.clip.athletePick?.frameIndex).toBe(0);
       expect(
         Math.hypot(stored.clip.athletePick!.x - hips[0], stored.clip.athletePick!.y - hips[1]),
@@ -93,11 +85,11 @@ describe('picking the athlete', () => {
       // The whole-clip run starts at the pick and follows the skier through every frame.
       await page.getByRole('button', { name: 'Analyze whole clip' }).click();
       await page.getByTestId('analysis-finished').waitFor({ timeout: 300_000 });
-      const frames = (await (
-        await fetch(`${app.url}/api/clips/${clipId}/frames?model=lightning`, {
-          headers: { authorization: `Bearer ${accessToken}` },
-        })
-      ).json()) as ClipFramesResponse;
+      const frames = await getAs<ClipFramesResponse>(
+        app.url,
+        COACH,
+        `/api/clips/${clipId}/frames?model=lightning`,
+      );
       expect(frames.frames.length).toBe(truth.frames.length);
       let onSkier = 0;
       for (const f of frames.frames) {

@@ -150,14 +150,7 @@ function crossingSpecs(i: number): [PhantomFrameSpec, PhantomFrameSpec] {
   ];
 }
 async function crossingPng(i: number): Promise<Buffer> {
-  const group = renderPhantomGroup(crossingSpecs(i));
-  const { createCanvas } = await import('@napi-rs/canvas');
-  const canvas = createCanvas(group.width, group.height);
-  const ctx = canvas.getContext('2d');
-  const image = ctx.createImageData(group.width, group.height);
-  image.data.set(group.rgba);
-  ctx.putImageData(image, 0, 0);
-  return canvas.encode('png');
+  return renderPhantomGroup(crossingSpecs(i)).png();
 }
 const BEHIND: PhantomFrameSpec = {
   pose: { view: 'front', facing: 'away', inclination: 18, angulation: 5 },

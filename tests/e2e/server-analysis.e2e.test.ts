@@ -7,7 +7,7 @@ import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { StartedStanceline } from '@server/start';
 import type { ClipDto } from '@shared/schemas/clip.schema';
-import { DEMO_PASSWORD, screenshotPath, signIn, startDemoApp, type DemoApp } from './browser';
+import { getAs, screenshotPath, signIn, startDemoApp, type DemoApp } from './browser';
 
 const COACH = 'coach@larchwood.example';
 
@@ -25,14 +25,7 @@ afterAll(async () => {
 
 /** The demo clip seeded for the server to analyse (the one whose clip reports a server analysis). */
 async function clipLeftForServer(): Promise<string> {
-  const login = await fetch(`${app.url}/api/auth/login`, {
-    method: 'POST',
-    headers: { 'Content-Type': 'application/json' },
-    body: JSON.stringify({ email: COACH, password: DEMO_PASSWORD }),
-  });
-  const { accessToken } = (await login.json()) as { accessToken: string };
-  const res = await fetch(`${app.url}/api/clips`, { headers: { Authorization: `Bearer ${accessToken}` } });
-  const { clips } = (await res.json()) as { clips: ClipDto[] };
+  const { clips } = await getAs<{ clips: ClipDto[] }>(app.url, COACH, '/api/clips');
   const clip = clips.find((c) => c.serverAnalysis && c.athletes.some((a) => a.name === 'Finn Marrow'));
   expect(clip, 'the demo clip left for the server').toBeDefined();
   return clip!.id;

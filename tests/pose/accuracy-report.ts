@@ -14,6 +14,7 @@ import { phantomSet } from '../../fixtures/phantom/phantom-set';
 import { renderPhantom, type PhantomFrameSpec } from '../../fixtures/phantom/render-phantom';
 import {
   BODY_JOINTS,
+  detectStill,
   evaluateFrame,
   pooledErrors,
   quantile,
@@ -70,21 +71,15 @@ async function runModel(model: PoseModelName, refineColdStart = true): Promise<M
   let swapped = 0;
   for (const [i, spec] of specs.entries()) {
     const frame = renderPhantom(spec);
-    detector.reset();
-    const found = await detector.detect({
-      data: frame.rgba,
-      width: frame.width,
-      height: frame.height,
-      channels: 4,
-    });
-    const evaluation = evaluateFrame(found.keypoints, frame.truth);
+    const keypoints = await detectStill(detector, frame);
+    const evaluation = evaluateFrame(keypoints, frame.truth);
     const group = groupOf(spec);
     if (!byGroup.has(group)) byGroup.set(group, []);
     byGroup.get(group)!.push(evaluation);
     if (group !== 'front (from behind)' && spec.skierHeight / spec.height < 0.35) small.push(evaluation);
-    if (group === 'front (from behind)' && found.keypoints.length > 0) {
+    if (group === 'front (from behind)' && keypoints.length > 0) {
       // Left/right swapped: the detected left hip is nearer the true right hip than the true left.
-      const hip = found.keypoints.find((k) => k.name === 'left_hip');
+      const hip = keypoints.find((k) => k.name === 'left_hip');
       const t = frame.truth.joints;
       if (
         hip &&

@@ -10,6 +10,7 @@ import { orientKeypoints } from '@shared/pose/keypoint-mapping';
 import { createNodePoseDetector } from '@server/pose/node-detector';
 import { phantomSet } from '../../fixtures/phantom/phantom-set';
 import { renderPhantom, type PhantomFrameSpec } from '../../fixtures/phantom/render-phantom';
+import { detectStill } from './phantom-eval';
 import { METRIC_TOLERANCE } from './tolerances';
 
 const spec = (facing: SkierFacing, inclination: number): PhantomFrameSpec => ({
@@ -77,14 +78,8 @@ describe('a skier filmed from behind', () => {
       try {
         for (const s of front) {
           const frame = renderPhantom(s);
-          detector.reset();
-          const found = await detector.detect({
-            data: frame.rgba,
-            width: frame.width,
-            height: frame.height,
-            channels: 4,
-          });
-          byFacing[s.pose.facing as SkierFacing].push(found.keypoints);
+          const keypoints = await detectStill(detector, frame);
+          byFacing[s.pose.facing as SkierFacing].push(keypoints);
         }
       } finally {
         detector.dispose();

@@ -12,7 +12,7 @@ import { computeFrameMetrics } from '@shared/metrics';
 import { createNodePoseDetector } from '@server/pose/node-detector';
 import { phantomSet } from '../../fixtures/phantom/phantom-set';
 import { renderPhantom } from '../../fixtures/phantom/render-phantom';
-import { evaluateFrame, pooledErrors, quantile, type FrameEvaluation } from './phantom-eval';
+import { detectStill, evaluateFrame, pooledErrors, quantile, type FrameEvaluation } from './phantom-eval';
 
 export interface FlipRun {
   raw: FrameEvaluation[];
@@ -49,16 +49,13 @@ export async function flipRun(model: PoseModelName, count: number, seed: number)
   try {
     for (const spec of specs) {
       const frame = renderPhantom(spec);
-      const image = { data: frame.rgba, width: frame.width, height: frame.height, channels: 4 as const };
-      detector.reset();
-      const raw = await detector.detect(image);
-      detector.reset();
-      const flipped = await detector.detect(image, { flipAverage: true });
-      run.raw.push(evaluateFrame(raw.keypoints, frame.truth));
-      run.flipped.push(evaluateFrame(flipped.keypoints, frame.truth));
+      const raw = await detectStill(detector, frame);
+      const flipped = await detectStill(detector, frame, { flipAverage: true });
+      run.raw.push(evaluateFrame(raw, frame.truth));
+      run.flipped.push(evaluateFrame(flipped, frame.truth));
       if (spec.pose.view === 'side') {
-        run.kneeRaw.push(...knees(raw.keypoints, frame.truth.referenceLine, frame.truth.metrics));
-        run.kneeFlipped.push(...knees(flipped.keypoints, frame.truth.referenceLine, frame.truth.metrics));
+        run.kneeRaw.push(...knees(raw, frame.truth.referenceLine, frame.truth.metrics));
+        run.kneeFlipped.push(...knees(flipped, frame.truth.referenceLine, frame.truth.metrics));
       }
     }
   } finally {

@@ -3,7 +3,8 @@
 
 import type { Keypoint, PoseModelName } from '@shared/keypoints';
 import { computeFrameMetrics, type MetricKey } from '@shared/metrics';
-import type { PhantomTruth } from '../../fixtures/phantom/render-phantom';
+import type { DetectOptions, PoseDetector } from '@shared/pose/pose-detector';
+import type { PhantomTruth, RenderedPhantom } from '../../fixtures/phantom/render-phantom';
 
 /** The joints every model gives and the metrics depend on. */
 export const BODY_JOINTS = [
@@ -114,4 +115,18 @@ export function pooledErrors(evals: FrameEvaluation[]): { median: number; p90: n
     p90: quantile(errors, 0.9),
     found: evals.filter((e) => e.found).length / Math.max(1, evals.length),
   };
+}
+
+/** One phantom still read as a fresh image (tracking state forgotten first); its keypoints. */
+export async function detectStill(
+  detector: PoseDetector,
+  frame: Pick<RenderedPhantom, 'rgba' | 'width' | 'height'>,
+  options?: DetectOptions,
+): Promise<Keypoint[]> {
+  detector.reset();
+  const found = await detector.detect(
+    { data: frame.rgba, width: frame.width, height: frame.height, channels: 4 },
+    options,
+  );
+  return found.keypoints;
 }

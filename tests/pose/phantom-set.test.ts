@@ -6,7 +6,7 @@ import { createNodePoseDetector } from '@server/pose/node-detector';
 import { phantomSet } from '../../fixtures/phantom/phantom-set';
 import { renderPhantom } from '../../fixtures/phantom/render-phantom';
 import { swapLeftRight } from '@shared/pose/keypoint-mapping';
-import { evaluateFrame, pooledErrors, type FrameEvaluation } from './phantom-eval';
+import { detectStill, evaluateFrame, pooledErrors, type FrameEvaluation } from './phantom-eval';
 import { SET_LIMITS } from './tolerances';
 
 // Same seed and size range as tests/pose/accuracy-report.ts, so the sample is the report's first frames.
@@ -22,14 +22,8 @@ describe.each(POSE_MODELS)('%s over the phantom set sample', (model) => {
     try {
       for (const spec of specs) {
         const frame = renderPhantom(spec);
-        detector.reset();
-        const found = await detector.detect({
-          data: frame.rgba,
-          width: frame.width,
-          height: frame.height,
-          channels: 4,
-        });
-        evals.push(evaluateFrame(found.keypoints, frame.truth));
+        const keypoints = await detectStill(detector, frame);
+        evals.push(evaluateFrame(keypoints, frame.truth));
       }
     } finally {
       detector.dispose();
@@ -53,15 +47,9 @@ describe('frames filmed from behind', () => {
     try {
       for (const spec of behind) {
         const frame = renderPhantom(spec);
-        detector.reset();
-        const found = await detector.detect({
-          data: frame.rgba,
-          width: frame.width,
-          height: frame.height,
-          channels: 4,
-        });
-        raw.push(evaluateFrame(found.keypoints, frame.truth));
-        swapped.push(evaluateFrame(swapLeftRight(found.keypoints), frame.truth));
+        const keypoints = await detectStill(detector, frame);
+        raw.push(evaluateFrame(keypoints, frame.truth));
+        swapped.push(evaluateFrame(swapLeftRight(keypoints), frame.truth));
       }
     } finally {
       detector.dispose();

@@ -13,7 +13,7 @@ import type { PoseModelName } from '@shared/keypoints';
 import { createNodePoseDetector } from '@server/pose/node-detector';
 import { phantomSet } from '../../fixtures/phantom/phantom-set';
 import { renderPhantom } from '../../fixtures/phantom/render-phantom';
-import { evaluateFrame, pooledErrors, type FrameEvaluation } from './phantom-eval';
+import { detectStill, evaluateFrame, pooledErrors, type FrameEvaluation } from './phantom-eval';
 
 export const SWEEP_SIZES = [0.1, 0.15, 0.2, 0.3, 0.45, 0.6, 0.8] as const;
 
@@ -39,14 +39,8 @@ export async function sweepModel(
       const evals: FrameEvaluation[] = [];
       for (const spec of sweepSpecs(size, perSize, seed)) {
         const frame = renderPhantom(spec);
-        detector.reset();
-        const found = await detector.detect({
-          data: frame.rgba,
-          width: frame.width,
-          height: frame.height,
-          channels: 4,
-        });
-        evals.push(evaluateFrame(found.keypoints, frame.truth));
+        const keypoints = await detectStill(detector, frame);
+        evals.push(evaluateFrame(keypoints, frame.truth));
       }
       out.set(size, evals);
     }
