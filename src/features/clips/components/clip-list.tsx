@@ -42,11 +42,14 @@ export function ClipList({ clips, emptyTitle = 'No clips yet', emptyText }: Clip
             </span>
             <span className="flex shrink-0 items-center gap-2">
               {clip.status === 'ready' ? (
-                <AnalysisBadge
-                  storedFrames={clip.analysis?.frameCount ?? 0}
-                  frameCount={clip.frameCount}
-                  serverAnalysis={clip.serverAnalysis}
-                />
+                // On a phone held upright the clip's name needs the width more than its analysis state.
+                <span className="hidden sm:inline-flex">
+                  <AnalysisBadge
+                    storedFrames={clip.analysis?.frameCount ?? 0}
+                    frameCount={clip.frameCount}
+                    serverAnalysis={clip.serverAnalysis}
+                  />
+                </span>
               ) : (
                 <ClipStatusBadge status={clip.status} />
               )}
