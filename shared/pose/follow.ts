@@ -19,6 +19,10 @@ const MIN_MEAN_SCORE = 0.35;
 const MAX_JUMP = 0.9;
 /** The outline growing or shrinking by more than this factor between read frames: someone else. */
 const MAX_SCALE_CHANGE = 1.8;
+/** Starting from points several frames away, the margin grows by at most this many margins more. */
+const MAX_GAP_WIDEN = 2;
+/** Known points further than this many frames from the frame to read are too old to look around. */
+export const MAX_FOLLOW_GAP = 10;
 /** Side of the square boxes tried around a pick, as shares of the frame height. */
 const PICK_SIZES = [0.3, 0.5, 0.75, 1.0] as const;
 
@@ -123,6 +127,8 @@ export type ReadRegion = (region: PixelBox) => Promise<Keypoint[]>;
 export class AthleteFollower {
   private outline: PixelBox | null = null;
   private lostFrames = 0;
+  /** Frames between the outline's frame and the next one read (more than 1 after `start` from afar). */
+  private framesApart = 1;
 
   constructor(private readonly frame: { width: number; height: number }) {}
 
@@ -130,10 +136,15 @@ export class AthleteFollower {
     return this.outline !== null;
   }
 
-  /** Starts from known points; false when they do not outline a figure. */
-  start(keypoints: readonly Keypoint[]): boolean {
+  /**
+   * Starts from known points (a stored or already read frame); false when they do not outline a figure.
+   * `framesApart` is how far that frame is from the next one read: the box grows by a quarter of the
+   * margin per frame apart (up to MAX_GAP_WIDEN margins more), and the allowed jump with it.
+   */
+  start(keypoints: readonly Keypoint[], framesApart = 1): boolean {
     this.outline = outlineOf(keypoints);
     this.lostFrames = 0;
+    this.framesApart = Math.max(1, Math.round(framesApart));
     return this.outline !== null;
   }
 
@@ -165,9 +176,12 @@ export class AthleteFollower {
   /** Reads the next frame inside the box around the athlete. */
   async next(read: ReadRegion): Promise<FollowResult> {
     if (!this.outline) throw new Error('pick the athlete first');
-    const region = followBox(this.outline, this.frame, FOLLOW_MARGIN * (1 + this.lostFrames));
+    // A few frames apart the athlete moves a little; a wider box would take in people around them.
+    const widen = this.lostFrames + Math.min(MAX_GAP_WIDEN, (this.framesApart - 1) / 4);
+    const region = followBox(this.outline, this.frame, FOLLOW_MARGIN * (1 + widen));
     const keypoints = await read(region);
-    const judged = judgeFollow(this.outline, keypoints, this.lostFrames + 1);
+    const judged = judgeFollow(this.outline, keypoints, this.lostFrames + this.framesApart);
+    this.framesApart = 1;
     if (judged.state === 'following' && judged.outline) {
       this.outline = judged.outline;
       this.lostFrames = 0;

@@ -26,9 +26,12 @@ export interface PoseFrameRequest {
   facing?: SkierFacing;
   /**
    * Follow one athlete among several people: `pick` finds them at a point of this frame (source
-   * pixels) and starts following; `next` reads this frame around where they were in the last one.
+   * pixels) and starts following; `next` reads this frame around where they were in the last one;
+   * `near` reads it around where they were in a frame already known (stored or read), `framesApart`
+   * from this one (source pixels; the box grows with the distance).
    */
-  follow?: { pick: PickPoint } | { next: true } | null;
+  follow?:
+    { pick: PickPoint } | { next: true } | { near: { keypoints: Keypoint[]; framesApart: number } } | null;
   /** A still image rather than a clip frame: tracking reset before it, no temporal smoothing. */
   still?: boolean;
 }

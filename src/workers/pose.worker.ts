@@ -129,6 +129,14 @@ async function handleDetect(message: Extract<WorkerRequest, { type: 'detect' }>)
         const s = pixels.width / sourceWidth;
         result = await follower.pick({ x: req.follow.pick.x * s, y: req.follow.pick.y * s }, read);
         if (!follower.following) follower = null;
+      } else if ('near' in req.follow) {
+        // A one-off read around a known frame's athlete; the clip run's follower is left as it is.
+        const near = new AthleteFollower(size);
+        const s = pixels.width / sourceWidth;
+        const known = req.follow.near.keypoints.map((k) => ({ ...k, x: k.x * s, y: k.y * s }));
+        result = near.start(known, req.follow.near.framesApart)
+          ? await near.next(read)
+          : { keypoints: [], state: 'lost' as const, reason: 'the known frame does not outline the athlete' };
       } else if (follower) {
         result = await follower.next(read);
       } else {

@@ -1,6 +1,7 @@
 // Picking the athlete in the clip workspace, in headless Chromium, on the invented demo club's front
 // clip (fixtures/phantom/demo): the coach clicks "Pick the athlete", then on the skier's hips at
-// frame 0; the pick is stored where they clicked, the whole-clip run follows the skier from there
+// frame 0; the pick is stored where they clicked, with a model not yet run on the clip the next frame
+// is read around the skier found there (the last, far from any read frame, in the whole picture, and says so), the whole-clip run follows the skier from there
 // through every frame, and "Forget" goes back to whoever the model finds.
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
@@ -73,6 +74,20 @@ describe('picking the athlete', () => {
         .poll(async () => (await inclination.textContent()) ?? '', { timeout: 60_000 })
         .toMatch(/-?\d+\.\d°/);
       await page.screenshot({ path: screenshotPath('pick-athlete'), fullPage: true });
+
+      // With a model that has no stored analysis of this clip, the pick's frame is read at the pick,
+      // and the next frame around the athlete as found there.
+      await readouts.getByRole('combobox', { name: 'Pose model' }).selectOption('thunder');
+      await readouts.getByText('at the athlete you picked').waitFor({ timeout: 60_000 });
+      await page.getByRole('button', { name: 'Next frame' }).click();
+      await readouts.getByText('around the athlete as found in frame 0').waitFor({ timeout: 60_000 });
+      // The last frame is far from any read frame: read in the whole picture, and the readout says so.
+      await page.keyboard.press('End');
+      await readouts.getByText(/Read in the whole picture, so another person may be measured/).waitFor({
+        timeout: 60_000,
+      });
+      await readouts.getByRole('combobox', { name: 'Pose model' }).selectOption('lightning');
+      await page.keyboard.press('Home');
 
       // Stored with the clip, in the clip's own pixels, where the coach clicked.
       const clipId = /\/clips\/([0-9a-f-]+)/.exec(page.url())![1];

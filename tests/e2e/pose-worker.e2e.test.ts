@@ -9,7 +9,7 @@ import { fileURLToPath } from 'node:url';
 import type { Browser, Page } from 'playwright-core';
 import { build } from 'vite';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { PoseModelName } from '@shared/keypoints';
+import type { Keypoint, PoseModelName } from '@shared/keypoints';
 import { computeFrameMetrics } from '@shared/metrics';
 import { createNodePoseDetector } from '@server/pose/node-detector';
 import type { PoseFrameRequest, PoseFrameResult } from '@/lib/pose-client';
@@ -275,6 +275,31 @@ describe('pose worker in headless Chromium', () => {
         expect(evaluateFrame(inBrowser.keypoints, picked).jointError.left_hip!, `frame ${i}`).toBeLessThan(
           0.2,
         );
+      }
+
+      // A live read away from any followed run starts from a known frame's points (a stored frame's,
+      // here the picked skier's true points a frame earlier) and reads around them: the picked
+      // skier is measured, not the one crossing.
+      for (let i = 1; i < CROSSING_FRAMES; i++) {
+        const earlier = renderPhantomGroup(crossingSpecs(i - 1)).truths[1];
+        const known = Object.entries(earlier.joints).map(([name, [x, y]]) => ({ name, x, y, score: 0.9 }));
+        await page.evaluate(() =>
+          (window as unknown as { poseHarness: { reset(): Promise<void> } }).poseHarness.reset(),
+        );
+        const near = await detectIn(page, `/frames/crossing-${i}.png`, {
+          frameIndex: i,
+          timeMs: i * 40,
+          model: 'lightning',
+          view: 'front',
+          still: true,
+          follow: { near: { keypoints: known as Keypoint[], framesApart: 1 } },
+        });
+        expect(near.followed?.state, `frame ${i}: ${near.followed?.reason}`).toBe('following');
+        const picked = renderPhantomGroup(crossingSpecs(i)).truths[1];
+        expect(
+          evaluateFrame(near.keypoints, picked).jointError.left_hip!,
+          `near read, frame ${i}`,
+        ).toBeLessThan(0.2);
       }
 
       // Filmed from behind: the worker swaps to the skier's own sides exactly as orientKeypoints does in Node.

@@ -129,4 +129,32 @@ describe('following the picked athlete', () => {
       detector.dispose();
     }
   }, 120_000);
+
+  it('starts from a known frame a few frames away with a box grown for the time between', async () => {
+    // Ten points outlining a 100 px figure; the read gives them back a little lower each frame.
+    const figure = (dy: number): Keypoint[] =>
+      Array.from({ length: 10 }, (_, i) => ({
+        name: 'nose' as const,
+        x: 500 + (i % 2) * 100,
+        y: 200 + dy + (i / 9) * 100,
+        score: 0.9,
+      }));
+    const sides: number[] = [];
+    const read = (dy: number) => async (region: { width: number }) => {
+      sides.push(region.width);
+      return figure(dy);
+    };
+    const frame = { width: 1920, height: 1080 };
+    for (const apart of [1, 5, 9, 50]) {
+      const follower = new AthleteFollower(frame);
+      expect(follower.start(figure(0), apart)).toBe(true);
+      expect((await follower.next(read(5))).state).toBe('following');
+      // The next frame is read from one frame apart again.
+      await follower.next(read(10));
+    }
+    // Margin 0.35 of the side each way, grown by a quarter per frame apart, at most three times.
+    expect(sides.map(Math.round)).toEqual([170, 170, 240, 170, 310, 170, 310, 170]);
+    // Known points that outline no one start nothing.
+    expect(new AthleteFollower(frame).start(figure(0).slice(0, 3), 2)).toBe(false);
+  });
 });

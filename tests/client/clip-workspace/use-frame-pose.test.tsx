@@ -7,7 +7,7 @@ import type { Keypoint } from '@shared/keypoints';
 import { ToastProvider } from '@/components/ui/toast';
 import { ClipStageProvider } from '@/features/clip-workspace/components/stage/clip-stage';
 import { useStageProbe } from '../helpers/stage-probe';
-import { useFramePose } from '@/features/clip-workspace/hooks/use-frame-pose';
+import { closestKnown, useFramePose } from '@/features/clip-workspace/hooks/use-frame-pose';
 import { configureApiClient } from '@/lib/api-client';
 import { createQueryClient } from '@/lib/react-query';
 import { clipFixture } from '../helpers/demo-data';
@@ -47,6 +47,7 @@ function Probe() {
     <div>
       <video ref={ws.setVideoElement} data-testid="video" />
       <output data-testid="origin">{ws.currentPose?.origin ?? 'none'}</output>
+      <output data-testid="read">{JSON.stringify(ws.currentPose?.liveRead ?? null)}</output>
       <output data-testid="shoulders">{ws.currentPose?.keypoints.map((k) => k.x).join(',') ?? ''}</output>
     </div>
   );
@@ -58,11 +59,11 @@ function framesResponse(frames: unknown[]) {
   );
 }
 
-async function renderReady() {
+async function renderReady(onClip = clip) {
   render(
     <QueryClientProvider client={createQueryClient()}>
       <ToastProvider>
-        <ClipStageProvider clip={clip} renewMedia={() => Promise.resolve(null)} readOnly={false}>
+        <ClipStageProvider clip={onClip} renewMedia={() => Promise.resolve(null)} readOnly={false}>
           <Probe />
         </ClipStageProvider>
       </ToastProvider>
@@ -134,5 +135,77 @@ describe('pose of the frame on screen', () => {
     });
     // Each paused frame is read afresh, whatever was detected before it.
     expect(reset).toHaveBeenCalledTimes(1);
+  });
+
+  describe('with a picked athlete', () => {
+    const picked = { ...clip, athletePick: { frameIndex: 40, x: 320, y: 200 } };
+    const body = [point('left_shoulder', 130), point('right_shoulder', 70)];
+    const stored = (frameIndex: number) => ({
+      frameIndex,
+      timeMs: frameIndex * 40,
+      keypoints: body,
+      metrics: {},
+      reasons: {},
+      corrected: false,
+    });
+    beforeEach(() => {
+      detect.mockImplementation((_bitmap, req: { frameIndex: number }) =>
+        Promise.resolve({
+          frameIndex: req.frameIndex,
+          timeMs: 0,
+          keypoints: body,
+          width: 640,
+          height: 360,
+          followed: { state: 'following', reason: null },
+        }),
+      );
+    });
+
+    it('reads a frame without stored points around the athlete of the closest stored frame', async () => {
+      api.use(framesResponse([stored(3), stored(9)]));
+      await renderReady(picked);
+      await waitFor(() => expect(screen.getByTestId('origin').textContent).toBe('live'));
+      expect(detect.mock.calls[0][1].follow).toEqual({ near: { keypoints: body, framesApart: 3 } });
+      expect(JSON.parse(screen.getByTestId('read').textContent!)).toEqual({
+        how: 'followed',
+        fromFrame: 3,
+        lost: null,
+      });
+    });
+
+    it('says the whole picture was read when no frame near this one is known', async () => {
+      api.use(framesResponse([stored(30)]));
+      await renderReady(picked);
+      await waitFor(() => expect(screen.getByTestId('origin').textContent).toBe('live'));
+      expect(detect.mock.calls[0][1].follow).toBeNull();
+      expect(JSON.parse(screen.getByTestId('read').textContent!)).toEqual({
+        how: 'whole-frame',
+        pickFrame: 40,
+      });
+    });
+  });
+
+  it('finds the closest known frame within the follow gap, the earlier on a tie', () => {
+    const known =
+      (frames: number[], empty: number[] = []) =>
+      (f: number) =>
+        frames.includes(f)
+          ? {
+              frameIndex: f,
+              timeMs: 0,
+              model: 'lightning' as const,
+              keypoints: empty.includes(f) ? [] : [point('nose', 1)],
+              width: 1,
+              height: 1,
+              origin: 'stored' as const,
+              correctedPoints: [],
+            }
+          : undefined;
+    expect(closestKnown(50, known([47, 53]))?.frameIndex).toBe(47);
+    expect(closestKnown(50, known([44, 52]))?.frameIndex).toBe(52);
+    // A frame where the athlete was not found is no place to start from.
+    expect(closestKnown(50, known([49, 55], [49]))?.frameIndex).toBe(55);
+    expect(closestKnown(50, known([61, 39]))).toBeNull();
+    expect(closestKnown(2, known([0]))?.frameIndex).toBe(0);
   });
 });

@@ -1,8 +1,14 @@
 import { useEffect, useMemo, useRef, useState } from 'react';
+import { MAX_FOLLOW_GAP } from '@shared/pose/follow';
 import { errorMessage } from '@/lib/api-client';
 import { getPoseClient } from '@/lib/pose-client';
 import { useClipFrames } from '../api/get-clip-frames';
-import { correctionKey, useAnalysis, type FrameKeypoints } from '../components/stage/analysis-context';
+import {
+  correctionKey,
+  useAnalysis,
+  type FrameKeypoints,
+  type LiveRead,
+} from '../components/stage/analysis-context';
 import { useStage, useStageClock } from '../components/stage/stage-context';
 import { frameStartMs } from '../lib/frame-time';
 import { handPlacedPoints } from '../lib/point-correction';
@@ -97,6 +103,10 @@ export function useFramePose() {
       return;
     }
 
+    const knownAt = (frame: number): FrameKeypoints | undefined => {
+      const k = correctionKey(model, frame);
+      return corrections.get(k) ?? storedByFrame.get(frame) ?? liveCache.current.get(k);
+    };
     inFlight.current = true;
     const frameIndex = currentFrame;
     setPoseStatus({ state: 'detecting', frameIndex });
@@ -105,6 +115,16 @@ export function useFramePose() {
         // Grab the pixels first: the bitmap is of the frame displayed now.
         const bitmap = await createImageBitmap(video);
         const client = getPoseClient();
+        // With a picked athlete, every frame is read around them: at the pick on its frame, else around
+        // where they were in the closest frame already known (stored, corrected or read here).
+        const near = pick && pick.frameIndex !== frameIndex ? closestKnown(frameIndex, knownAt) : null;
+        const liveRead: LiveRead | undefined = !pick
+          ? undefined
+          : pick.frameIndex === frameIndex
+            ? { how: 'pick', lost: null }
+            : near
+              ? { how: 'followed', fromFrame: near.frameIndex, lost: null }
+              : { how: 'whole-frame', pickFrame: pick.frameIndex };
         // Each paused frame is read afresh (whole-frame search, then a refined look at the skier), so
         // a frame shows the same numbers however the coach arrived at it.
         await client.reset();
@@ -115,7 +135,17 @@ export function useFramePose() {
           view,
           facing,
           // On the frame where the coach picked the athlete, read them there and not whoever else.
-          follow: pick && pick.frameIndex === frameIndex ? { pick: { x: pick.x, y: pick.y } } : null,
+          follow:
+            pick && pick.frameIndex === frameIndex
+              ? { pick: { x: pick.x, y: pick.y } }
+              : near
+                ? {
+                    near: {
+                      keypoints: near.keypoints,
+                      framesApart: Math.abs(frameIndex - near.frameIndex),
+                    },
+                  }
+                : null,
           // No temporal smoothing: it would blend in the frames stepped through before this one.
           still: true,
         });
@@ -128,6 +158,10 @@ export function useFramePose() {
           height: result.height,
           origin: 'live',
           correctedPoints: [],
+          liveRead:
+            liveRead && liveRead.how !== 'whole-frame'
+              ? { ...liveRead, lost: result.followed?.state === 'lost' ? result.followed.reason : null }
+              : liveRead,
         };
         liveCache.current.set(correctionKey(model, frameIndex), entry);
         if (id !== request.current) return;
@@ -167,4 +201,21 @@ export function useFramePose() {
   ]);
 
   return { storedCount: storedByFrame.size, storedError: stored.error };
+}
+
+/**
+ * The known frame with the athlete's points closest to `frameIndex` (within MAX_FOLLOW_GAP frames, the
+ * earlier one on a tie); null when none is close enough.
+ */
+export function closestKnown(
+  frameIndex: number,
+  knownAt: (frame: number) => FrameKeypoints | undefined,
+): FrameKeypoints | null {
+  for (let gap = 1; gap <= MAX_FOLLOW_GAP; gap++) {
+    for (const frame of [frameIndex - gap, frameIndex + gap]) {
+      const known = frame >= 0 ? knownAt(frame) : undefined;
+      if (known && known.keypoints.length > 0) return known;
+    }
+  }
+  return null;
 }

@@ -54,11 +54,24 @@ function StatusLine({ pose, status }: { pose: PoseFrameResult | null; status: Po
     );
   }
   if (!pose) return <p className="text-xs text-granite-600">Pause or step to measure the frame on screen.</p>;
+  const read = pose.origin === 'live' ? pose.liveRead : undefined;
+  const lost = read && read.how !== 'whole-frame' ? read.lost : null;
   return (
-    <p className="text-xs text-granite-600">
-      Frame <span className="font-mono tabular-nums">{pose.frameIndex}</span>, {ORIGIN_TEXT[pose.origin]}
-      {pose.keypoints.length === 0 ? ': no skier found' : null}
-    </p>
+    <div className="space-y-0.5 text-xs text-granite-600" data-live-read={read?.how}>
+      <p>
+        Frame <span className="font-mono tabular-nums">{pose.frameIndex}</span>, {ORIGIN_TEXT[pose.origin]}
+        {read?.how === 'pick' ? ' at the athlete you picked' : null}
+        {read?.how === 'followed' ? ` around the athlete as found in frame ${read.fromFrame}` : null}
+        {pose.keypoints.length === 0 ? `: ${lost ?? 'no skier found'}` : null}
+      </p>
+      {read?.how === 'whole-frame' ? (
+        <p className="text-signal-700">
+          Read in the whole picture, so another person may be measured: no frame near this one is read yet.
+          Step here from the picked frame ({read.pickFrame}) or analyse the whole clip to follow the athlete.
+        </p>
+      ) : null}
+      {lost ? <p>Step back to a frame where the athlete is found, or pick them again.</p> : null}
+    </div>
   );
 }
 

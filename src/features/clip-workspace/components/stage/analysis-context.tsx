@@ -27,7 +27,19 @@ export interface FrameKeypoints {
   origin: PoseOrigin;
   /** Points the coach moved by hand; drawn differently from detected points. */
   correctedPoints: readonly KeypointName[];
+  /** Live reads only: where the picked athlete was looked for, and why they were not found. */
+  liveRead?: LiveRead;
 }
+
+/**
+ * Where a live read looked for the athlete when the coach has picked one: at the pick (its frame),
+ * around the athlete of a known frame close by, or in the whole picture (no known frame close enough,
+ * so someone else may be measured). `lost` says why the athlete was not found in the box.
+ */
+export type LiveRead =
+  | { how: 'pick'; lost: string | null }
+  | { how: 'followed'; fromFrame: number; lost: string | null }
+  | { how: 'whole-frame'; pickFrame: number };
 
 /**
  * The pose of the frame on screen with its metrics, recomputed in the browser from the keypoints with
