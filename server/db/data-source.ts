@@ -42,6 +42,7 @@ import { Reviews1796290000000 } from '../migrations/1796290000000-reviews';
 import { ConsentLifecycle1796300000000 } from '../migrations/1796300000000-consent-lifecycle';
 import { ClipFacing1796300000001 } from '../migrations/1796300000001-clip-facing';
 import { ClipAnalysisJobs1796310000000 } from '../migrations/1796310000000-clip-analysis-jobs';
+import { CarefulReading1796320000000 } from '../migrations/1796320000000-careful-reading';
 import { ConsentEventEntity } from '../entities/consent-event.entity';
 
 export const ALL_ENTITIES = [
@@ -92,6 +93,7 @@ export const ALL_MIGRATIONS = [
   ConsentLifecycle1796300000000,
   ClipFacing1796300000001,
   ClipAnalysisJobs1796310000000,
+  CarefulReading1796320000000,
 ];
 
 /** SQLite through better-sqlite3: WAL journal, foreign keys on (the driver always enables them), no synchronize. */

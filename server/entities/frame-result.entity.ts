@@ -16,6 +16,8 @@ export interface FrameResult {
   reasons: Record<string, string>;
   /** True when a coach moved keypoints by hand. */
   corrected: boolean;
+  /** True when the frame was read carefully: with its mirror image, averaged (docs/accuracy.md). */
+  careful: boolean;
   createdAt: Date;
   updatedAt: Date;
 }
@@ -33,6 +35,7 @@ export const FrameResultEntity = new EntitySchema<FrameResult>({
     metrics: { type: 'simple-json' },
     reasons: { type: 'simple-json', default: '{}' },
     corrected: { type: 'boolean', default: false },
+    careful: { type: 'boolean', default: false },
     createdAt: timestampColumn,
     updatedAt: timestampColumn,
   },

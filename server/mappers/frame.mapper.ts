@@ -12,6 +12,7 @@ export function toFrameDto(row: FrameResult): FrameResultDto {
     metrics: row.metrics as Record<MetricKey, number | null>,
     reasons: row.reasons as Partial<Record<MetricKey, string>>,
     corrected: row.corrected,
+    careful: row.careful,
   };
 }
 

@@ -99,6 +99,7 @@ export class FrameStore {
           metrics: m.metrics,
           reasons: m.reasons as Record<string, string>,
           corrected: frame.corrected ?? false,
+          careful: batch.careful ?? false,
           createdAt: prior?.createdAt ?? now,
           updatedAt: now,
         };
@@ -179,6 +180,8 @@ export class FrameStore {
           metrics: m.metrics,
           reasons: m.reasons as Record<string, string>,
           corrected: true,
+          // A hand correction keeps the record of how the rest of the frame was read.
+          careful: prior?.careful ?? false,
           createdAt: prior?.createdAt ?? now,
           updatedAt: now,
         };

@@ -48,8 +48,9 @@ export interface DetectOptions {
    */
   region?: PixelBox | null;
   /**
-   * Stills only: read the frame and its mirror image, swap the mirror's left and right back, and
-   * average each point weighted by score (test-time flipping; docs/accuracy.md). Twice the passes.
+   * Careful reading: read the frame (or the region) and its mirror image, swap the mirror's left and
+   * right back, and average each point weighted by score (test-time flipping; docs/accuracy.md). Twice
+   * the passes; on a whole frame each read starts afresh (no tracking state kept between frames).
    */
   flipAverage?: boolean;
 }
@@ -191,21 +192,36 @@ export async function createPoseDetector(options: PoseDetectorOptions): Promise<
     return poses[0];
   }
 
-  /** One fresh pass on the crop `box` of `tensor`, keypoints moved back to the whole image. */
-  async function detectIn(tensor: tfc.Tensor3D, box: PixelBox): Promise<poseDetection.Pose | undefined> {
+  /**
+   * One fresh pass on the crop `box` of `tensor`, keypoints moved back to the whole image. `mirrored`
+   * reads the crop's mirror image instead, its points put back where they are in the unmirrored crop
+   * (their left and right labels are the mirror's: the caller swaps them).
+   */
+  async function detectIn(
+    tensor: tfc.Tensor3D,
+    box: PixelBox,
+    mirrored = false,
+  ): Promise<poseDetection.Pose | undefined> {
     const [height, width] = tensor.shape;
     const x0 = Math.max(0, Math.min(width - 1, Math.floor(box.x)));
     const y0 = Math.max(0, Math.min(height - 1, Math.floor(box.y)));
     const x1 = Math.max(x0 + 1, Math.min(width, Math.ceil(box.x + box.width)));
     const y1 = Math.max(y0 + 1, Math.min(height, Math.ceil(box.y + box.height)));
-    const crop = tf.slice(tensor, [y0, x0, 0], [y1 - y0, x1 - x0, 3]);
+    const crop = tf.tidy(() => {
+      const part = tf.slice(tensor, [y0, x0, 0], [y1 - y0, x1 - x0, 3]);
+      return mirrored ? (tf.reverse(part, 1) as tfc.Tensor3D) : part;
+    });
     try {
       inner.reset();
       const pose = await estimate(crop, null);
       inner.reset();
       cold = true;
       if (!pose) return undefined;
-      return { ...pose, keypoints: pose.keypoints.map((k) => ({ ...k, x: k.x + x0, y: k.y + y0 })) };
+      const side = x1 - x0;
+      return {
+        ...pose,
+        keypoints: pose.keypoints.map((k) => ({ ...k, x: (mirrored ? side - k.x : k.x) + x0, y: k.y + y0 })),
+      };
     } finally {
       crop.dispose();
     }
@@ -220,13 +236,19 @@ export async function createPoseDetector(options: PoseDetectorOptions): Promise<
     if (opts.region) {
       try {
         const pose = await detectIn(tensor, opts.region);
-        const keypoints = pose ? mapKeypoints(pose.keypoints) : [];
+        let keypoints = pose ? mapKeypoints(pose.keypoints) : [];
+        if (opts.flipAverage && keypoints.length > 0) {
+          const flipped = await detectIn(tensor, opts.region, true);
+          passes += 1;
+          if (flipped && flipped.keypoints.length > 0)
+            keypoints = averageKeypoints(keypoints, swapLeftRight(mapKeypoints(flipped.keypoints)));
+        }
         return {
           keypoints,
           score: keypoints.length > 0 ? (pose?.score ?? null) : null,
           width,
           height,
-          timings: { detectMs: now() - start, passes: 1 },
+          timings: { detectMs: now() - start, passes: passes + 1 },
         };
       } finally {
         if (owned) tensor.dispose();

@@ -69,6 +69,8 @@ export const frameUploadSchema = z.object({
 export const frameBatchSchema = z
   .object({
     model: poseModelSchema,
+    /** The frames were read carefully (with their mirror images, averaged). */
+    careful: z.boolean({ message: 'careful is true or false' }).optional(),
     frames: z
       .array(frameUploadSchema)
       .min(1, 'Send at least one frame')
@@ -110,6 +112,8 @@ export interface FrameResultDto {
   metrics: Record<MetricKey, number | null>;
   reasons: Partial<Record<MetricKey, string>>;
   corrected: boolean;
+  /** Read carefully: the frame and its mirror image, averaged (docs/accuracy.md). */
+  careful: boolean;
 }
 
 export interface ClipSeriesDto {

@@ -60,6 +60,7 @@ export async function startBenchFixture(framesPerClip: number, fps: number): Pro
         metrics: measured[i].metrics,
         reasons: measured[i].reasons as Record<string, string>,
         corrected: false,
+        careful: false,
         createdAt: now,
         updatedAt: now,
       }));

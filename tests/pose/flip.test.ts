@@ -2,8 +2,12 @@
 // read, swapped back and averaged in, is never worse than the library's read on a phantom sample, and
 // the averaging itself weights each point by its score.
 import { describe, expect, it } from 'vitest';
+import { followBox } from '@shared/pose/follow';
 import { averageKeypoints } from '@shared/pose/pose-detector';
-import { pooledErrors } from './phantom-eval';
+import { createNodePoseDetector } from '@server/pose/node-detector';
+import { renderPhantom } from '../../fixtures/phantom/render-phantom';
+import { evaluateFrame, pooledErrors } from './phantom-eval';
+import { JOINT_TOLERANCE } from './tolerances';
 import { flipRun } from './flip-eval';
 
 describe('test-time flipping', () => {
@@ -28,4 +32,48 @@ describe('test-time flipping', () => {
     expect(flipped.median).toBeLessThanOrEqual(raw.median * 1.02);
     expect(flipped.p90).toBeLessThanOrEqual(raw.p90 * 1.02);
   }, 180_000);
+
+  it('reads a followed region and its mirror, the skier’s sides kept (careful reading of a picked athlete)', async () => {
+    // A skier facing the camera leaning hard to one side, so left and right joints are far apart.
+    const frame = renderPhantom({
+      pose: { view: 'front', facing: 'toward', inclination: 20, angulation: 8, kneeFlexion: 45 },
+      width: 960,
+      height: 540,
+      skierHeight: 240,
+      origin: [360, 470],
+    });
+    const xs = Object.values(frame.truth.joints).map(([x]) => x);
+    const ys = Object.values(frame.truth.joints).map(([, y]) => y);
+    const outline = {
+      x: Math.min(...xs),
+      y: Math.min(...ys),
+      width: Math.max(...xs) - Math.min(...xs),
+      height: Math.max(...ys) - Math.min(...ys),
+    };
+    const region = followBox(outline, frame);
+    const detector = await createNodePoseDetector('lightning');
+    try {
+      const image = { data: frame.rgba, width: frame.width, height: frame.height, channels: 4 as const };
+      const once = await detector.detect(image, { region });
+      const careful = await detector.detect(image, { region, flipAverage: true });
+      expect(once.timings.passes).toBe(1);
+      expect(careful.timings.passes).toBe(2);
+      const error = evaluateFrame(careful.keypoints, frame.truth).jointError;
+      for (const joint of [
+        'left_knee',
+        'right_knee',
+        'left_ankle',
+        'right_ankle',
+        'left_hip',
+        'right_hip',
+      ] as const)
+        expect(error[joint]!, joint).toBeLessThan(JOINT_TOLERANCE[joint]);
+      // Averaging with an unswapped mirror would pull both knees to the middle of the two.
+      const knee = (name: string) => careful.keypoints.find((k) => k.name === name)!;
+      const [left, right] = [frame.truth.joints.left_knee, frame.truth.joints.right_knee];
+      expect(Math.abs(knee('left_knee').x - left[0])).toBeLessThan(Math.abs(knee('left_knee').x - right[0]));
+    } finally {
+      detector.dispose();
+    }
+  }, 60_000);
 });

@@ -116,6 +116,11 @@ describe('POST /api/clips/:id/frames validation', () => {
       'frames.0.keypoints.0.name',
     ],
     ['an unknown model', { model: 'posenet', frames: [good] }, 'model'],
+    [
+      'a careful flag that is not true or false',
+      { model: 'lightning', careful: 'yes', frames: [good] },
+      'careful',
+    ],
     ['no frames', { model: 'lightning', frames: [] }, 'frames'],
     [
       'more than 500 frames',
@@ -518,5 +523,32 @@ describe('whole clip: series, turns and transition flags', () => {
       .set(await server.bearer('analyst'))
       .send({ model: 'thunder', frames: frames.slice(0, 1) });
     expect(analyst.status).toBe(403);
+  });
+});
+
+describe('careful reading', () => {
+  it('records frames read carefully, and a hand correction keeps that record', async () => {
+    const res = await postFrames(front.id, {
+      model: 'lightning',
+      careful: true,
+      frames: [{ frameIndex: 7, timeMs: 280, keypoints: LEVEL }],
+    });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    const frame = (n: number) => readFrames(front.id).then((r) => r.frames.find((f) => f.frameIndex === n)!);
+    expect(await frame(7)).toMatchObject({ careful: true, corrected: false });
+    expect((await frame(5)).careful).toBe(false);
+    await server.http
+      .put(`/api/clips/${front.id}/frames/7`)
+      .set(await coach())
+      .send({ model: 'lightning', keypoints: LEVEL })
+      .expect(200);
+    expect(await frame(7)).toMatchObject({ careful: true, corrected: true });
+    // Level shoulders: no flags to disturb the stretches the other tests read.
+    // Read again at the usual pace, a frame says so.
+    await postFrames(front.id, {
+      model: 'lightning',
+      frames: [{ frameIndex: 8, timeMs: 320, keypoints: LEVEL }],
+    });
+    expect((await frame(8)).careful).toBe(false);
   });
 });
