@@ -1,4 +1,4 @@
-// npm run -s analyze -- [--model lightning|thunder|blazepose] [--view front|side] [--facing toward|away] [--pick X,Y[@FRAME]] [--every N] [--json] FILE...
+// npm run -s analyze -- [--model lightning|thunder|blazepose] [--view front|side] [--facing toward|away] [--pick X,Y[@FRAME]] [--careful] [--every N] [--json] FILE...
 import { readFile } from 'node:fs/promises';
 import { extname } from 'node:path';
 import { parseArgs } from 'node:util';
@@ -16,13 +16,15 @@ import { KeypointFileError, parseKeypointFile } from './keypoint-file';
 import { loadMediaModule } from './media-input';
 import { reportFrame, toJsonLine, toTable, type FrameReport } from './frame-report';
 
-const USAGE = `usage: npm run -s analyze -- [--model lightning|thunder|blazepose] [--view front|side] [--facing toward|away] [--pick X,Y[@FRAME]] [--every N] [--json] FILE...
+const USAGE = `usage: npm run -s analyze -- [--model lightning|thunder|blazepose] [--view front|side] [--facing toward|away] [--pick X,Y[@FRAME]] [--careful] [--every N] [--json] FILE...
   .json files hold keypoints ({"keypoints": [{"name","x","y","score"}], ...} or a list of such frames);
   images and videos go through the pose pipeline.
   --facing away: a front view filmed from behind; left and right are swapped to the skier's own, as
   the app does for a clip marked "filmed from behind".
   --pick X,Y[@FRAME]: follow the athlete at pixel X,Y of frame FRAME (default 0) when others are in
-  the frame, as the app does after the coach clicks on them; earlier frames are skipped.`;
+  the frame, as the app does after the coach clicks on them; earlier frames are skipped.
+  --careful: read each frame (or the followed athlete's box) with its mirror image too and average
+  the two, as the app's "Careful reading" does; two to four times as long.`;
 
 class UsageError extends Error {}
 
@@ -31,6 +33,7 @@ interface Options {
   view: View | null;
   facing: SkierFacing;
   pick: { x: number; y: number; frame: number } | null;
+  careful: boolean;
   every: number;
   json: boolean;
   files: string[];
@@ -49,6 +52,7 @@ function parseOptions(argv: string[]): Options | 'help' {
         facing: { type: 'string' },
         pick: { type: 'string' },
         every: { type: 'string' },
+        careful: { type: 'boolean', default: false },
         json: { type: 'boolean', default: false },
         help: { type: 'boolean', short: 'h', default: false },
       },
@@ -76,13 +80,26 @@ function parseOptions(argv: string[]): Options | 'help' {
   if (!Number.isInteger(every) || every < 1)
     throw new UsageError('--every must be a whole number of at least 1');
   if (positionals.length === 0) throw new UsageError('no input files');
-  return { model, view, facing, pick, every, json: values.json ?? false, files: positionals };
+  return {
+    model,
+    view,
+    facing,
+    pick,
+    careful: values.careful ?? false,
+    every,
+    json: values.json ?? false,
+    files: positionals,
+  };
 }
 
 async function* framesOf(file: string, options: Options): AsyncGenerator<FrameReport> {
   if (extname(file).toLowerCase() === '.json') {
     if (options.pick)
       throw new KeypointFileError('--pick reads images and videos; a keypoint file holds its points already');
+    if (options.careful)
+      throw new KeypointFileError(
+        '--careful reads images and videos; a keypoint file holds its points already',
+      );
     let text: string;
     try {
       text = await readFile(file, 'utf8');
@@ -111,6 +128,7 @@ async function* framesOf(file: string, options: Options): AsyncGenerator<FrameRe
       model: options.model,
       every: options.every,
       pick: options.pick,
+      careful: options.careful,
       onProgress: progress,
     })) {
       yield reportFrame({

@@ -25,6 +25,8 @@ export interface JobPayload {
   fromStart?: boolean;
   /** clip-analysis: not before this time (ISO); a browser analysing the clip keeps pushing it on. */
   notBefore?: string;
+  /** clip-analysis: read each frame with its mirror image too. */
+  careful?: boolean;
 }
 
 export interface Job {

@@ -36,6 +36,7 @@ export function toServerAnalysisDto(job: Job | null): ServerAnalysisDto | null {
     error: job.error,
     updatedAt: job.updatedAt.toISOString(),
     heldUntil: job.status === 'queued' && job.payload.notBefore ? job.payload.notBefore : null,
+    careful: job.payload.careful ?? false,
   };
 }
 

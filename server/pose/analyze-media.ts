@@ -1,6 +1,6 @@
 // Images and videos -> keypoints, frame by frame, for the analyze CLI and tests.
 // Contract (server/cli/analyze.ts imports this lazily):
-//   analyzeMediaFile(path, { model, every, onProgress, pick }) yields one MediaFrame per image, or one
+//   analyzeMediaFile(path, { model, every, onProgress, pick, careful }) yields one MediaFrame per image, or one
 //   per kept video frame with its index and time; MediaInputError says what is wrong and what to do.
 
 import { access, open } from 'node:fs/promises';
@@ -42,6 +42,8 @@ export interface AnalyzeMediaOptions {
   pick?: { x: number; y: number; frame: number } | null;
   /** Videos: start at this frame (a resumed analysis); the frames before it are not read. */
   fromFrame?: number;
+  /** Careful reading: each frame (or followed region) read with its mirror image too, averaged. */
+  careful?: boolean;
 }
 
 const IMAGE_TYPES = new Set(['image/png', 'image/jpeg', 'image/webp', 'image/gif', 'image/bmp']);
@@ -87,11 +89,11 @@ async function* analyzeImage(path: string, opts: AnalyzeMediaOptions): AsyncGene
   if (opts.pick) {
     const picked = await new AthleteFollower(pixels).pick(
       opts.pick,
-      async (region) => (await detector.detect(pixels, { region })).keypoints,
+      async (region) => (await detector.detect(pixels, { region, flipAverage: opts.careful })).keypoints,
     );
     keypoints = picked.keypoints;
     lostReason = picked.reason;
-  } else keypoints = (await detector.detect(pixels)).keypoints;
+  } else keypoints = (await detector.detect(pixels, { flipAverage: opts.careful })).keypoints;
   opts.onProgress?.(1, 1);
   yield {
     frame: null,
@@ -133,7 +135,8 @@ async function* analyzeVideo(path: string, opts: AnalyzeMediaOptions): AsyncGene
       let lostReason: string | null = null;
       if (opts.pick) {
         // Read only around the picked athlete, as the browser does (decoded frames may be downsized).
-        const read = async (region: PixelBox) => (await detector.detect(image, { region })).keypoints;
+        const read = async (region: PixelBox) =>
+          (await detector.detect(image, { region, flipAverage: opts.careful })).keypoints;
         const sx = f.width / f.sourceWidth;
         const sy = f.height / f.sourceHeight;
         const result = follower
@@ -146,7 +149,8 @@ async function* analyzeVideo(path: string, opts: AnalyzeMediaOptions): AsyncGene
         lostReason = result.reason;
         if (!follower.following) follower = null;
       } else {
-        found = (await detector.detect(image, { timeMs: timeMs ?? f.index })).keypoints;
+        found = (await detector.detect(image, { timeMs: timeMs ?? f.index, flipAverage: opts.careful }))
+          .keypoints;
       }
       const keypoints =
         f.width === f.sourceWidth && f.height === f.sourceHeight

@@ -36,6 +36,8 @@ export const DEMO_CLIP_PLAN: {
   pick?: AthletePick;
   /** Seeded without stored results and queued for analysis on the server: it is read after first start. */
   analyseOnServer?: boolean;
+  /** With analyseOnServer: the coach asked for a careful reading (each frame with its mirror image too). */
+  careful?: boolean;
 }[] = [
   { footage: 'phantom-front-turns', view: 'front', athlete: 'elsie', session: 0 },
   { footage: 'phantom-side-run', view: 'side', athlete: 'elsie', session: 0 },
@@ -51,8 +53,15 @@ export const DEMO_CLIP_PLAN: {
     pick: { frameIndex: 0, x: 282, y: 251 },
   },
   // Uploaded at the end of the training day and left for the server, which analyses it in the
-  // background after the first start (the clip page shows its progress).
-  { footage: 'phantom-spring-turns', view: 'front', athlete: 'finn', session: 1, analyseOnServer: true },
+  // background after the first start (the clip page shows its progress), read carefully.
+  {
+    footage: 'phantom-spring-turns',
+    view: 'front',
+    athlete: 'finn',
+    session: 1,
+    analyseOnServer: true,
+    careful: true,
+  },
 ];
 
 export const demoKeypointFileSchema = z.object({
@@ -182,6 +191,7 @@ export async function seedDemoClips(deps: DemoClipDeps, clubId: string): Promise
           model: ready.defaultModel,
           createdById: coach?.id ?? null,
           now: clock.now(),
+          careful: plan.careful,
         }),
       );
       continue;

@@ -96,6 +96,7 @@ export class ClipAnalysisService {
         createdById: principal.user.id,
         now: this.clock.now(),
         fromStart: input.fromStart,
+        careful: input.careful,
       });
       await this.audit.record(manager, {
         clubId: clip.clubId,

@@ -101,6 +101,7 @@ export async function queueClipAnalysis(
     createdById: string | null;
     now: Date;
     fromStart?: boolean;
+    careful?: boolean;
     /** Wait until then before starting (a browser analysing the clip holds it). */
     notBefore?: Date;
   },
@@ -110,6 +111,7 @@ export async function queueClipAnalysis(
   if (
     current &&
     current.payload.model === request.model &&
+    (current.payload.careful ?? false) === (request.careful ?? false) &&
     (current.status === 'queued' || current.status === 'running')
   )
     return current;
@@ -120,6 +122,7 @@ export async function queueClipAnalysis(
     payload: {
       model: request.model,
       ...(request.fromStart ? { fromStart: true } : {}),
+      ...(request.careful ? { careful: true } : {}),
       ...(request.notBefore ? { notBefore: request.notBefore.toISOString() } : {}),
     },
     label: `Pose analysis of ${request.clip.originalName}`,

@@ -182,13 +182,15 @@ export class ServerAnalysisQueue {
         fps: clip.fps,
         fromFrame,
         pick: resumePick(clip, fromFrame, last),
+        careful: queued.payload.careful ?? false,
         batchSize: this.options.batchSize ?? 10,
       };
       await runPoseAnalysis(
         request,
         async (batch) => {
           const lastIndex = batch[batch.length - 1].frameIndex;
-          await this.frames.storeBatch(clip, { model, frames: batch }, (manager) =>
+          const careful = queued.payload.careful ? { careful: true } : {};
+          await this.frames.storeBatch(clip, { model, ...careful, frames: batch }, (manager) =>
             this.uow.of(manager).jobs.update(queued.id, {
               done: lastIndex + 1,
               cursor: String(lastIndex),

@@ -11,6 +11,8 @@ export interface PoseAnalysisRequest {
   fromFrame: number;
   /** Follow this athlete from this frame on (pixels of the original frame). */
   pick: { x: number; y: number; frame: number } | null;
+  /** Read each frame with its mirror image too. */
+  careful?: boolean;
   batchSize: number;
 }
 

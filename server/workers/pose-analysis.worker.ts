@@ -17,6 +17,7 @@ try {
     every: 1,
     pick: request.pick,
     fromFrame: request.fromFrame,
+    careful: request.careful,
   })) {
     if (f.frame === null) continue;
     batch.push({

@@ -87,6 +87,8 @@ export interface ServerAnalysisDto {
   updatedAt: string;
   /** Queued but held until then: a coach's browser is analysing the clip and posting its frames. */
   heldUntil: string | null;
+  /** Each frame read with its mirror image too. */
+  careful: boolean;
 }
 
 /** One JPEG sprite: tile i shows the frame at i * intervalMs, row-major, `columns` tiles a row. */
@@ -189,6 +191,8 @@ export const serverAnalysisRequestSchema = z
      * posts frames and reads only what the browser leaves (allowed while the clip is still prepared).
      */
     holdForBrowser: z.boolean().optional(),
+    /** Read each frame with its mirror image too (slower; docs/accuracy.md). */
+    careful: z.boolean({ message: 'careful is true or false' }).optional(),
   })
   .strict();
 export type ServerAnalysisRequest = z.infer<typeof serverAnalysisRequestSchema>;

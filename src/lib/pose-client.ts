@@ -34,6 +34,8 @@ export interface PoseFrameRequest {
     { pick: PickPoint } | { next: true } | { near: { keypoints: Keypoint[]; framesApart: number } } | null;
   /** A still image rather than a clip frame: tracking reset before it, no temporal smoothing. */
   still?: boolean;
+  /** Careful reading: the frame (or the followed region) read with its mirror image too, averaged. */
+  careful?: boolean;
 }
 
 export interface PoseFrameResult extends PoseFrameRequest {

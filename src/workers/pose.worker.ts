@@ -117,9 +117,9 @@ async function handleDetect(message: Extract<WorkerRequest, { type: 'detect' }>)
       let detectMs = 0;
       let passes = 0;
       const read = async (region: PixelBox) => {
-        const r = await detector.detect(image, { region });
+        const r = await detector.detect(image, { region, flipAverage: req.careful });
         detectMs += r.timings.detectMs;
-        passes += 1;
+        passes += r.timings.passes;
         return r.keypoints;
       };
       const size = { width: pixels.width, height: pixels.height };
@@ -145,7 +145,10 @@ async function handleDetect(message: Extract<WorkerRequest, { type: 'detect' }>)
       found = { keypoints: result.keypoints, score: null, timings: { detectMs, passes } };
       followed = { state: result.state, reason: result.reason };
     } else {
-      found = await detector.detect(image, { timeMs: req.still ? null : req.timeMs });
+      found = await detector.detect(image, {
+        timeMs: req.still ? null : req.timeMs,
+        flipAverage: req.careful,
+      });
     }
     // The skier's own left and right, whichever way they face the camera (filmed from behind: swapped).
     const keypoints = orientKeypoints(

@@ -14,7 +14,7 @@ import { evaluateFrame, pooledErrors } from '../pose/phantom-eval';
 
 // `analyze --pick X,Y` on a still with two phantom skiers (docs/metrics.md, "Picking the athlete"):
 // without it the detector reads whichever skier it takes; with it, the one at the point, as the app
-// does after the coach clicks on them.
+// does after the coach clicks on them; with `--careful` too, the box and its mirror image averaged.
 
 const root = fileURLToPath(new URL('../..', import.meta.url));
 const tsx = `${root}node_modules/tsx/dist/cli.mjs`;
@@ -66,6 +66,19 @@ describe('analyze --pick', () => {
     expect(error(line.keypoints, smallTruth)).toBeLessThan(0.15);
     expect(Math.sign(line.metrics.inclination)).toBe(Math.sign(smallTruth.metrics.inclination!));
 
+    // Careful reading of the same pick: the box and its mirror image averaged, still the skier at the point.
+    const careful = analyze(
+      '--json',
+      '--careful',
+      '--pick',
+      `${Math.round(hip[0])},${Math.round(hip[1])}`,
+      file,
+    );
+    expect(careful.code, careful.stderr).toBe(0);
+    const carefulLine = JSON.parse(careful.lines[0]);
+    expect(error(carefulLine.keypoints, smallTruth)).toBeLessThan(0.15);
+    expect(carefulLine.keypoints).not.toEqual(line.keypoints);
+
     // On empty snow: no one, and the frame says so.
     const none = JSON.parse(analyze('--json', '--pick', '20,20', file).lines[0]);
     expect(none.keypoints).toEqual([]);
@@ -81,9 +94,12 @@ describe('analyze --pick', () => {
     expect(r.stderr).toContain(message);
   });
 
-  it('refuses a pick on a keypoint file', () => {
+  it('refuses a pick or a careful reading on a keypoint file', () => {
     const r = analyze('--json', '--pick', '10,10', 'fixtures/keypoints/side-coco.json');
     expect(r.code).toBe(1);
     expect(r.stderr).toContain('--pick reads images and videos');
+    const c = analyze('--json', '--careful', 'fixtures/keypoints/side-coco.json');
+    expect(c.code).toBe(1);
+    expect(c.stderr).toContain('--careful reads images and videos');
   });
 });

@@ -1,8 +1,9 @@
 // Picking the athlete in the clip workspace, in headless Chromium, on the invented demo club's front
 // clip (fixtures/phantom/demo): the coach clicks "Pick the athlete", then on the skier's hips at
-// frame 0; the pick is stored where they clicked, with a model not yet run on the clip the next frame
-// is read around the skier found there (the last, far from any read frame, in the whole picture, and says so), the whole-clip run follows the skier from there
-// through every frame, and "Forget" goes back to whoever the model finds.
+// frame 0; the pick is stored where they clicked. With a model not yet run on the clip, the next frame
+// is read around the skier found there (the last, far from any read frame, in the whole picture, and
+// the readout says so). The whole-clip run, read carefully, follows the skier from the pick through
+// every frame, and "Forget" goes back to whoever the model finds.
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
@@ -97,15 +98,20 @@ describe('picking the athlete', () => {
         Math.hypot(stored.clip.athletePick!.x - hips[0], stored.clip.athletePick!.y - hips[1]),
       ).toBeLessThan(3);
 
-      // The whole-clip run starts at the pick and follows the skier through every frame.
+      // The whole-clip run starts at the pick and follows the skier through every frame, read carefully
+      // (each box with its mirror image too), which the page says before the run and after it.
+      await page.getByRole('checkbox', { name: 'Careful reading' }).check();
+      await page.getByTestId('careful-note').getByText('about 2 times as long').waitFor();
       await page.getByRole('button', { name: 'Analyze whole clip' }).click();
-      await page.getByTestId('analysis-finished').waitFor({ timeout: 300_000 });
+      await page.getByTestId('analysis-finished').getByText('read carefully').waitFor({ timeout: 300_000 });
+      await page.getByTestId('stored-analysis').getByText('read carefully').waitFor();
       const frames = await getAs<ClipFramesResponse>(
         app.url,
         COACH,
         `/api/clips/${clipId}/frames?model=lightning`,
       );
       expect(frames.frames.length).toBe(truth.frames.length);
+      expect(frames.frames.every((f) => f.careful)).toBe(true);
       let onSkier = 0;
       for (const f of frames.frames) {
         const want = truth.frames[f.frameIndex];

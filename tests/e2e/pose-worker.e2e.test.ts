@@ -129,6 +129,8 @@ function detectIn(page: Page, url: string, req: PoseFrameRequest): Promise<PoseF
 // Two skiers crossing (the picked one in front, the other further up the hill behind), as in
 // tests/pose/follow.test.ts, and one skier filmed from behind leaning to their left.
 const CROSSING_FRAMES = 8;
+/** Boxes a pick reads (shared/pose/follow.ts); a careful pick reads each twice. */
+const PICK_BOXES = 4;
 function crossingSpecs(i: number): [PhantomFrameSpec, PhantomFrameSpec] {
   const t = i / (CROSSING_FRAMES - 1);
   const common = { width: 960, height: 540, roll: 0, seed: 3 } as const;
@@ -300,6 +302,39 @@ describe('pose worker in headless Chromium', () => {
           evaluateFrame(near.keypoints, picked).jointError.left_hip!,
           `near read, frame ${i}`,
         ).toBeLessThan(0.2);
+      }
+
+      // Careful reading of the pick (the box and its mirror image, averaged): the same points as Node's.
+      {
+        await page.evaluate(() =>
+          (window as unknown as { poseHarness: { reset(): Promise<void> } }).poseHarness.reset(),
+        );
+        const group = renderPhantomGroup(crossingSpecs(0));
+        const picked = group.truths[1];
+        const point = {
+          x: (picked.joints.left_hip[0] + picked.joints.right_hip[0]) / 2,
+          y: (picked.joints.left_hip[1] + picked.joints.right_hip[1]) / 2,
+        };
+        const inBrowser = await detectIn(page, '/frames/crossing-0.png', {
+          frameIndex: 0,
+          timeMs: 0,
+          model: 'lightning',
+          view: 'front',
+          follow: { pick: point },
+          careful: true,
+        });
+        expect(inBrowser.timings.passes).toBeGreaterThan(PICK_BOXES);
+        const image = { data: group.rgba, width: 960, height: 540, channels: 4 as const };
+        const inNode = await new AthleteFollower({ width: 960, height: 540 }).pick(
+          point,
+          async (region) => (await node.detect(image, { region, flipAverage: true })).keypoints,
+        );
+        for (const joint of BODY_JOINTS) {
+          const a = inBrowser.keypoints.find((k) => k.name === joint)!;
+          const b = inNode.keypoints.find((k) => k.name === joint)!;
+          const apart = Math.hypot(a.x - b.x, a.y - b.y) / picked.torsoLength;
+          expect(apart, `careful: ${joint} browser vs Node`).toBeLessThan(BROWSER_NODE_AGREEMENT);
+        }
       }
 
       // Filmed from behind: the worker swaps to the skier's own sides exactly as orientKeypoints does in Node.

@@ -119,7 +119,7 @@ describe('the demo clip with another skier crossing', () => {
 
 describe('the demo clip left for the server', () => {
   it(
-    'is analysed in the background after the first start: queued, then every frame stored',
+    'is analysed carefully in the background after the first start: queued, then every frame stored',
     { timeout: 180_000 },
     async () => {
       const { clips } = await get<{ clips: ClipDto[] }>('/api/clips');
@@ -127,7 +127,7 @@ describe('the demo clip left for the server', () => {
       const clip = clips.find(
         (c) => c.originalName === `${plan.footage}.mp4` && c.athletes.some((a) => a.name.startsWith('Finn')),
       )!;
-      expect(clip.serverAnalysis).toMatchObject({ model: 'lightning' });
+      expect(clip.serverAnalysis).toMatchObject({ model: 'lightning', careful: true });
       const deadline = Date.now() + 150_000;
       let status = await get<ServerAnalysisResponse>(`/api/clips/${clip.id}/server-analysis`);
       while (status.serverAnalysis?.status !== 'done' && Date.now() < deadline) {
@@ -140,6 +140,8 @@ describe('the demo clip left for the server', () => {
       expect(read.frames).toHaveLength(clip.frameCount!);
       // Found in every frame: the phantom skier is alone and large.
       expect(read.frames.filter((f) => f.keypoints.length === 0)).toEqual([]);
+      // Read carefully, as the coach asked.
+      expect(read.frames.every((f) => f.careful)).toBe(true);
     },
   );
 });

@@ -6,6 +6,7 @@ import {
   formatTimeLeft,
   framesToAnalyze,
   roughDurationMs,
+  carefulPasses,
 } from '@/features/clip-workspace/components/analysis/analysis-plan';
 
 describe('frames to analyse', () => {
@@ -73,5 +74,19 @@ describe('time left', () => {
     expect(formatRoughDuration(roughDurationMs(300, 'lightning'))).toBe('about 35 s');
     // A measured 250 ms a frame wins over the fallback: 600 × 250 ms = 150 s → "about 3 min" (2.5 rounds up).
     expect(formatRoughDuration(roughDurationMs(600, 'lightning', 250))).toBe('about 3 min');
+  });
+
+  it('counts a careful reading’s extra passes until a careful run here was measured', () => {
+    expect(carefulPasses(true)).toBe(2);
+    expect(carefulPasses(false)).toBe(4);
+    // 300 frames × 120 ms × 2 passes = 72 s → "about 1 min"; × 4 = 144 s → "about 2 min".
+    expect(formatRoughDuration(roughDurationMs(300, 'lightning', null, carefulPasses(true)))).toBe(
+      'about 1 min',
+    );
+    expect(formatRoughDuration(roughDurationMs(300, 'lightning', null, carefulPasses(false)))).toBe(
+      'about 2 min',
+    );
+    // A careful run's own measured pace already holds its passes.
+    expect(roughDurationMs(300, 'lightning', 250, 4)).toBe(75_000);
   });
 });

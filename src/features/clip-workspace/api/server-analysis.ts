@@ -43,7 +43,7 @@ export function useServerAnalysis(clipId: string, initial: ServerAnalysisDto | n
 export function useQueueServerAnalysis(clipId: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (input: { model?: PoseModelName; fromStart?: boolean }) =>
+    mutationFn: (input: { model?: PoseModelName; fromStart?: boolean; careful?: boolean }) =>
       api.post<ClipResponse>(`/api/clips/${encodeURIComponent(clipId)}/server-analysis`, input),
     onSuccess: (data) => {
       queryClient.setQueryData<ServerAnalysisResponse>(serverAnalysisKey(clipId), (old) => ({

@@ -86,9 +86,17 @@ export function roughDurationMs(
   frames: number,
   model: PoseModelName,
   measuredMsPerFrame?: number | null,
+  passesPerFrame = 1,
 ): number {
-  return frames * (measuredMsPerFrame ?? FALLBACK_MS_PER_FRAME[model]);
+  return frames * (measuredMsPerFrame ?? FALLBACK_MS_PER_FRAME[model] * passesPerFrame);
 }
+
+/**
+ * Model passes per frame of a careful reading against one of the usual run: a followed athlete's box
+ * is read twice (it and its mirror image); a whole frame is found afresh and refined, then mirrored and
+ * refined again (shared/pose/pose-detector.ts).
+ */
+export const carefulPasses = (followingPick: boolean): number => (followingPick ? 2 : 4);
 
 /** "about 3 min", "about 40 s": for the empty state, before a run. */
 export function formatRoughDuration(ms: number): string {

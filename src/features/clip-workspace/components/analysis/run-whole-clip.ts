@@ -19,6 +19,7 @@ export interface DetectRequest {
   referenceLine?: ReferenceLine | null;
   facing?: SkierFacing;
   follow?: { pick: { x: number; y: number } } | { next: true } | null;
+  careful?: boolean;
 }
 
 export interface WholeClipDeps<F> {
@@ -45,6 +46,8 @@ export interface WholeClipPlan {
    * and follows them from there; absent: whoever the model finds in each frame.
    */
   pick?: AthletePick | null;
+  /** Read each frame with its mirror image too (about twice the passes, four on whole frames). */
+  careful?: boolean;
 }
 
 export interface WholeClipProgress {
@@ -142,7 +145,11 @@ export async function runWholeClip<F>(
       posting = posting.then(async () => {
         if (postError) return;
         try {
-          const res = await deps.postBatch({ model: plan.model, frames });
+          const res = await deps.postBatch({
+            model: plan.model,
+            ...(plan.careful ? { careful: true } : {}),
+            frames,
+          });
           stored += res.stored;
           report();
         } catch (error) {
@@ -172,6 +179,7 @@ export async function runWholeClip<F>(
         referenceLine: plan.referenceLine,
         facing: plan.facing,
         follow: plan.pick ? (k === 0 ? { pick: { x: plan.pick.x, y: plan.pick.y } } : { next: true }) : null,
+        ...(plan.careful ? { careful: true } : {}),
       });
       if (result.keypoints.length === 0) emptyFrames += 1;
       pending.push({ frameIndex, timeMs: round(timeMs, 3), keypoints: compactKeypoints(result.keypoints) });

@@ -30,12 +30,14 @@ export type AnalysisRun =
       decoder: FrameSource['kind'];
       /** The pose worker's TensorFlow.js backend (webgl, wasm or cpu). */
       backend: string;
+      careful: boolean;
     }
   | { state: 'failed'; model: PoseModelName; message: string; stored: number }
   /** This browser cannot decode the clip: the whole clip went to the server instead. */
   | { state: 'handed-over'; model: PoseModelName; reason: string; queued: boolean; message?: string };
 
-const RATE_KEY = (model: PoseModelName) => `stanceline.analysis.ms-per-frame.${model}`;
+const RATE_KEY = (model: PoseModelName, careful: boolean) =>
+  `stanceline.analysis.ms-per-frame.${model}${careful ? '.careful' : ''}`;
 /** 'seek' forces the seek-based grabbing (for comparing the two decoders); anything else: WebCodecs first. */
 const DECODER_KEY = 'stanceline.analysis.decoder';
 
@@ -48,18 +50,18 @@ function preferredDecoder(): FrameSource['kind'] {
 }
 
 /** The last measured whole-clip pace on this computer, for the estimate before a run. */
-export function rememberedMsPerFrame(model: PoseModelName): number | null {
+export function rememberedMsPerFrame(model: PoseModelName, careful = false): number | null {
   try {
-    const value = Number(window.localStorage.getItem(RATE_KEY(model)));
+    const value = Number(window.localStorage.getItem(RATE_KEY(model, careful)));
     return Number.isFinite(value) && value > 0 ? value : null;
   } catch {
     return null;
   }
 }
 
-function remember(model: PoseModelName, msPerFrame: number): void {
+function remember(model: PoseModelName, careful: boolean, msPerFrame: number): void {
   try {
-    window.localStorage.setItem(RATE_KEY(model), String(Math.round(msPerFrame)));
+    window.localStorage.setItem(RATE_KEY(model, careful), String(Math.round(msPerFrame)));
   } catch {
     // Private windows may refuse storage; the estimate then falls back to the published figures.
   }
@@ -85,7 +87,7 @@ export function useWholeClipAnalysis() {
   useEffect(() => () => controller.current?.abort(), []);
 
   const start = useCallback(
-    async (everyNth: number) => {
+    async (everyNth: number, careful = false) => {
       controller.current?.abort();
       const abort = new AbortController();
       controller.current = abort;
@@ -101,6 +103,7 @@ export function useWholeClipAnalysis() {
         view: clip.view,
         facing: clip.facing,
         referenceLine: referenceLine,
+        careful,
       };
       let grabber: FrameSource =
         preferredDecoder() === 'seek' ? new FrameGrabber(mediaSrc, fps) : new DecodedFrameSource(mediaSrc);
@@ -135,7 +138,7 @@ export function useWholeClipAnalysis() {
           },
         );
         if (outcome.done > 0 && outcome.status === 'finished')
-          remember(model, outcome.elapsedMs / outcome.done);
+          remember(model, careful, outcome.elapsedMs / outcome.done);
         setRun({
           state: 'done',
           model,
@@ -143,6 +146,7 @@ export function useWholeClipAnalysis() {
           mismatches: grabber.mismatches,
           decoder: grabber.kind,
           backend: loaded.backend,
+          careful,
         });
       } catch (error) {
         if (error instanceof DOMException && error.name === 'AbortError') {
