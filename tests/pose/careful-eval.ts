@@ -8,12 +8,11 @@
 
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { parseArgs } from 'node:util';
 import type { Keypoint, PoseModelName } from '@shared/keypoints';
 import { analyzeMediaFile } from '@server/pose/analyze-media';
 import { DEMO_CLIP_PLAN, DEMO_FOOTAGE_DIR } from '@server/seed/demo-clips';
 import type { PhantomTruth } from '../../fixtures/phantom/render-phantom';
-import { emitDocSection } from './doc-section';
+import { emitDocSection, modelEvalArgs } from './doc-section';
 import { CHECKED_METRICS, evaluateFrame, pooledErrors, quantile, type FrameEvaluation } from './phantom-eval';
 
 const CLIPS = ['phantom-front-turns', 'phantom-side-run', 'phantom-spring-turns', 'phantom-crossing-turns'];
@@ -80,13 +79,7 @@ export async function carefulRun(model: PoseModelName): Promise<Record<'usual' |
 
 const isMain = process.argv[1]?.endsWith('careful-eval.ts');
 if (isMain) {
-  const { values } = parseArgs({
-    options: {
-      models: { type: 'string', default: 'lightning,thunder,blazepose' },
-      write: { type: 'string' },
-    },
-  });
-  const models = (values.models as string).split(',') as PoseModelName[];
+  const { models, write } = modelEvalArgs();
   const rows: string[] = [];
   let keys: string[] = [];
   for (const model of models) {
@@ -98,7 +91,7 @@ if (isMain) {
       `| ${model} | ${pair(run.usual.jointMedian, run.careful.jointMedian, 4)} | ${pair(run.usual.jointP90, run.careful.jointP90, 4)} | ${keys.map((k) => pair(run.usual.metrics[k], run.careful.metrics[k], 2)).join(' | ')} | ${Math.round(run.usual.ms)} → ${Math.round(run.careful.ms)} |`,
     );
   }
-  const command = `npx tsx tests/pose/careful-eval.ts --models ${models.join(',')}${values.write ? ` --write ${values.write}` : ''}`;
+  const command = `npx tsx tests/pose/careful-eval.ts --models ${models.join(',')}${write ? ` --write ${write}` : ''}`;
   emitDocSection(
     'careful-eval',
     'Careful reading of clips',
@@ -110,6 +103,6 @@ if (isMain) {
       `|---|---|---|${keys.map(() => '---|').join('')}---|`,
       ...rows,
     ],
-    values.write,
+    write,
   );
 }

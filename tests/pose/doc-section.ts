@@ -1,4 +1,6 @@
 import { readFileSync, writeFileSync } from 'node:fs';
+import { parseArgs } from 'node:util';
+import type { PoseModelName } from '@shared/keypoints';
 
 /**
  * Replaces the section between `<!-- NAME:start -->` and `<!-- NAME:end -->` of a generated document
@@ -43,4 +45,15 @@ export function emitDocSection(
   ].join('\n');
   if (write) writeDocSection(write, name, section);
   else process.stdout.write(`${section}\n`);
+}
+
+/** The options every per-model evaluation script takes: `--models a,b,c` and `--write FILE`. */
+export function modelEvalArgs(): { models: PoseModelName[]; write: string | undefined } {
+  const { values } = parseArgs({
+    options: {
+      models: { type: 'string', default: 'lightning,thunder,blazepose' },
+      write: { type: 'string' },
+    },
+  });
+  return { models: (values.models as string).split(',') as PoseModelName[], write: values.write };
 }

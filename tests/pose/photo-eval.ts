@@ -12,13 +12,12 @@
 import { execFileSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
-import { parseArgs } from 'node:util';
 import { interiorAngle } from '@shared/geometry';
 import type { Keypoint, PoseModelName } from '@shared/keypoints';
 import type { DetectOptions, PixelFrame, PoseDetector } from '@shared/pose/pose-detector';
 import { decodeImageFile } from '@server/pose/image-decode';
 import { createNodePoseDetector } from '@server/pose/node-detector';
-import { emitDocSection } from './doc-section';
+import { emitDocSection, modelEvalArgs } from './doc-section';
 import { quantile } from './phantom-eval';
 import { PHOTO_SET, type MarkedLeg, type MarkedPhoto, type Point } from './photo-set';
 
@@ -165,13 +164,7 @@ export function summarize(results: PhotoLegResult[]): PhotoSummary {
 
 const isMain = process.argv[1]?.endsWith('photo-eval.ts');
 if (isMain) {
-  const { values } = parseArgs({
-    options: {
-      models: { type: 'string', default: 'lightning,thunder,blazepose' },
-      write: { type: 'string' },
-    },
-  });
-  const models = (values.models as string).split(',') as PoseModelName[];
+  const { models, write } = modelEvalArgs();
   const f1 = (v: number) => v.toFixed(1);
   const change = (from: number, to: number) =>
     `${to <= from ? '−' : '+'}${f1(Math.abs((to / from - 1) * 100))} %`;
@@ -196,7 +189,7 @@ if (isMain) {
         .join('<br>')} |`,
     );
   }
-  const command = `npx tsx tests/pose/photo-eval.ts --models ${models.join(',')}${values.write ? ` --write ${values.write}` : ''}`;
+  const command = `npx tsx tests/pose/photo-eval.ts --models ${models.join(',')}${write ? ` --write ${write}` : ''}`;
   emitDocSection(
     'photo-eval',
     'Knee flexion on real photographs',
@@ -212,6 +205,6 @@ if (isMain) {
       '|---|---|',
       ...perLeg,
     ],
-    values.write,
+    write,
   );
 }
