@@ -37,6 +37,7 @@ export interface ExportFrameRow {
   keypoints: string;
   metrics: string;
   corrected: number;
+  careful: number;
 }
 
 /**
@@ -113,7 +114,7 @@ export class ExportRepository {
     limit: number,
   ): Promise<ExportFrameRow[]> {
     return this.manager.query(
-      `SELECT "frameIndex", "timeMs", "keypoints", "metrics", "corrected" FROM frame_result
+      `SELECT "frameIndex", "timeMs", "keypoints", "metrics", "corrected", "careful" FROM frame_result
         WHERE "clipId" = ? AND "model" = ? AND "frameIndex" > ? ORDER BY "frameIndex" LIMIT ?`,
       [clipId, model, afterFrame, limit],
     ) as Promise<ExportFrameRow[]>;

@@ -167,27 +167,41 @@ export class ExportService {
       frameIndex: number,
       timeMs: number,
       corrected: boolean,
+      careful: boolean,
       values: Partial<Record<MetricKey, number | null>>,
       keypoints: readonly Keypoint[],
     ): Cell[] => {
       const scores: Record<string, number> = {};
       for (const k of keypoints) scores[k.name] = k.score;
-      const cells: Cell[] = [...lead, frameIndex, timeMs, corrected];
+      const cells: Cell[] = [...lead, frameIndex, timeMs, corrected, careful];
       for (const key of metrics) cells.push(values[key] ?? null, meanScore(scores, key));
       return cells;
     };
     if (query.values === 'smoothed') {
       const series = await this.frames.smoothed(await this.clipRow(clip.id), clip.model);
       const corrected = new Set<number>();
+      const careful = new Set<number>();
       for (let after = -1; ;) {
         const page = await this.uow.repos.exports.framesPage(clip.id, clip.model, after, PAGE * 4);
-        for (const f of page) if (f.corrected) corrected.add(f.frameIndex);
+        for (const f of page) {
+          if (f.corrected) corrected.add(f.frameIndex);
+          if (f.careful) careful.add(f.frameIndex);
+        }
         if (page.length < PAGE * 4) break;
         after = page[page.length - 1].frameIndex;
       }
       for (const [i, f] of (series?.frames ?? []).entries()) {
         if (stopped()) return;
-        sink.emit(row(f.frameIndex, f.timeMs, corrected.has(f.frameIndex), f.metrics, f.keypoints));
+        sink.emit(
+          row(
+            f.frameIndex,
+            f.timeMs,
+            corrected.has(f.frameIndex),
+            careful.has(f.frameIndex),
+            f.metrics,
+            f.keypoints,
+          ),
+        );
         if (i % PAGE === PAGE - 1) await sink.flush();
       }
       return;
@@ -201,6 +215,7 @@ export class ExportService {
             f.frameIndex,
             f.timeMs,
             f.corrected === 1,
+            f.careful === 1,
             JSON.parse(f.metrics) as Partial<Record<MetricKey, number | null>>,
             JSON.parse(f.keypoints) as Keypoint[],
           ),
@@ -232,6 +247,7 @@ export class ExportService {
             k.y,
             k.score,
             f.corrected === 1,
+            f.careful === 1,
             clip.width,
             clip.height,
           ]);

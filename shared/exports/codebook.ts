@@ -107,6 +107,9 @@ function sharedColumns(kind: ExportKind): CodebookColumn[] {
   ];
 }
 
+const CAREFUL_TEXT =
+  'true when the frame was read carefully: with its mirror image too, the two reads averaged (docs/accuracy.md, "Careful reading of clips").';
+
 /** Every column of every export, from the metric definitions the code itself uses. */
 export function codebook(): CodebookColumn[] {
   const frames: CodebookColumn[] = [
@@ -114,6 +117,7 @@ export function codebook(): CodebookColumn[] {
     column('frames', 'frame', 'Frame index in the clip, from 0.'),
     column('frames', 'time_ms', 'Presentation time of the frame in the clip.', { unit: 'milliseconds' }),
     column('frames', 'corrected', 'true when a coach moved the keypoints of this frame by hand.'),
+    column('frames', 'careful', CAREFUL_TEXT),
     ...METRIC_KEYS.flatMap((key) => {
       const d = METRIC_DEFINITIONS[key];
       return [
@@ -147,6 +151,7 @@ export function codebook(): CodebookColumn[] {
     }),
     column('keypoints', 'score', 'How sure the model is of the point, 0 to 1.', { unit: 'score 0 to 1' }),
     column('keypoints', 'corrected', 'true when a coach moved the keypoints of this frame by hand.'),
+    column('keypoints', 'careful', CAREFUL_TEXT),
     column('keypoints', 'frame_width_px', 'Width of the playable video.', { unit: 'pixels' }),
     column('keypoints', 'frame_height_px', 'Height of the playable video.', { unit: 'pixels' }),
   ];

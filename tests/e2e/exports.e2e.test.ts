@@ -48,7 +48,7 @@ describe('exports in a real browser', () => {
           await label.uncheck();
       }
       const status = page.getByRole('status').filter({ hasText: /rows from/ });
-      await expect.poll(() => status.innerText(), { timeout: 15_000 }).toMatch(/13 columns/);
+      await expect.poll(() => status.innerText(), { timeout: 15_000 }).toMatch(/14 columns/);
       const text = await status.innerText();
       const rows = Number(/([\d,]+) rows from/.exec(text)![1].replace(/,/g, ''));
       expect(rows).toBeGreaterThan(100);
@@ -75,6 +75,7 @@ describe('exports in a real browser', () => {
         'frame',
         'time_ms',
         'corrected',
+        'careful',
         'stanceWidthRatio_ratio',
         'stanceWidthRatio_conf',
         'shoulderTilt_deg',

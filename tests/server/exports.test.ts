@@ -58,6 +58,8 @@ async function download(path: string, role: DemoRole = 'analyst') {
   return { header: parsed.meta.fields ?? [], rows: parsed.data };
 }
 
+/** Frames from here on are posted a second time, read carefully. */
+const CAREFUL_FROM = 40;
 const num = (text: string) => (text === '' ? null : Number(text));
 
 beforeAll(async () => {
@@ -86,6 +88,12 @@ beforeAll(async () => {
       .send({ model: 'lightning', frames });
     expect(res.status, JSON.stringify(res.body).slice(0, 300)).toBe(200);
   }
+  // Elsie's last frames read again carefully.
+  const again = await server.http
+    .post(`/api/clips/${elsieClip.id}/frames`)
+    .set(await as('head'))
+    .send({ model: 'lightning', careful: true, frames: frames.slice(CAREFUL_FROM) });
+  expect(again.status).toBe(200);
   // A coach corrected one frame by hand.
   const fix = await server.http
     .put(`/api/clips/${elsieClip.id}/frames/10`)
@@ -119,6 +127,7 @@ describe('round trip through a CSV parser', () => {
         model: 'lightning',
         frame: String(frame.frameIndex),
         corrected: frame.corrected ? 'true' : 'false',
+        careful: frame.careful ? 'true' : 'false',
       });
       expect(num(row.time_ms)).toBeCloseTo(frame.timeMs, 6);
       for (const key of METRIC_KEYS) {
@@ -135,6 +144,9 @@ describe('round trip through a CSV parser', () => {
       }
     }
     expect(rows.filter((r) => r.corrected === 'true').map((r) => r.frame)).toEqual(['10']);
+    expect(rows.filter((r) => r.careful === 'true').map((r) => Number(r.frame))).toEqual(
+      frames.slice(CAREFUL_FROM).map((f) => f.frameIndex),
+    );
   });
 
   it('keypoints.csv: long format, every stored point with the frame size', async () => {
@@ -145,10 +157,11 @@ describe('round trip through a CSV parser', () => {
     expect(rows).toHaveLength(expected.length);
     for (const [i, { f, k }] of expected.entries()) {
       const row = rows[i];
-      expect([row.frame, row.keypoint, row.corrected]).toEqual([
+      expect([row.frame, row.keypoint, row.corrected, row.careful]).toEqual([
         String(f.frameIndex),
         k.name,
         String(f.corrected),
+        String(f.careful),
       ]);
       expect(Math.abs(num(row.x_px)! - k.x)).toBeLessThanOrEqual(5e-7);
       expect(Math.abs(num(row.y_px)! - k.y)).toBeLessThanOrEqual(5e-7);
@@ -194,7 +207,7 @@ describe('round trip through a CSV parser', () => {
       `/api/exports/frames.csv?clipId=${elsieClip.id}&metrics=shoulderTilt,inclination&values=smoothed`,
     );
     expect(smooth.header).toEqual([
-      ...exportColumns('frames').slice(0, 9),
+      ...exportColumns('frames').slice(0, 10),
       'shoulderTilt_deg',
       'shoulderTilt_conf',
       'inclination_deg',
