@@ -96,9 +96,9 @@ try {
       `${(atTenth / MB).toFixed(0)} / ${(atEnd / MB).toFixed(0)} MB; peak JS heap ${(peakHeap / MB).toFixed(0)} MB`,
     );
   };
-  await run('all 22 metrics (53 columns)', '');
-  await run('two metrics (13 columns)', '?metrics=stanceWidthRatio,shoulderTilt');
-  // The API during a large export: a health read every 10 ms while the 53-column export runs.
+  await run('all 22 metrics (54 columns)', '');
+  await run('two metrics (14 columns)', '?metrics=stanceWidthRatio,shoulderTilt');
+  // The API during a large export: a health read every 10 ms while the 54-column export runs.
   let exporting = true;
   const probe = healthLatencies(base, () => !exporting);
   await run('again, with health reads alongside', '');
