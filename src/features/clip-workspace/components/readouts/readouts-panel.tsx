@@ -39,6 +39,7 @@ const ORIGIN_TEXT: Record<PoseFrameResult['origin'], string> = {
 };
 
 function StatusLine({ pose, status }: { pose: PoseFrameResult | null; status: PoseStatus }) {
+  const { canEdit } = useStage();
   if (status.state === 'detecting') {
     return (
       <p className="flex items-center gap-2 text-xs text-granite-600">
@@ -67,10 +68,13 @@ function StatusLine({ pose, status }: { pose: PoseFrameResult | null; status: Po
       {read?.how === 'whole-frame' ? (
         <p className="text-signal-700">
           Read in the whole picture, so another person may be measured: no frame near this one is read yet.
-          Step here from the picked frame ({read.pickFrame}) or analyse the whole clip to follow the athlete.
+          Step here from the picked frame ({read.pickFrame}){canEdit ? ' or analyse the whole clip' : ''} to
+          follow the athlete.
         </p>
       ) : null}
-      {lost ? <p>Step back to a frame where the athlete is found, or pick them again.</p> : null}
+      {lost ? (
+        <p>Step back to a frame where the athlete is found{canEdit ? ', or pick them again' : ''}.</p>
+      ) : null}
     </div>
   );
 }
