@@ -1,0 +1,83 @@
+// A coach who turns a clip's facing while the server analyses it: the frames stored so far are swapped
+// at once (the clip's facing changed), and the job's later frames are swapped to match, so every frame
+// ends with the skier's own sides. Checked against the analyze CLI's committed points of the same
+// footage (fixtures/media/demo, read facing the camera), with left and right swapped.
+import fs from 'node:fs/promises';
+import path from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Keypoint } from '@shared/keypoints';
+import { swapLeftRight } from '@shared/pose/keypoint-mapping';
+import type { ClipDto, ServerAnalysisResponse } from '@shared/schemas/clip.schema';
+import type { ClipFramesResponse } from '@shared/schemas/frames.schema';
+import { DEMO_FOOTAGE_DIR, DEMO_KEYPOINTS_DIR } from '@server/seed/demo-clips';
+import { createTestServer, type TestServer } from '../helpers/server-harness';
+import { settled, uploadClip } from './clip-fixtures';
+
+let server: TestServer;
+
+beforeAll(async () => {
+  // A pause between batches of ten frames, so the change lands part way through the clip.
+  server = await createTestServer({ ANALYSIS_WORKERS: '1', AUTO_ANALYSIS: 'on', JOB_STEP_PAUSE: '400ms' });
+}, 120_000);
+afterAll(async () => {
+  await server?.close();
+});
+
+describe('turning the facing while the server analyses the clip', () => {
+  it(
+    'leaves every frame with the skier’s own sides, before and after the change',
+    { timeout: 180_000 },
+    async () => {
+      const elsie = await server.athleteId('Elsie');
+      const [sessionId] = await server.sessionIds();
+      const uploaded = await uploadClip(server, path.join(DEMO_FOOTAGE_DIR, 'phantom-front-turns.mp4'), {
+        sessionId,
+        athleteIds: elsie,
+        view: 'front',
+      });
+      await settled(server, uploaded.id);
+      const status = async () =>
+        (await server.http.get(`/api/clips/${uploaded.id}/server-analysis`).set(await server.bearer('coach')))
+          .body as ServerAnalysisResponse;
+      // Part way: some batches stored, more to come.
+      for (let s = await status(); (s.serverAnalysis?.done ?? 0) < 30; s = await status()) {
+        expect(s.serverAnalysis?.status).not.toBe('done');
+        await new Promise((r) => setTimeout(r, 100));
+      }
+      const turned = await server.http
+        .patch(`/api/clips/${uploaded.id}`)
+        .set(await server.bearer('coach'))
+        .send({ facing: 'away' });
+      expect(turned.status).toBe(200);
+      expect((turned.body.clip as ClipDto).serverAnalysis?.status).toBe('running');
+      await server.runtime.analyses.idle();
+
+      const read = (
+        await server.http
+          .get(`/api/clips/${uploaded.id}/frames?model=lightning`)
+          .set(await server.bearer('coach'))
+      ).body as ClipFramesResponse;
+      expect(read.frames).toHaveLength(uploaded.frameCount!);
+      const committed = JSON.parse(
+        await fs.readFile(path.join(DEMO_KEYPOINTS_DIR, 'phantom-front-turns.lightning.json'), 'utf8'),
+      ) as { frames: { frameIndex: number; keypoints: Keypoint[] }[] };
+      const truth = JSON.parse(
+        await fs.readFile(path.join(DEMO_FOOTAGE_DIR, 'phantom-front-turns.truth.json'), 'utf8'),
+      ) as { frames: { frame: number; torsoLength: number }[] };
+      const stored = new Map(read.frames.map((f) => [f.frameIndex, f.keypoints]));
+      const worstByFrame: number[] = [];
+      for (const want of committed.frames) {
+        const torso = truth.frames.find((t) => t.frame === want.frameIndex)!.torsoLength;
+        const got = stored.get(want.frameIndex)!;
+        let worst = 0;
+        for (const k of swapLeftRight(want.keypoints)) {
+          const g = got.find((p) => p.name === k.name)!;
+          worst = Math.max(worst, Math.hypot(g.x - k.x, g.y - k.y) / torso);
+        }
+        worstByFrame.push(worst);
+      }
+      // Every frame, stored before the change or after it, is the CLI's read with the sides swapped.
+      expect(Math.max(...worstByFrame)).toBeLessThan(0.05);
+    },
+  );
+});
