@@ -50,14 +50,19 @@ export class FrameStore {
 
   /**
    * Stores a batch of detected frames; `within` runs in the same transaction (a server analysis job
-   * records its progress there, so a batch and its cursor are written together or not at all).
+   * records its progress there, so a batch and its cursor are written together or not at all). A batch
+   * read for the other facing than the clip's now is swapped first (the coach turned it meanwhile).
    */
   async storeBatch(
     clip: Clip,
-    batch: FrameBatchInput,
+    input: FrameBatchInput,
     within?: (manager: EntityManager) => Promise<void>,
   ): Promise<FrameBatchResponse> {
     this.requireReady(clip);
+    const batch =
+      input.facing && input.facing !== clip.facing
+        ? { ...input, frames: input.frames.map((f) => ({ ...f, keypoints: swapLeftRight(f.keypoints) })) }
+        : input;
     this.checkFrameRange(
       clip,
       batch.frames.map((f, i) => ({

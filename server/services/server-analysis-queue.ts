@@ -5,7 +5,6 @@ import { pipeline } from 'node:stream/promises';
 import { setTimeout as sleep } from 'node:timers/promises';
 import type { DataSource } from 'typeorm';
 import type { Logger } from 'pino';
-import { swapLeftRight } from '@shared/pose/keypoint-mapping';
 import type { Clip } from '../entities/clip.entity';
 import type { Job } from '../entities/job.entity';
 import type { FrameResult } from '../entities/frame-result.entity';
@@ -191,14 +190,10 @@ export class ServerAnalysisQueue {
         async (batch) => {
           const lastIndex = batch[batch.length - 1].frameIndex;
           const careful = queued.payload.careful ? { careful: true } : {};
-          // The coach may turn the clip's facing while the job runs: that swaps the frames stored so far
-          // (FrameStore.recomputeClip), so the job's later frames are swapped to match.
-          const current = await this.uow.repos.clips.findById(clip.id);
-          const frames =
-            current && current.facing !== clip.facing
-              ? batch.map((f) => ({ ...f, keypoints: swapLeftRight(f.keypoints) }))
-              : batch;
-          await this.frames.storeBatch(current ?? clip, { model, ...careful, frames }, (manager) =>
+          // Read afresh: the coach may have turned the facing meanwhile, and the batch then is swapped.
+          const current = (await this.uow.repos.clips.findById(clip.id)) ?? clip;
+          const read = { model, ...careful, facing: request.facing, frames: batch };
+          await this.frames.storeBatch(current, read, (manager) =>
             this.uow.of(manager).jobs.update(queued.id, {
               done: lastIndex + 1,
               cursor: String(lastIndex),

@@ -3,8 +3,10 @@ import {
   BLAZEPOSE33_NAMES,
   COCO17_NAMES,
   POSE_MODELS,
+  SKIER_FACINGS,
   type Keypoint,
   type PoseModelName,
+  type SkierFacing,
 } from '../keypoints';
 import type { MetricKey } from '../metrics';
 import type { FilterRecord, SeriesSummary, Turn } from '../series';
@@ -71,6 +73,13 @@ export const frameBatchSchema = z
     model: poseModelSchema,
     /** The frames were read carefully (with their mirror images, averaged). */
     careful: z.boolean({ message: 'careful is true or false' }).optional(),
+    /**
+     * The clip's facing the points were oriented for when they were read; when the coach has turned it
+     * since (the stored frames were swapped then), the batch is swapped to match before it is stored.
+     */
+    facing: z
+      .enum(SKIER_FACINGS as [SkierFacing, ...SkierFacing[]], { message: 'facing is toward or away' })
+      .optional(),
     frames: z
       .array(frameUploadSchema)
       .min(1, 'Send at least one frame')

@@ -552,3 +552,45 @@ describe('careful reading', () => {
     expect((await frame(8)).careful).toBe(false);
   });
 });
+
+describe('a facing turned while frames were being read', () => {
+  it('swaps a batch read for the other facing, keeps one read for the clip’s, and refuses an unknown facing', async () => {
+    const turned = await server.http
+      .patch(`/api/clips/${front.id}`)
+      .set(await coach())
+      .send({ facing: 'away' });
+    expect(turned.status).toBe(200);
+    const at = (frame: number) =>
+      readFrames(front.id).then((r) => r.frames.find((f) => f.frameIndex === frame)!.keypoints);
+    const leftShoulder = (points: Keypoint[]) => points.find((k) => k.name === 'left_shoulder')!;
+    const sent = TILTED.find((k) => k.name === 'left_shoulder')!;
+    const other = TILTED.find((k) => k.name === 'right_shoulder')!;
+
+    // Read before the turn (oriented for "toward"): stored with the sides swapped, as the turn swapped the rest.
+    await postFrames(front.id, {
+      model: 'lightning',
+      facing: 'toward',
+      frames: [{ frameIndex: 11, timeMs: 440, keypoints: TILTED }],
+    }).then((r) => expect(r.status).toBe(200));
+    expect(leftShoulder(await at(11))).toMatchObject({ x: other.x, y: other.y });
+    // Read for the clip's facing, or not saying: stored as sent.
+    for (const [frameIndex, facing] of [
+      [12, 'away'],
+      [13, undefined],
+    ] as const) {
+      await postFrames(front.id, {
+        model: 'lightning',
+        ...(facing ? { facing } : {}),
+        frames: [{ frameIndex, timeMs: frameIndex * 40, keypoints: TILTED }],
+      }).then((r) => expect(r.status).toBe(200));
+      expect(leftShoulder(await at(frameIndex))).toMatchObject({ x: sent.x, y: sent.y });
+    }
+    const bad = await postFrames(front.id, {
+      model: 'lightning',
+      facing: 'sideways',
+      frames: [{ frameIndex: 14, timeMs: 560, keypoints: TILTED }],
+    });
+    expect(bad.status).toBe(400);
+    expect(JSON.stringify(bad.body)).toContain('facing');
+  });
+});

@@ -148,6 +148,8 @@ export async function runWholeClip<F>(
           const res = await deps.postBatch({
             model: plan.model,
             ...(plan.careful ? { careful: true } : {}),
+            // What the points were oriented for: a facing turned during the run is put right on storing.
+            facing: plan.facing ?? 'toward',
             frames,
           });
           stored += res.stored;
