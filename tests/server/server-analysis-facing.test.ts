@@ -2,16 +2,14 @@
 // at once (the clip's facing changed), and the job's later frames are swapped to match, so every frame
 // ends with the skier's own sides. Checked against the analyze CLI's committed points of the same
 // footage (fixtures/media/demo, read facing the camera), with left and right swapped.
-import fs from 'node:fs/promises';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Keypoint } from '@shared/keypoints';
-import { swapLeftRight } from '@shared/pose/keypoint-mapping';
 import type { ClipDto, ServerAnalysisResponse } from '@shared/schemas/clip.schema';
 import type { ClipFramesResponse } from '@shared/schemas/frames.schema';
-import { DEMO_FOOTAGE_DIR, DEMO_KEYPOINTS_DIR } from '@server/seed/demo-clips';
+import { DEMO_FOOTAGE_DIR } from '@server/seed/demo-clips';
 import { createTestServer, type TestServer } from '../helpers/server-harness';
 import { settled, uploadClip } from './clip-fixtures';
+import { worstGapToCommitted } from './demo-footage';
 
 let server: TestServer;
 
@@ -58,26 +56,12 @@ describe('turning the facing while the server analyses the clip', () => {
           .set(await server.bearer('coach'))
       ).body as ClipFramesResponse;
       expect(read.frames).toHaveLength(uploaded.frameCount!);
-      const committed = JSON.parse(
-        await fs.readFile(path.join(DEMO_KEYPOINTS_DIR, 'phantom-front-turns.lightning.json'), 'utf8'),
-      ) as { frames: { frameIndex: number; keypoints: Keypoint[] }[] };
-      const truth = JSON.parse(
-        await fs.readFile(path.join(DEMO_FOOTAGE_DIR, 'phantom-front-turns.truth.json'), 'utf8'),
-      ) as { frames: { frame: number; torsoLength: number }[] };
-      const stored = new Map(read.frames.map((f) => [f.frameIndex, f.keypoints]));
-      const worstByFrame: number[] = [];
-      for (const want of committed.frames) {
-        const torso = truth.frames.find((t) => t.frame === want.frameIndex)!.torsoLength;
-        const got = stored.get(want.frameIndex)!;
-        let worst = 0;
-        for (const k of swapLeftRight(want.keypoints)) {
-          const g = got.find((p) => p.name === k.name)!;
-          worst = Math.max(worst, Math.hypot(g.x - k.x, g.y - k.y) / torso);
-        }
-        worstByFrame.push(worst);
-      }
+      const { worst, compared } = await worstGapToCommitted(server, uploaded.id, 'phantom-front-turns', {
+        swapSides: true,
+      });
+      expect(compared).toBeGreaterThan(1000);
       // Every frame, stored before the change or after it, is the CLI's read with the sides swapped.
-      expect(Math.max(...worstByFrame)).toBeLessThan(0.05);
+      expect(worst).toBeLessThan(0.05);
     },
   );
 });

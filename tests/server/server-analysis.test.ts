@@ -8,8 +8,9 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Keypoint } from '@shared/keypoints';
 import type { ClipDto, ServerAnalysisResponse } from '@shared/schemas/clip.schema';
 import type { ClipFramesResponse } from '@shared/schemas/frames.schema';
-import { DEMO_CLIP_PLAN, DEMO_FOOTAGE_DIR, DEMO_KEYPOINTS_DIR } from '@server/seed/demo-clips';
+import { DEMO_CLIP_PLAN, DEMO_FOOTAGE_DIR } from '@server/seed/demo-clips';
 import { createTestServer, type TestServer } from '../helpers/server-harness';
+import { committed, worstGapToCommitted } from './demo-footage';
 import { BODY_JOINTS, quantile } from '../pose/phantom-eval';
 import { settled, uploadClip } from './clip-fixtures';
 
@@ -28,49 +29,8 @@ afterAll(async () => {
   await server?.close();
 });
 
-interface Committed {
-  frames: { frameIndex: number; keypoints: Keypoint[] }[];
-}
-interface Truth {
-  frames: { frame: number; torsoLength: number }[];
-}
-
-async function committed(
-  footage: string,
-): Promise<{ frames: Committed['frames']; torso: Map<number, number> }> {
-  const stored = JSON.parse(
-    await fs.readFile(path.join(DEMO_KEYPOINTS_DIR, `${footage}.lightning.json`), 'utf8'),
-  ) as Committed;
-  const truth = JSON.parse(
-    await fs.readFile(path.join(DEMO_FOOTAGE_DIR, `${footage}.truth.json`), 'utf8'),
-  ) as Truth;
-  return { frames: stored.frames, torso: new Map(truth.frames.map((f) => [f.frame, f.torsoLength])) };
-}
-
 /** Largest distance of a joint between the server's frames and the CLI's, in torso lengths. */
-async function worstJointGap(clipId: string, footage: string): Promise<{ worst: number; compared: number }> {
-  const res = await server.http
-    .get(`/api/clips/${clipId}/frames?model=lightning`)
-    .set(await server.bearer('head'));
-  expect(res.status).toBe(200);
-  const read = res.body as ClipFramesResponse;
-  const cli = await committed(footage);
-  const byIndex = new Map(read.frames.map((f) => [f.frameIndex, f.keypoints]));
-  let worst = 0;
-  let compared = 0;
-  for (const want of cli.frames) {
-    const got = byIndex.get(want.frameIndex);
-    expect(got, `frame ${want.frameIndex} stored`).toBeDefined();
-    const torso = cli.torso.get(want.frameIndex)!;
-    for (const k of want.keypoints) {
-      const g = got!.find((p) => p.name === k.name);
-      expect(g, `${k.name} in frame ${want.frameIndex}`).toBeDefined();
-      worst = Math.max(worst, Math.hypot(g!.x - k.x, g!.y - k.y) / torso);
-      compared += 1;
-    }
-  }
-  return { worst, compared };
-}
+const worstJointGap = (clipId: string, footage: string) => worstGapToCommitted(server, clipId, footage);
 
 /** Median distance of the body joints from the rendered truth, in torso lengths. */
 async function medianTruthError(
