@@ -6,9 +6,11 @@ import path from 'node:path';
 import { expect } from 'vitest';
 import type { Keypoint } from '@shared/keypoints';
 import { swapLeftRight } from '@shared/pose/keypoint-mapping';
+import type { ClipDto } from '@shared/schemas/clip.schema';
 import type { ClipFramesResponse } from '@shared/schemas/frames.schema';
 import { DEMO_FOOTAGE_DIR, DEMO_KEYPOINTS_DIR } from '@server/seed/demo-clips';
 import type { TestServer } from '../helpers/server-harness';
+import { uploadClip } from './clip-fixtures';
 
 interface Committed {
   frames: { frameIndex: number; keypoints: Keypoint[] }[];
@@ -61,4 +63,18 @@ export async function worstGapToCommitted(
     }
   }
   return { worst, compared };
+}
+
+/** Uploads one demo footage file as a coach, tagged with the athlete, in the first session. */
+export async function uploadDemoFootage(
+  server: TestServer,
+  footage: string,
+  fields: { athlete: string; view: 'front' | 'side' },
+): Promise<ClipDto> {
+  const [sessionId] = await server.sessionIds();
+  return uploadClip(server, path.join(DEMO_FOOTAGE_DIR, `${footage}.mp4`), {
+    sessionId,
+    athleteIds: await server.athleteId(fields.athlete),
+    view: fields.view,
+  });
 }

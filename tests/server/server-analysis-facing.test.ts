@@ -2,14 +2,12 @@
 // at once (the clip's facing changed), and the job's later frames are swapped to match, so every frame
 // ends with the skier's own sides. Checked against the analyze CLI's committed points of the same
 // footage (fixtures/media/demo, read facing the camera), with left and right swapped.
-import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { ClipDto, ServerAnalysisResponse } from '@shared/schemas/clip.schema';
 import type { ClipFramesResponse } from '@shared/schemas/frames.schema';
-import { DEMO_FOOTAGE_DIR } from '@server/seed/demo-clips';
 import { createTestServer, type TestServer } from '../helpers/server-harness';
-import { settled, uploadClip } from './clip-fixtures';
-import { worstGapToCommitted } from './demo-footage';
+import { settled } from './clip-fixtures';
+import { uploadDemoFootage, worstGapToCommitted } from './demo-footage';
 
 let server: TestServer;
 
@@ -26,11 +24,8 @@ describe('turning the facing while the server analyses the clip', () => {
     'leaves every frame with the skier’s own sides, before and after the change',
     { timeout: 180_000 },
     async () => {
-      const elsie = await server.athleteId('Elsie');
-      const [sessionId] = await server.sessionIds();
-      const uploaded = await uploadClip(server, path.join(DEMO_FOOTAGE_DIR, 'phantom-front-turns.mp4'), {
-        sessionId,
-        athleteIds: elsie,
+      const uploaded = await uploadDemoFootage(server, 'phantom-front-turns', {
+        athlete: 'Elsie',
         view: 'front',
       });
       await settled(server, uploaded.id);

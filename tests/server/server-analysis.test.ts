@@ -10,9 +10,9 @@ import type { ClipDto, ServerAnalysisResponse } from '@shared/schemas/clip.schem
 import type { ClipFramesResponse } from '@shared/schemas/frames.schema';
 import { DEMO_CLIP_PLAN, DEMO_FOOTAGE_DIR } from '@server/seed/demo-clips';
 import { createTestServer, type TestServer } from '../helpers/server-harness';
-import { committed, worstGapToCommitted } from './demo-footage';
+import { committed, uploadDemoFootage, worstGapToCommitted } from './demo-footage';
 import { BODY_JOINTS, quantile } from '../pose/phantom-eval';
-import { settled, uploadClip } from './clip-fixtures';
+import { settled } from './clip-fixtures';
 
 let server: TestServer;
 /** The clip the first test uploads and the server analyses (later tests ask about it again). */
@@ -58,11 +58,8 @@ describe('analysis on the server', () => {
     'analyses an uploaded clip in the background, every frame, with the same points as the CLI (within 0.05 torso lengths)',
     { timeout: 180_000 },
     async () => {
-      const elsie = await server.athleteId('Elsie');
-      const [sessionId] = await server.sessionIds();
-      const uploaded = await uploadClip(server, path.join(DEMO_FOOTAGE_DIR, 'phantom-front-turns.mp4'), {
-        sessionId,
-        athleteIds: elsie,
+      const uploaded = await uploadDemoFootage(server, 'phantom-front-turns', {
+        athlete: 'Elsie',
         view: 'front',
       });
       const ready = await settled(server, uploaded.id);
@@ -101,11 +98,8 @@ describe('analysis on the server', () => {
     'follows the coach’s pick on a clip with another skier crossing, as the CLI did (within 0.05 torso lengths)',
     { timeout: 180_000 },
     async () => {
-      const kit = await server.athleteId('Kit');
-      const [sessionId] = await server.sessionIds();
-      const uploaded = await uploadClip(server, path.join(DEMO_FOOTAGE_DIR, 'phantom-crossing-turns.mp4'), {
-        sessionId,
-        athleteIds: kit,
+      const uploaded = await uploadDemoFootage(server, 'phantom-crossing-turns', {
+        athlete: 'Kit',
         view: 'front',
       });
       await settled(server, uploaded.id);
@@ -197,11 +191,8 @@ describe('a clip the coach’s browser is analysing', () => {
     'waits while the browser posts frames, then the server reads only the frames the browser left',
     { timeout: 180_000 },
     async () => {
-      const elsie = await server.athleteId('Elsie');
-      const [sessionId] = await server.sessionIds();
-      const uploaded = await uploadClip(server, path.join(DEMO_FOOTAGE_DIR, 'phantom-side-run.mp4'), {
-        sessionId,
-        athleteIds: elsie,
+      const uploaded = await uploadDemoFootage(server, 'phantom-side-run', {
+        athlete: 'Elsie',
         view: 'side',
       });
       // Right after the upload, while the clip is still prepared: the browser says it analyses it.
